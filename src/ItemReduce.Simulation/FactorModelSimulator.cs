@@ -1,0 +1,177 @@
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Randomness;
+using MathNet.Numerics.Distributions;
+
+namespace ItemReduce.Simulation;
+
+/// <summary>
+/// Draws survey data from a <see cref="FactorModelSpec"/> with a seeded <see cref="RandomStream"/>:
+/// correlated normal factors (Cholesky of Φ), item latent scores, ordinal cut-points, reverse keying,
+/// MCAR missingness and planted careless respondents. Deterministic for a given seed.
+/// </summary>
+public static class FactorModelSimulator
+{
+    /// <summary>Simulation settings besides the model.</summary>
+    /// <param name="Respondents">Number of rows.</param>
+    /// <param name="Seed">Random seed.</param>
+    /// <param name="MissingRate">Probability that any one answer is missing (MCAR).</param>
+    /// <param name="StraightLiners">Number of planted straight-line respondents.</param>
+    /// <param name="RandomResponders">Number of planted uniform-random respondents.</param>
+    /// <param name="ItemNames">Optional item names (default q01, q02, ...).</param>
+    /// <param name="SubscaleNames">Optional subscale name per factor (default F1, F2, ...).</param>
+    public sealed record Settings(
+        int Respondents,
+        ulong Seed,
+        double MissingRate = 0.0,
+        int StraightLiners = 0,
+        int RandomResponders = 0,
+        IReadOnlyList<string>? ItemNames = null,
+        IReadOnlyList<string>? SubscaleNames = null);
+
+    /// <summary>Generates a survey.</summary>
+    public static SimulatedSurvey Generate(FactorModelSpec spec, Settings settings)
+    {
+        ArgumentNullException.ThrowIfNull(spec);
+        ArgumentNullException.ThrowIfNull(settings);
+        int n = settings.Respondents, p = spec.ItemFactor.Length, k = spec.FactorCount;
+        if (settings.StraightLiners + settings.RandomResponders > n)
+            throw new ArgumentException("More careless respondents than respondents.");
+        var rng = new RandomStream(settings.Seed);
+        var chol = Cholesky(spec.FactorCorrelations ?? Identity(k));
+
+        // Unique-variance weights per item.
+        var uniq = new double[p];
+        var cross = new double[p];
+        var crossFactor = new int[p];
+        Array.Fill(crossFactor, -1);
+        foreach (var (item, factor, loading) in spec.CrossLoadings) { cross[item] = loading; crossFactor[item] = factor; }
+        for (int j = 0; j < p; j++)
+        {
+            double phi = crossFactor[j] >= 0 ? (spec.FactorCorrelations?[spec.ItemFactor[j], crossFactor[j]] ?? 0.0) : 0.0;
+            double common = spec.Loadings[j] * spec.Loadings[j] + cross[j] * cross[j] + 2 * spec.Loadings[j] * cross[j] * phi;
+            if (common >= 1.0) throw new ArgumentException($"Item {j}: common variance {common} ≥ 1.");
+            uniq[j] = Math.Sqrt(1.0 - common);
+        }
+
+        int c = spec.Categories;
+        double[] cuts = c > 0 ? CutPoints(spec.CategoryProbabilities ?? DefaultProbabilities(c)) : [];
+
+        var careless = new CarelessKind[n];
+        // Plant careless respondents at seeded random positions.
+        var order = Enumerable.Range(0, n).ToArray();
+        rng.Shuffle(order.AsSpan());
+        for (int t = 0; t < settings.StraightLiners; t++) careless[order[t]] = CarelessKind.StraightLine;
+        for (int t = 0; t < settings.RandomResponders; t++) careless[order[settings.StraightLiners + t]] = CarelessKind.UniformRandom;
+
+        var values = new double[(long)n * p];
+        var z = new double[k];
+        var f = new double[k];
+        for (int i = 0; i < n; i++)
+        {
+            long o = (long)i * p;
+            switch (careless[i])
+            {
+                case CarelessKind.StraightLine:
+                {
+                    double v = c > 0 ? 1 + rng.NextInt(c) : rng.NextGaussian();
+                    for (int j = 0; j < p; j++) values[o + j] = v;
+                    break;
+                }
+                case CarelessKind.UniformRandom:
+                    for (int j = 0; j < p; j++) values[o + j] = c > 0 ? 1 + rng.NextInt(c) : 3 * (2 * rng.NextDouble() - 1);
+                    break;
+                default:
+                    for (int a = 0; a < k; a++) z[a] = rng.NextGaussian();
+                    for (int a = 0; a < k; a++)
+                    {
+                        double s = 0;
+                        for (int b = 0; b <= a; b++) s += chol[a, b] * z[b];
+                        f[a] = s;
+                    }
+                    for (int j = 0; j < p; j++)
+                    {
+                        double x = spec.Loadings[j] * f[spec.ItemFactor[j]] + uniq[j] * rng.NextGaussian();
+                        if (crossFactor[j] >= 0) x += cross[j] * f[crossFactor[j]];
+                        values[o + j] = c > 0 ? Categorize(x, cuts) : x;
+                    }
+                    break;
+            }
+            if (c > 0 && spec.ReverseKeyed is { } rev)
+                for (int j = 0; j < p; j++) if (rev[j]) values[o + j] = 1 + c - values[o + j];
+            if (settings.MissingRate > 0)
+                for (int j = 0; j < p; j++) if (rng.NextDouble() < settings.MissingRate) values[o + j] = double.NaN;
+        }
+
+        var items = new ItemDefinition[p];
+        for (int j = 0; j < p; j++)
+        {
+            string name = settings.ItemNames?[j] ?? $"q{j + 1:00}";
+            string sub = settings.SubscaleNames?[spec.ItemFactor[j]] ?? $"F{spec.ItemFactor[j] + 1}";
+            bool reverse = spec.ReverseKeyed?[j] ?? false;
+            items[j] = c > 0 ? new ItemDefinition(name, sub, reverse, 1, c, null)
+                             : new ItemDefinition(name, sub, false, -1e6, 1e6, null);
+        }
+        var ids = Enumerable.Range(1, n).Select(i => $"R{i:00000}").ToArray();
+        return new SimulatedSurvey(new ResponseMatrix(ids, items, values), new Codebook(items), spec, careless);
+    }
+
+    private static double Categorize(double x, double[] cuts)
+    {
+        int cat = 1;
+        foreach (double t in cuts) if (x > t) cat++;
+        return cat;
+    }
+
+    /// <summary>Normal quantiles of the cumulative category probabilities.</summary>
+    private static double[] CutPoints(double[] probabilities)
+    {
+        double total = probabilities.Sum(), acc = 0;
+        var cuts = new double[probabilities.Length - 1];
+        for (int t = 0; t < cuts.Length; t++)
+        {
+            acc += probabilities[t] / total;
+            cuts[t] = Normal.InvCDF(0, 1, acc);
+        }
+        return cuts;
+    }
+
+    private static double[] DefaultProbabilities(int c)
+    {
+        // Mildly bell-shaped, slightly favouring agreement, as Likert pilots usually are.
+        var pr = new double[c];
+        for (int t = 0; t < c; t++)
+        {
+            double mid = (c - 1) / 2.0 + 0.3;
+            pr[t] = Math.Exp(-0.5 * Math.Pow((t - mid) / (c / 3.0), 2));
+        }
+        return pr;
+    }
+
+    private static double[,] Identity(int k)
+    {
+        var m = new double[k, k];
+        for (int a = 0; a < k; a++) m[a, a] = 1;
+        return m;
+    }
+
+    private static double[,] Cholesky(double[,] a)
+    {
+        int k = a.GetLength(0);
+        var l = new double[k, k];
+        for (int i = 0; i < k; i++)
+        {
+            for (int j = 0; j <= i; j++)
+            {
+                double s = a[i, j];
+                for (int t = 0; t < j; t++) s -= l[i, t] * l[j, t];
+                if (i == j)
+                {
+                    if (s <= 0) throw new ArgumentException("Factor correlation matrix is not positive definite.");
+                    l[i, i] = Math.Sqrt(s);
+                }
+                else l[i, j] = s / l[j, j];
+            }
+        }
+        return l;
+    }
+}
