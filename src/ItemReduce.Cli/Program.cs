@@ -1,1 +1,6 @@
-return 0;
+namespace ItemReduce.Cli;
+
+internal static class Program
+{
+    private static int Main(string[] args) => CliApp.Run(args, Console.Out, Console.Error, !Console.IsErrorRedirected);
+}

@@ -1,0 +1,33 @@
+using ItemReduce.Core.Data;
+
+namespace ItemReduce.Core.Pipeline;
+
+/// <summary>
+/// Data ready for analysis: reverse-scored, with unusable items (all missing, zero variance) removed.
+/// </summary>
+/// <param name="Raw">Responses as read (not reverse-scored), all codebook items.</param>
+/// <param name="Scored">Reverse-scored responses on the usable items only.</param>
+/// <param name="RawSummary">Summary of the raw responses.</param>
+/// <param name="ExcludedItems">Items left out, with reasons.</param>
+/// <param name="Warnings">Plain-language warnings for the user and the appendix.</param>
+public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, DataSummary RawSummary,
+    IReadOnlyList<ExcludedItem> ExcludedItems, IReadOnlyList<string> Warnings)
+{
+    /// <summary>Minimum respondents for the covariance matrix of <paramref name="items"/> items to be invertible: max(items + 1, 10).</summary>
+    public static int MinimumRespondents(int items) => Math.Max(items + 1, 10);
+
+    /// <summary>Reverse-scores and removes unusable items.</summary>
+    public static PreparedData From(ResponseMatrix raw)
+    {
+        ArgumentNullException.ThrowIfNull(raw);
+        var summary = DataSummary.Of(raw);
+        var (kept, excluded) = ItemScreen.Find(raw);
+        var warnings = new List<string>();
+        foreach (var e in excluded)
+            warnings.Add($"Item {e.Item} was left out of the analysis: {e.Detail}.");
+        var scored = ReverseScoring.Apply(kept.Length == raw.ItemCount ? raw : raw.SelectItems(kept));
+        if (summary.RespondentsWithNoAnswers > 0)
+            warnings.Add($"{summary.RespondentsWithNoAnswers} respondent(s) answered none of the items.");
+        return new PreparedData(raw, scored, summary, excluded, warnings);
+    }
+}

@@ -1,0 +1,81 @@
+using System.Globalization;
+using System.Text;
+using CsvHelper;
+using CsvHelper.Configuration;
+
+namespace ItemReduce.IO;
+
+/// <summary>
+/// Streams RFC 4180 records from a delimited text file with the 1-based line number on which each
+/// record starts (quoted fields may span lines). Blank lines are skipped.
+/// </summary>
+internal sealed class CsvRecordReader : IDisposable
+{
+    private readonly string _path;
+    private readonly StreamReader _reader;
+    private readonly CsvParser _parser;
+    private long _linesConsumed;
+
+    public CsvRecordReader(string path, char delimiter)
+    {
+        _path = path;
+        Delimiter = delimiter;
+        _reader = DelimitedText.Open(path);
+        var config = new CsvConfiguration(CultureInfo.InvariantCulture)
+        {
+            Delimiter = delimiter.ToString(),
+            HasHeaderRecord = false,
+            IgnoreBlankLines = false,
+            DetectColumnCountChanges = false,
+            TrimOptions = TrimOptions.None,
+            BadDataFound = args => throw InputErrors.At(_path, _linesConsumed + 1, null,
+                $"a double quote appears inside an unquoted field ({InputErrors.Show(args.Field)})",
+                "quote the whole field and double any quote inside it (\"\"), as in RFC 4180"),
+        };
+        _parser = new CsvParser(_reader, config);
+    }
+
+    public char Delimiter { get; }
+
+    /// <summary>Line on which the current record starts.</summary>
+    public long Line { get; private set; }
+
+    /// <summary>Fields of the current record.</summary>
+    public string[] Fields { get; private set; } = [];
+
+    /// <summary>Advances to the next non-blank record; false at end of file.</summary>
+    public bool Read()
+    {
+        while (true)
+        {
+            bool ok;
+            try
+            {
+                ok = _parser.Read();
+            }
+            catch (DecoderFallbackException)
+            {
+                throw InputErrors.At(_path, _linesConsumed + 1, null, "the text is not valid UTF-8",
+                    "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
+            }
+            catch (CsvHelperException e) when (e.InnerException is DecoderFallbackException)
+            {
+                throw InputErrors.At(_path, _linesConsumed + 1, null, "the text is not valid UTF-8",
+                    "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
+            }
+            if (!ok) return false;
+            Line = _linesConsumed + 1;
+            _linesConsumed = _parser.RawRow;
+            var record = _parser.Record ?? [];
+            if (record.Length == 1 && record[0].Length == 0) continue; // blank line
+            Fields = record;
+            return true;
+        }
+    }
+
+    public void Dispose()
+    {
+        _parser.Dispose();
+        _reader.Dispose();
+    }
+}

@@ -1,0 +1,27 @@
+using ItemReduce.Core.Pipeline;
+
+namespace ItemReduce.IO.Jobs;
+
+/// <summary>Inputs read and prepared, with their fingerprints.</summary>
+public sealed record LoadedSurvey(ResponseIntake Intake, PreparedData Prepared, string ResponsesSha256, string CodebookSha256);
+
+/// <summary>Reads the codebook and responses, prepares the data and enforces the minimum sample size.</summary>
+public static class SurveyLoader
+{
+    /// <summary>Loads and validates; throws <see cref="SurveyInputException"/> on user errors.</summary>
+    public static LoadedSurvey Load(JobSettings settings, ProgressLog log)
+    {
+        log.Step($"reading codebook {settings.Codebook}");
+        var (codebook, lines) = CodebookReader.Read(settings.Codebook);
+        log.Step($"reading responses {settings.Responses}");
+        var intake = ResponseReader.Read(settings.Responses, codebook, lines, settings.Codebook, settings.Intake);
+        log.Step($"read {intake.Responses.RespondentCount} respondents × {intake.Responses.ItemCount} items");
+        var prepared = PreparedData.From(intake.Responses);
+        int usable = prepared.Scored.ItemCount;
+        if (usable < 3) throw InputErrors.TooFewItems(settings.Responses, usable);
+        int answering = prepared.RawSummary.Respondents - prepared.RawSummary.RespondentsWithNoAnswers;
+        int need = PreparedData.MinimumRespondents(usable);
+        if (answering < need) throw InputErrors.TooFewRespondents(settings.Responses, answering, need, usable);
+        return new LoadedSurvey(intake, prepared, FileFingerprint.Sha256(settings.Responses), FileFingerprint.Sha256(settings.Codebook));
+    }
+}

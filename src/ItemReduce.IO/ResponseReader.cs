@@ -1,0 +1,102 @@
+using System.Globalization;
+using ItemReduce.Core.Data;
+
+namespace ItemReduce.IO;
+
+/// <summary>Raw responses as read: codebook items in codebook order, NaN = missing, not yet reverse-scored.</summary>
+/// <param name="Responses">The matrix.</param>
+/// <param name="IdColumn">Name of the id column used, or null when ids are line numbers.</param>
+/// <param name="Delimiter">Delimiter used.</param>
+/// <param name="IgnoredColumns">Columns that are neither the id nor an item.</param>
+public sealed record ResponseIntake(ResponseMatrix Responses, string? IdColumn, char Delimiter, IReadOnlyList<string> IgnoredColumns);
+
+/// <summary>
+/// Reads the responses CSV against a codebook in one streaming pass, validating every cell:
+/// missing codes first, then "is a finite number", then the codebook range.
+/// </summary>
+public static class ResponseReader
+{
+    /// <summary>Reads and validates; throws <see cref="SurveyInputException"/> naming line and column on any problem.</summary>
+    public static ResponseIntake Read(string path, Codebook codebook, IReadOnlyList<long> codebookLines, string codebookPath, IntakeOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(codebook);
+        ArgumentNullException.ThrowIfNull(options);
+        if (!File.Exists(path)) throw InputErrors.FileMissing(path, "responses", "--responses");
+        string? first;
+        try { first = DelimitedText.FirstLine(path); }
+        catch (System.Text.DecoderFallbackException)
+        {
+            throw InputErrors.At(path, 1, null, "the text is not valid UTF-8", "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
+        }
+        if (first is null || first.Trim().Length == 0) throw InputErrors.EmptyFile(path);
+        char delimiter = options.Delimiter ?? DelimitedText.Detect(first);
+
+        using var csv = new CsvRecordReader(path, delimiter);
+        if (!csv.Read()) throw InputErrors.EmptyFile(path);
+        var header = csv.Fields.Select(h => h.Trim()).ToArray();
+        var position = new Dictionary<string, int>(StringComparer.Ordinal);
+        for (int c = 0; c < header.Length; c++)
+        {
+            if (header[c].Length == 0) throw InputErrors.EmptyColumnName(path, c + 1);
+            if (!position.TryAdd(header[c], c)) throw InputErrors.DuplicateColumn(path, header[c], position[header[c]] + 1, c + 1);
+        }
+
+        int p = codebook.Count;
+        var itemCol = new int[p];
+        for (int j = 0; j < p; j++)
+        {
+            if (!position.TryGetValue(codebook.Items[j].Name, out itemCol[j]))
+                throw InputErrors.ItemNotInResponses(codebookPath, codebookLines[j], codebook.Items[j].Name, path);
+        }
+        int idCol = ChooseIdColumn(path, header, position, codebook, options.IdColumn);
+        var ignored = header.Where((h, c) => c != idCol && codebook.IndexOf(h) < 0).ToList();
+
+        var missing = new HashSet<string>(options.EffectiveMissingCodes.Select(m => m.Trim()), StringComparer.Ordinal) { "" };
+        var values = new List<double>(1024 * p);
+        var ids = new List<string>(1024);
+        var idLines = new Dictionary<string, long>(StringComparer.Ordinal);
+        var row = new double[p];
+        while (csv.Read())
+        {
+            var f = csv.Fields;
+            if (f.Length != header.Length) throw InputErrors.Ragged(path, csv.Line, header.Length, f.Length);
+            string id;
+            if (idCol >= 0)
+            {
+                id = f[idCol].Trim();
+                if (id.Length == 0) throw InputErrors.EmptyId(path, csv.Line, header[idCol]);
+            }
+            else id = csv.Line.ToString(CultureInfo.InvariantCulture);
+            if (!idLines.TryAdd(id, csv.Line)) throw InputErrors.DuplicateId(path, csv.Line, header[Math.Max(idCol, 0)], id, idLines[id]);
+            for (int j = 0; j < p; j++)
+            {
+                string raw = f[itemCol[j]];
+                string cell = raw.Trim();
+                if (missing.Contains(cell)) { row[j] = double.NaN; continue; }
+                if (!double.TryParse(cell, NumberStyles.Float, CultureInfo.InvariantCulture, out double v) || !double.IsFinite(v))
+                    throw InputErrors.NotANumber(path, csv.Line, header[itemCol[j]], raw);
+                var item = codebook.Items[j];
+                if (!item.InRange(v)) throw InputErrors.OutOfRange(path, csv.Line, header[itemCol[j]], raw, item.Min, item.Max);
+                row[j] = v;
+            }
+            values.AddRange(row);
+            ids.Add(id);
+        }
+        if (ids.Count == 0) throw InputErrors.HeaderOnly(path);
+        var matrix = new ResponseMatrix(ids, codebook.Items, values.ToArray());
+        return new ResponseIntake(matrix, idCol >= 0 ? header[idCol] : null, delimiter, ignored);
+    }
+
+    private static int ChooseIdColumn(string path, string[] header, Dictionary<string, int> position, Codebook codebook, string? requested)
+    {
+        if (requested is not null)
+        {
+            if (!position.TryGetValue(requested, out int c)) throw InputErrors.IdColumnMissing(path, requested);
+            if (codebook.IndexOf(requested) >= 0) throw InputErrors.IdColumnIsItem(path, requested);
+            return c;
+        }
+        if (position.TryGetValue("respondent", out int r) && codebook.IndexOf("respondent") < 0) return r;
+        for (int c = 0; c < header.Length; c++) if (codebook.IndexOf(header[c]) < 0) return c;
+        return -1;
+    }
+}

@@ -1,0 +1,71 @@
+using System.Globalization;
+using System.Text;
+
+namespace ItemReduce.IO;
+
+/// <summary>
+/// Writes CSV tables per RFC 4180 (comma, CRLF-free "\n" line ends, quotes doubled, fields quoted when
+/// needed) and neutralises text cells that a spreadsheet would execute as a formula: a text cell that
+/// starts with <c>=</c>, <c>+</c>, <c>-</c>, <c>@</c>, tab or carriage return gets a leading apostrophe
+/// (OWASP "CSV injection" guidance, common practice). Numbers are written in invariant culture with
+/// round-trip precision; NaN and infinities as empty cells.
+/// </summary>
+public sealed class SafeCsvWriter
+{
+    private readonly StringBuilder _sb = new();
+    private readonly int _columns;
+
+    public SafeCsvWriter(IReadOnlyList<string> header)
+    {
+        _columns = header.Count;
+        AppendRow(header.Select(Text).ToArray());
+    }
+
+    /// <summary>A text cell (neutralised and quoted as needed).</summary>
+    public static string Text(string? value) => Quote(Neutralise(value ?? ""));
+
+    /// <summary>A number cell with round-trip precision; empty for NaN/infinity.</summary>
+    public static string Number(double value) =>
+        double.IsFinite(value) ? value.ToString("R", CultureInfo.InvariantCulture) : "";
+
+    /// <summary>A number cell rounded to <paramref name="decimals"/> decimals; empty for NaN/infinity.</summary>
+    public static string Number(double value, int decimals) =>
+        double.IsFinite(value) ? Math.Round(value, decimals).ToString("R", CultureInfo.InvariantCulture) : "";
+
+    public static string Integer(long value) => value.ToString(CultureInfo.InvariantCulture);
+
+    public static string Bool(bool value) => value ? "true" : "false";
+
+    /// <summary>Appends a row of already formatted cells (use <see cref="Text"/>, <see cref="Number(double)"/>...).</summary>
+    public void AppendRow(IReadOnlyList<string> cells)
+    {
+        if (cells.Count != _columns) throw new ArgumentException($"Row has {cells.Count} cells, header has {_columns}.");
+        for (int c = 0; c < cells.Count; c++)
+        {
+            if (c > 0) _sb.Append(',');
+            _sb.Append(cells[c]);
+        }
+        _sb.Append('\n');
+    }
+
+    /// <summary>The CSV text.</summary>
+    public override string ToString() => _sb.ToString();
+
+    internal static string Neutralise(string value)
+    {
+        if (value.Length == 0) return value;
+        char c0 = value[0];
+        if (c0 is '=' or '+' or '-' or '@' or '\t' or '\r')
+        {
+            if (c0 is '+' or '-' && double.TryParse(value, NumberStyles.Float, CultureInfo.InvariantCulture, out _)) return value;
+            return "'" + value;
+        }
+        return value;
+    }
+
+    internal static string Quote(string value)
+    {
+        if (value.IndexOfAny([',', '"', '\n', '\r']) < 0) return value;
+        return "\"" + value.Replace("\"", "\"\"") + "\"";
+    }
+}
