@@ -1,0 +1,183 @@
+using System.Security.Cryptography;
+using ItemReduce.Tests.Support;
+
+namespace ItemReduce.Tests.Cli;
+
+/// <summary>
+/// Every malformed input gives exit code 2, one line naming file, line and column/item, no stack trace,
+/// no output folder, and leaves the inputs untouched.
+/// </summary>
+public class InputErrorTests
+{
+    private static void AssertInputError(TempSurvey s, (int Code, string Out, string Err) r, params string[] mustMention)
+    {
+        Assert.Equal(2, r.Code);
+        string line = r.Err.TrimEnd('\n');
+        Assert.DoesNotContain('\n', line); // exactly one line
+        Assert.DoesNotContain("   at ", r.Err); // no stack trace
+        Assert.Contains("Fix:", line);
+        foreach (string m in mustMention) Assert.Contains(m, line);
+        Assert.False(Directory.Exists(s.Out), "no output folder on failure");
+        Assert.Empty(Directory.GetDirectories(s.Folder)); // no partial temp folders either
+    }
+
+    private static string Hash(string path) => Convert.ToHexString(SHA256.HashData(File.ReadAllBytes(path)));
+
+    [Fact]
+    public void Bad_cell_on_line_101_names_line_101_and_the_column()
+    {
+        using var s = new TempSurvey().WithCodebook();
+        var lines = TempSurvey.ValidResponses(150).Split('\n');
+        // line 101 (1-based) is data row 100; corrupt its q3 cell
+        var cells = lines[100].Split(',');
+        cells[3] = "abc";
+        lines[100] = string.Join(',', cells);
+        s.WithResponses(string.Join('\n', lines));
+        string before = Hash(s.Responses);
+        AssertInputError(s, s.Run(), "responses.csv", "line 101", "\"q3\"", "\"abc\"");
+        Assert.Equal(before, Hash(s.Responses));
+    }
+
+    [Theory]
+    [InlineData("NaN")]
+    [InlineData("Infinity")]
+    [InlineData("-Infinity")]
+    [InlineData("3,5")] // quoted decimal comma
+    [InlineData("four")]
+    public void Non_numeric_cells_are_rejected(string bad)
+    {
+        using var s = new TempSurvey().WithCodebook();
+        var lines = TempSurvey.ValidResponses(30).Split('\n');
+        var cells = lines[5].Split(',');
+        cells[2] = bad.Contains(',') ? $"\"{bad}\"" : bad;
+        lines[5] = string.Join(',', cells);
+        s.WithResponses(string.Join('\n', lines));
+        AssertInputError(s, s.Run(), "line 6", "\"q2\"", "not a finite number");
+    }
+
+    [Theory]
+    [InlineData("7")]
+    [InlineData("0")]
+    [InlineData("1e308")]
+    [InlineData("-99")]
+    public void Values_outside_the_codebook_range_are_rejected(string bad)
+    {
+        using var s = new TempSurvey().WithCodebook();
+        var lines = TempSurvey.ValidResponses(30).Split('\n');
+        var cells = lines[10].Split(',');
+        cells[4] = bad;
+        lines[10] = string.Join(',', cells);
+        s.WithResponses(string.Join('\n', lines));
+        AssertInputError(s, s.Run(), "line 11", "\"q4\"", "outside the codebook range 1–5");
+    }
+
+    [Fact]
+    public void Missing_codes_are_honoured_before_range_checks()
+    {
+        using var s = new TempSurvey().WithCodebook();
+        var lines = TempSurvey.ValidResponses(30).Split('\n');
+        var cells = lines[10].Split(',');
+        cells[4] = "-99";
+        lines[10] = string.Join(',', cells);
+        s.WithResponses(string.Join('\n', lines));
+        var r = s.Run("--missing=-99,NA");
+        Assert.True(r.Code == 0, r.Err);
+    }
+
+    [Fact]
+    public void Empty_file() { using var s = new TempSurvey().WithCodebook().WithResponses(""); AssertInputError(s, s.Run(), "responses.csv", "line 1", "empty"); }
+
+    [Fact]
+    public void Header_only() { using var s = new TempSurvey().WithCodebook().WithResponses("respondent,q1,q2,q3,q4\n"); AssertInputError(s, s.Run(), "line 2", "no data rows"); }
+
+    [Fact]
+    public void Duplicate_column_names()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses("respondent,q1,q2,q3,q4,q2\nA,1,2,3,4,5\n");
+        AssertInputError(s, s.Run(), "line 1", "\"q2\"", "appears twice");
+    }
+
+    [Fact]
+    public void Ragged_rows()
+    {
+        var text = TempSurvey.ValidResponses(30).Split('\n');
+        text[7] += ",5";
+        using var s = new TempSurvey().WithCodebook().WithResponses(string.Join('\n', text));
+        AssertInputError(s, s.Run(), "line 8", "6 fields", "header has 5");
+    }
+
+    [Fact]
+    public void Line_numbers_count_lines_inside_quoted_fields()
+    {
+        // A quoted id with an embedded newline makes the record span lines 2-3; the bad cell is then on line 4.
+        string text = "respondent,q1,q2,q3,q4\n\"multi\nline\",1,2,3,4\nB,1,2,x,4\n";
+        using var s = new TempSurvey().WithCodebook().WithResponses(text);
+        AssertInputError(s, s.Run(), "line 4", "\"q3\"");
+    }
+
+    [Fact]
+    public void Codebook_item_missing_from_responses()
+    {
+        using var s = new TempSurvey().WithCodebook(5).WithResponses(TempSurvey.ValidResponses(30));
+        AssertInputError(s, s.Run(), "codebook.csv", "line 6", "\"q5\"", "no column in responses.csv");
+    }
+
+    [Theory]
+    [InlineData("q2,S1,maybe,1,5,x", "\"reverse\"", "\"maybe\"")]
+    [InlineData("q2,S1,false,5,1,x", "\"min\"", "must be below max")]
+    [InlineData("q2,S1,false,1,five,x", "\"max\"", "\"five\"")]
+    [InlineData("q2,S1,false,low,5,x", "\"min\"", "\"low\"")]
+    public void Malformed_codebook_values(string badLine, string column, string detail)
+    {
+        string cb = "item,subscale,reverse,min,max,text\nq1,S1,false,1,5,a\n" + badLine + "\nq3,S2,false,1,5,c\nq4,S2,false,1,5,d\n";
+        using var s = new TempSurvey().WithCodebook(text: cb).WithResponses(TempSurvey.ValidResponses(30));
+        AssertInputError(s, s.Run(), "codebook.csv", "line 3", column, detail);
+    }
+
+    [Fact]
+    public void Duplicate_respondent_ids()
+    {
+        var text = TempSurvey.ValidResponses(30).Split('\n');
+        text[20] = "id3" + text[20][text[20].IndexOf(',')..];
+        using var s = new TempSurvey().WithCodebook().WithResponses(string.Join('\n', text));
+        AssertInputError(s, s.Run(), "line 21", "\"id3\"", "already appeared on line 4");
+    }
+
+    [Fact]
+    public void Too_few_respondents_says_how_many_are_needed()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(6));
+        AssertInputError(s, s.Run(), "responses.csv", "6 respondents", "at least 10");
+    }
+
+    [Fact]
+    public void Missing_file_is_a_clear_input_error()
+    {
+        using var s = new TempSurvey().WithCodebook();
+        AssertInputError(s, s.Run(), "not found", "--responses");
+    }
+
+    [Fact]
+    public void Existing_output_folder_is_not_replaced_without_force()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40));
+        Directory.CreateDirectory(s.Out);
+        File.WriteAllText(Path.Combine(s.Out, "keep.txt"), "mine");
+        var r = s.Run();
+        Assert.Equal(2, r.Code);
+        Assert.Contains("--force", r.Err);
+        Assert.True(File.Exists(Path.Combine(s.Out, "keep.txt")));
+        var forced = s.Run("--force");
+        Assert.True(forced.Code == 0, forced.Err);
+        Assert.False(File.Exists(Path.Combine(s.Out, "keep.txt")));
+        Assert.True(File.Exists(Path.Combine(s.Out, "summary.json")));
+    }
+
+    [Fact]
+    public void Unknown_option_is_a_usage_error_with_exit_2()
+    {
+        var r = TempSurvey.Cli("run", "--replicatez", "5");
+        Assert.Equal(2, r.Code);
+        Assert.Contains("--help", r.Err);
+    }
+}

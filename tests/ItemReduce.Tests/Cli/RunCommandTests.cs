@@ -1,0 +1,104 @@
+using System.Text;
+using System.Text.Json;
+using ItemReduce.Tests.Support;
+
+namespace ItemReduce.Tests.Cli;
+
+public class RunCommandTests
+{
+    private static JsonElement Summary(TempSurvey s) => JsonDocument.Parse(File.ReadAllText(Path.Combine(s.Out, "summary.json"))).RootElement;
+
+    [Fact]
+    public void Zero_variance_and_all_missing_items_are_excluded_with_a_warning_and_recorded()
+    {
+        // Policy (documented in the README): continue, exclude the item, warn, record it in summary.json.
+        var lines = TempSurvey.ValidResponses(40, 6).Split('\n', StringSplitOptions.RemoveEmptyEntries).ToList();
+        for (int i = 1; i < lines.Count; i++)
+        {
+            var c = lines[i].Split(',');
+            c[5] = "3";   // q5 constant
+            c[6] = "NA";  // q6 never answered
+            lines[i] = string.Join(',', c);
+        }
+        using var s = new TempSurvey().WithCodebook(6).WithResponses(string.Join('\n', lines) + "\n");
+        var r = s.Run();
+        Assert.True(r.Code == 0, r.Err);
+        var sum = Summary(s);
+        var excluded = sum.GetProperty("excludedItems").EnumerateArray().Select(e => (e.GetProperty("item").GetString(), e.GetProperty("reason").GetString())).ToList();
+        Assert.Contains(("q5", "zero-variance"), excluded);
+        Assert.Contains(("q6", "all-missing"), excluded);
+        Assert.Equal(4, sum.GetProperty("items").GetProperty("analysed").GetInt32());
+        Assert.Contains(sum.GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("q5"));
+    }
+
+    [Theory]
+    [InlineData(';')]
+    [InlineData('\t')]
+    public void Semicolon_and_tab_delimiters_are_detected(char d)
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40, 4, d));
+        var r = s.Check();
+        Assert.True(r.Code == 0, r.Err);
+        Assert.Contains(d == ';' ? "semicolon" : "tab", r.Out);
+        Assert.Contains("Respondents: 40", r.Out);
+    }
+
+    [Fact]
+    public void Utf8_bom_and_utf16_files_are_read()
+    {
+        using var a = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40), new UTF8Encoding(true));
+        Assert.Equal(0, a.Check().Code);
+        using var b = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40), new UnicodeEncoding(false, true));
+        var r = b.Check();
+        Assert.True(r.Code == 0, r.Err);
+        Assert.Contains("Respondents: 40", r.Out);
+    }
+
+    [Fact]
+    public void Plan_file_supplies_options_and_the_command_line_overrides_it()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40));
+        string plan = Path.Combine(s.Folder, "plan.json");
+        File.WriteAllText(plan, "{ // comment\n \"responses\": \"responses.csv\", \"codebook\": \"codebook.csv\", \"seed\": 7, \"out\": \"from-plan\", }");
+        var r = TempSurvey.Cli("run", "--plan", plan, "--seed", "9");
+        Assert.True(r.Code == 0, r.Err);
+        var sum = JsonDocument.Parse(File.ReadAllText(Path.Combine(s.Folder, "from-plan", "summary.json"))).RootElement;
+        Assert.Equal(9ul, sum.GetProperty("seed").GetUInt64());
+    }
+
+    [Fact]
+    public void Plan_file_with_an_unknown_key_names_the_key()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40));
+        string plan = Path.Combine(s.Folder, "plan.json");
+        File.WriteAllText(plan, "{ \"responses\": \"responses.csv\", \"replicats\": 10 }");
+        var r = TempSurvey.Cli("run", "--plan", plan);
+        Assert.Equal(2, r.Code);
+        Assert.Contains("\"replicats\"", r.Err);
+        Assert.Contains("unknown setting", r.Err);
+    }
+
+    [Fact]
+    public void Id_column_defaults_to_first_non_item_column_and_can_be_overridden()
+    {
+        string text = "wave,code,q1,q2,q3,q4\n" + string.Join("\n", TempSurvey.ValidResponses(40).Split('\n').Skip(1)
+            .Where(l => l.Length > 0).Select((l, i) => $"w1,c{i}," + l[(l.IndexOf(',') + 1)..])) + "\n";
+        using var s = new TempSurvey().WithCodebook().WithResponses(text);
+        var dup = s.Check(); // "wave" is the default id column and is duplicated
+        Assert.Equal(2, dup.Code);
+        Assert.Contains("\"wave\"", dup.Err);
+        var ok = s.Check("--id-column", "code");
+        Assert.True(ok.Code == 0, ok.Err);
+        Assert.Contains("id column: code", ok.Out);
+    }
+
+    [Fact]
+    public void Same_inputs_and_seed_give_byte_identical_summary()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(60));
+        Assert.Equal(0, s.Run().Code);
+        string first = File.ReadAllText(Path.Combine(s.Out, "summary.json"));
+        Assert.Equal(0, s.Run("--force").Code);
+        Assert.Equal(first, File.ReadAllText(Path.Combine(s.Out, "summary.json")));
+    }
+}
