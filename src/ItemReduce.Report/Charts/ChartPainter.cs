@@ -76,7 +76,8 @@ internal static class ChartPainter
         bool legend = spec.Series.Count > 1 || spec.IdentityLine;
         if (legend)
         {
-            plot.ShowLegend(Alignment.UpperRight);
+            // Line charts here mostly fall from left to right; Q–Q style scatters rise. Put the legend where the data is not.
+            plot.ShowLegend(spec.Kind == ChartKind.Line ? Alignment.UpperRight : Alignment.UpperLeft);
             plot.Legend.FontName = ReportFonts.ChartFamilyAlias;
             plot.Legend.FontSize = TickSize;
         }

@@ -65,9 +65,21 @@ internal sealed partial class AppendixLayout
         y += 4f;
         TableHeader(t, shape, head, left, right);
 
+        var note = TextStyle.Regular(NoteSize);
+        List<TextLine> noteLines = [];
+        if (!string.IsNullOrWhiteSpace(t.Note))
+        {
+            var runs = new List<TextRun> { new("Note.", true) };
+            runs.AddRange(InlineText.Parse(" " + t.Note));
+            noteLines = Wrap(runs, note.Size, page.ContentWidth, page.ContentWidth);
+        }
+        float noteHeight = 4f + noteLines.Count * note.LineHeight;
+
         for (int i = 0; i < t.Rows.Count; i++)
         {
-            if (y + shape.RowHeights[i] > page.ContentBottom && i > 0)
+            // The last row takes the note with it, so a note never stands alone at the top of a page.
+            float needed = shape.RowHeights[i] + (i == t.Rows.Count - 1 ? noteHeight : 0f);
+            if (y + needed > page.ContentBottom && i > 0)
             {
                 Rule(left, right, y, 0.5f);
                 NewPage();
@@ -80,13 +92,7 @@ internal sealed partial class AppendixLayout
         Rule(left, right, y, 0.8f);
         y += 4f;
 
-        if (!string.IsNullOrWhiteSpace(t.Note))
-        {
-            var note = TextStyle.Regular(NoteSize);
-            var runs = new List<TextRun> { new("Note.", true) };
-            runs.AddRange(InlineText.Parse(" " + t.Note));
-            FlowLines(Wrap(runs, note.Size, page.ContentWidth, page.ContentWidth), left, left, note);
-        }
+        FlowLines(noteLines, left, left, note);
         y += ParagraphGap;
     }
 

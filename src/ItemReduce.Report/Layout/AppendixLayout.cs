@@ -38,8 +38,17 @@ internal sealed partial class AppendixLayout
         var layout = new AppendixLayout(page, fonts);
         layout.NewPage();
         layout.TitleBlock(doc);
+        bool breakPending = false;
         foreach (var block in doc.Blocks)
         {
+            if (block is PageBreakBlock)
+            {
+                // Applied when content follows, so a trailing break never adds an empty page.
+                breakPending = true;
+                continue;
+            }
+            if (breakPending) layout.PageBreak();
+            breakPending = false;
             switch (block)
             {
                 case HeadingBlock h: layout.Heading(h); break;
@@ -48,7 +57,6 @@ internal sealed partial class AppendixLayout
                 case TableBlock t: layout.Table(t); break;
                 case FigureBlock f: layout.Figure(f); break;
                 case KeyValueBlock kv: layout.KeyValues(kv); break;
-                case PageBreakBlock: layout.PageBreak(); break;
                 case ReferenceListBlock r: layout.References(r); break;
                 default: throw new ArgumentException($"Unsupported block type {block.GetType().Name}.", nameof(doc));
             }

@@ -89,7 +89,7 @@ public sealed record KeyValueEntry(string Label, string Value);
 /// <summary>Two-column list of labels and values (e.g. the reproducibility record: seed, versions, input files).</summary>
 public sealed record KeyValueBlock(IReadOnlyList<KeyValueEntry> Entries) : Block;
 
-/// <summary>Forces the following content onto a new page.</summary>
+/// <summary>Forces the following content onto a new page (no effect at the top of a page or at the end of the document).</summary>
 public sealed record PageBreakBlock : Block;
 
 /// <summary>Reference list; each entry is a fully formatted citation, printed with a hanging indent.</summary>
