@@ -14,16 +14,9 @@ public static class LatexTablesWriter
     public static string Write(AppendixDocument document)
     {
         ArgumentNullException.ThrowIfNull(document);
-        var sb = new StringBuilder();
-        sb.Append("% Tables of \"").Append(document.Title.ReplaceLineEndings(" ")).Append("\"\n");
-        sb.Append("% Needs \\usepackage{booktabs} and \\usepackage[normalem]{ulem} (struck rows) in the preamble.\n");
-        foreach (var table in document.Tables)
-        {
-            table.Validate();
-            sb.Append('\n');
-            WriteTable(sb, table);
-        }
-        return sb.ToString();
+        string preamble = "% Tables of \"" + document.Title.ReplaceLineEndings(" ") + "\"\n"
+            + "% Needs \\usepackage{booktabs} and \\usepackage[normalem]{ulem} (struck rows) in the preamble.\n";
+        return TableExport.Write(document, preamble, WriteTable);
     }
 
     private static void WriteTable(StringBuilder sb, TableBlock t)
@@ -49,16 +42,7 @@ public static class LatexTablesWriter
     }
 
     private static string Cell(string text, RowMark mark)
-    {
-        string escaped = LatexText.Escape(text);
-        if (escaped.Length == 0) return escaped;
-        return mark switch
-        {
-            RowMark.Highlighted => "\\textbf{" + escaped + "}",
-            RowMark.Struck => "\\sout{" + escaped + "}",
-            _ => escaped,
-        };
-    }
+        => TableExport.Mark(LatexText.Escape(text), mark, ("\\textbf{", "}"), ("\\sout{", "}"));
 
     private static char AlignmentLetter(ColumnAlignment a) => a switch
     {

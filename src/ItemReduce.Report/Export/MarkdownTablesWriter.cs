@@ -15,15 +15,7 @@ public static class MarkdownTablesWriter
     public static string Write(AppendixDocument document)
     {
         ArgumentNullException.ThrowIfNull(document);
-        var sb = new StringBuilder();
-        sb.Append("# ").Append(Inline(document.Title)).Append('\n');
-        foreach (var table in document.Tables)
-        {
-            table.Validate();
-            sb.Append('\n');
-            WriteTable(sb, table);
-        }
-        return sb.ToString();
+        return TableExport.Write(document, "# " + Inline(document.Title) + "\n", WriteTable);
     }
 
     private static void WriteTable(StringBuilder sb, TableBlock t)
@@ -34,7 +26,7 @@ public static class MarkdownTablesWriter
         sb.Append('|').Append(string.Concat(t.Columns.Select(c => Delimiter(c.Alignment) + "|"))).Append('\n');
         foreach (var row in t.Rows)
         {
-            sb.Append("| ").Append(string.Join(" | ", row.Cells.Select(c => Marked(Cell(c), row.Mark)))).Append(" |\n");
+            sb.Append("| ").Append(string.Join(" | ", row.Cells.Select(c => TableExport.Mark(Cell(c), row.Mark, ("**", "**"), ("~~", "~~"))))).Append(" |\n");
         }
         if (!string.IsNullOrWhiteSpace(t.Note))
         {
@@ -48,17 +40,6 @@ public static class MarkdownTablesWriter
     /// <summary>Table cell: pipes and backslashes escaped, line breaks become spaces.</summary>
     internal static string Cell(string text)
         => text.ReplaceLineEndings(" ").Replace("\\", "\\\\", StringComparison.Ordinal).Replace("|", "\\|", StringComparison.Ordinal);
-
-    private static string Marked(string cell, RowMark mark)
-    {
-        if (cell.Trim().Length == 0) return cell;
-        return mark switch
-        {
-            RowMark.Highlighted => "**" + cell + "**",
-            RowMark.Struck => "~~" + cell + "~~",
-            _ => cell,
-        };
-    }
 
     private static string Delimiter(ColumnAlignment a) => a switch
     {

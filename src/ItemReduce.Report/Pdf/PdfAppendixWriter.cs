@@ -16,7 +16,8 @@ public static class PdfAppendixWriter
     /// <summary>
     /// Lays out and writes <paramref name="document"/> to <paramref name="output"/> (which is left open).
     /// The bytes depend only on the document: its <see cref="AppendixDocument.CreatedUtc"/> is used for the
-    /// creation and modification dates and the file identifier is derived from the content.
+    /// creation and modification dates, and the Skia PDF backend (without PDF/A) writes no random file
+    /// identifier (checked by a test that renders twice).
     /// </summary>
     /// <returns>Number of pages written.</returns>
     /// <exception cref="ArgumentException">A table or chart in the document is malformed.</exception>
@@ -30,7 +31,6 @@ public static class PdfAppendixWriter
         using var fonts = new FontCache();
         var pages = AppendixLayout.Run(document, geometry, fonts);
 
-        using var buffer = new MemoryStream();
         var metadata = SKDocumentPdfMetadata.Default;
         metadata.Title = document.Title;
         metadata.Subject = document.Subtitle;
@@ -39,7 +39,7 @@ public static class PdfAppendixWriter
         metadata.Creation = document.CreatedUtc.UtcDateTime;
         metadata.Modified = document.CreatedUtc.UtcDateTime;
 
-        using (var skStream = new SKManagedWStream(buffer, disposeManagedStream: false))
+        using (var skStream = new SKManagedWStream(output, disposeManagedStream: false))
         using (var pdf = SKDocument.CreatePdf(skStream, metadata))
         {
             foreach (var page in pages)
@@ -50,10 +50,6 @@ public static class PdfAppendixWriter
             }
             pdf.Close();
         }
-
-        byte[] bytes = buffer.ToArray();
-        PdfFileIdentifier.MakeDeterministic(bytes);
-        output.Write(bytes);
         return pages.Count;
     }
 }
