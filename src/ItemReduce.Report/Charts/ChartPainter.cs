@@ -67,6 +67,8 @@ internal static class ChartPainter
         plot.YLabel(spec.YLabel, LabelSize);
         foreach (var axis in plot.Axes.GetAxes())
         {
+            if (axis.TickGenerator is ScottPlot.TickGenerators.NumericAutomatic ticks)
+                ticks.LabelFormatter = TickLabel;
             axis.Label.FontName = ReportFonts.ChartFamilyAlias;
             axis.TickLabelStyle.FontName = ReportFonts.ChartFamilyAlias;
             axis.TickLabelStyle.FontSize = TickSize;
@@ -86,6 +88,14 @@ internal static class ChartPainter
             plot.HideLegend();
         }
         return plot;
+    }
+
+    /// <summary>Tick labels: invariant digits, at most four decimals, typographic minus (as in the tables).</summary>
+    internal static string TickLabel(double value)
+    {
+        if (Math.Abs(value) < 1e-12) value = 0; // avoid "−0" from floating-point tick positions
+        return value.ToString("0.####", System.Globalization.CultureInfo.InvariantCulture)
+            .Replace("-", Formatting.NumberFormat.Minus, StringComparison.Ordinal);
     }
 
     private static void AddSeries(Plot plot, ChartKind kind, ChartSeries series, Color color)

@@ -154,14 +154,13 @@ internal sealed partial class AppendixLayout
         return placed;
     }
 
-    private void Figure(FigureBlock f)
+    /// <summary>Caption lines, caption height and chart size of a figure (the chart shrinks to fit one page).</summary>
+    private (List<TextLine> CaptionLines, float CaptionHeight, float Width, float Height) FigureSize(FigureBlock f)
     {
-        f.Chart.Validate();
         var numberStyle = TextStyle.Strong(BodySize);
         var captionStyle = TextStyle.Regular(BodySize);
         var captionLines = Wrap(InlineText.Parse(f.Caption), captionStyle.Size, page.ContentWidth, page.ContentWidth);
         float captionHeight = numberStyle.LineHeight + captionLines.Count * captionStyle.LineHeight + 6f;
-
         float aspect = (float)f.Chart.AspectRatio;
         float width = page.ContentWidth;
         float height = width * aspect;
@@ -171,11 +170,17 @@ internal sealed partial class AppendixLayout
             height = maxHeight;
             width = height / aspect;
         }
+        return (captionLines, captionHeight, width, height);
+    }
 
+    private void Figure(FigureBlock f)
+    {
+        f.Chart.Validate();
+        var (captionLines, captionHeight, width, height) = FigureSize(f);
         Gap(BlockGap);
         Reserve(captionHeight + height);
-        SingleLine(FigureLabel(f.Number), numberStyle, page.ContentLeft);
-        FlowLines(captionLines, page.ContentLeft, page.ContentLeft, captionStyle);
+        SingleLine(FigureLabel(f.Number), TextStyle.Strong(BodySize), page.ContentLeft);
+        FlowLines(captionLines, page.ContentLeft, page.ContentLeft, TextStyle.Regular(BodySize));
         y += 6f;
         float x = page.ContentLeft + (page.ContentWidth - width) / 2f;
         current.Items.Add(new ChartItem(SKRect.Create(x, y, width, height), f.Chart));

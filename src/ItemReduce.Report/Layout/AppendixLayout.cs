@@ -51,7 +51,7 @@ internal sealed partial class AppendixLayout
             breakPending = false;
             switch (block)
             {
-                case HeadingBlock h: layout.Heading(h); break;
+                case HeadingBlock h: layout.Heading(h, layout.LeadHeight(doc.Blocks, block)); break;
                 case ParagraphBlock p: layout.Paragraph(p.Text); break;
                 case BulletListBlock b: layout.Bullets(b); break;
                 case TableBlock t: layout.Table(t); break;
@@ -156,13 +156,34 @@ internal sealed partial class AppendixLayout
         y += 12f;
     }
 
-    private void Heading(HeadingBlock h)
+    /// <summary>
+    /// Height of the start of the block after <paramref name="heading"/> that must share the heading's page:
+    /// a whole figure, a table's caption, header and first rows, or three lines of text.
+    /// </summary>
+    private float LeadHeight(IReadOnlyList<Block> blocks, Block heading)
+    {
+        int i = -1;
+        for (int k = 0; k < blocks.Count; k++)
+        {
+            if (ReferenceEquals(blocks[k], heading)) { i = k; break; }
+        }
+        Block? next = i >= 0 && i + 1 < blocks.Count ? blocks[i + 1] : null;
+        float threeLines = 3 * TextStyle.Regular(BodySize).LineHeight;
+        return next switch
+        {
+            FigureBlock f => BlockGap + FigureSize(f).CaptionHeight + FigureSize(f).Height,
+            TableBlock => BlockGap + 2 * TextStyle.Regular(BodySize).LineHeight + 4f + 3 * TextStyle.Regular(TableSize).LineHeight + 4 * CellPadY,
+            _ => threeLines,
+        };
+    }
+
+    private void Heading(HeadingBlock h, float leadHeight)
     {
         var style = h.Level == 1 ? TextStyle.Strong(13.5f) : TextStyle.Strong(11f);
         Gap(h.Level == 1 ? 12f : 8f);
         var lines = Wrap([new TextRun(h.Text, true)], style.Size, page.ContentWidth, page.ContentWidth);
-        // Keep the heading with at least three lines of what follows.
-        Reserve(lines.Count * style.LineHeight + 3 * TextStyle.Regular(BodySize).LineHeight);
+        // Keep the heading on the same page as the start of what follows.
+        Reserve(lines.Count * style.LineHeight + (h.Level == 1 ? 5f : 3f) + leadHeight);
         FlowLines(lines, page.ContentLeft, page.ContentLeft, style);
         y += h.Level == 1 ? 5f : 3f;
     }

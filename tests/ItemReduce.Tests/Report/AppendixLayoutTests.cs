@@ -38,20 +38,46 @@ public class AppendixLayoutTests
         }
     }
 
+    /// <summary>Largest number of one-line paragraphs that still fit on the first page.</summary>
+    private static int ParagraphsFillingPageOne()
+    {
+        int n = 1;
+        while (Lay(Doc([.. Lines(n + 1)])).Count == 1) n++;
+        return n;
+    }
+
+    private static IEnumerable<Block> Lines(int n) => Enumerable.Range(0, n).Select(i => (Block)new ParagraphBlock("Line " + i));
+
     [Fact]
     public void Figure_that_does_not_fit_moves_to_the_next_page_with_its_caption()
     {
-        // 46 one-line paragraphs of 10 pt text fill most of the first page; a figure cannot follow on it.
-        var blocks = Enumerable.Range(0, 46).Select(i => (Block)new ParagraphBlock("Line " + i)).ToList();
-        blocks.Add(new FigureBlock(1, "A chart", Chart));
-        var pages = Lay(Doc([.. blocks]));
+        var pages = Lay(Doc([.. Lines(ParagraphsFillingPageOne()), new FigureBlock(1, "A chart", Chart)]));
         Assert.Equal(2, pages.Count);
         Assert.Empty(pages[0].Items.OfType<ChartItem>());
         Assert.Single(pages[1].Items.OfType<ChartItem>());
-        Assert.Contains(pages[1].Texts, t => t.Text == "Figure 1");
+        Assert.DoesNotContain(pages[1].Texts, t => t.Text.StartsWith("Line", StringComparison.Ordinal));
         var caption = pages[1].Texts.Single(t => t.Text == "Figure 1");
         Assert.True(caption.Baseline < pages[1].Items.OfType<ChartItem>().Single().Rect.Top);
     }
+
+    [Fact]
+    public void Heading_moves_with_a_figure_that_does_not_fit_below_it()
+    {
+        // Eight lines fewer than a full page leave ~150 pt: room for a heading and three lines, not for the chart.
+        var pages = Lay(Doc([.. Lines(ParagraphsFillingPageOne() - 8), new HeadingBlock(1, "Charts"), new FigureBlock(1, "A chart", Chart)]));
+        Assert.Equal(2, pages.Count);
+        Assert.DoesNotContain(pages[0].Texts, t => t.Text == "Charts");
+        Assert.Contains(pages[1].Texts, t => t.Text == "Charts");
+        Assert.Single(pages[1].Items.OfType<ChartItem>());
+    }
+
+    [Theory]
+    [InlineData(-1.5, "\u22121.5")]
+    [InlineData(2.0, "2")]
+    [InlineData(1e-15, "0")]
+    [InlineData(0.125, "0.125")]
+    public void Chart_tick_labels_are_invariant_with_typographic_minus(double value, string expected)
+        => Assert.Equal(System.Text.RegularExpressions.Regex.Unescape(expected), ItemReduce.Report.Charts.ChartPainter.TickLabel(value));
 
     [Fact]
     public void Split_table_repeats_its_header_and_keeps_rows_in_order()
