@@ -18,13 +18,17 @@ public static class FactorAnalysis
     /// <param name="n">Number of respondents (used for ML fit statistics only); ≥ 2.</param>
     /// <param name="factors">Number of factors k, 1 ≤ k &lt; p.</param>
     /// <param name="options">Options; null = defaults (minres, oblimin).</param>
-    /// <exception cref="ArgumentException">Invalid matrix, n, k or options.</exception>
+    /// <exception cref="ArgumentException">Invalid matrix, n, k or options; for ML also a correlation matrix
+    /// that is not positive definite.</exception>
     /// <exception cref="FactorNonConvergenceException">A rotation became singular.</exception>
     public static FactorSolution Fit(double[,] correlation, int n, int factors, FactoringOptions? options = null)
     {
         var o = options ?? new FactoringOptions();
         Validate(correlation, n, factors, o);
         var r = MatrixHelpers.ToMatrix(correlation);
+        if (o.Extraction == FactorExtraction.MaximumLikelihood && MatrixHelpers.TryCholesky(r) is null)
+            throw new ArgumentException("Maximum likelihood needs a positive definite correlation matrix; this one is not " +
+                                        "(pairwise deletion, linearly dependent or duplicated items?). Use minres or principal axis.", nameof(correlation));
         var extraction = Extract(r, factors, o);
         var rotation = Rotate(extraction.Loadings, factors, o);
         var (pattern, phi) = FactorAlignment.AlignSignsAndOrder(rotation.Pattern, rotation.Phi);

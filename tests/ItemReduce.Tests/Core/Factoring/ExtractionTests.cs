@@ -129,14 +129,25 @@ public class ExtractionTests
     [Fact]
     public void Heywood_case_is_detected_and_warned()
     {
-        // One factor, three items: λ₁² = r₁₂ r₁₃ / r₂₃ = .9·.9/.6 = 1.35 > 1 (classic triad identity).
-        var r = new double[,] { { 1, .9, .9 }, { .9, 1, .6 }, { .9, .6, 1 } };
+        // One factor, three items: λ₁² = r₁₂ r₁₃ / r₂₃ = .8·.7/.5 = 1.12 > 1 (classic triad identity); R is
+        // positive definite (det = .18), so ML is defined but must stop at the uniqueness bound.
+        var r = new double[,] { { 1, .8, .7 }, { .8, 1, .5 }, { .7, .5, 1 } };
         foreach (var e in Enum.GetValues<FactorExtraction>())
         {
             var s = FactorAnalysis.Fit(r, 500, 1, new FactoringOptions { Extraction = e });
             Assert.Contains(0, s.HeywoodItems);
             Assert.Contains(s.Warnings, w => w.Contains("Heywood"));
         }
+    }
+
+    [Fact]
+    public void Maximum_likelihood_rejects_a_correlation_matrix_that_is_not_positive_definite()
+    {
+        // det = 1·(1 − .36) − .9·(.9 − .54) + .9·(.54 − .9) = −0.008 < 0 (hand computation).
+        var r = new double[,] { { 1, .9, .9 }, { .9, 1, .6 }, { .9, .6, 1 } };
+        var ex = Assert.Throws<ArgumentException>(() => FactorAnalysis.Fit(r, 500, 1, new FactoringOptions { Extraction = FactorExtraction.MaximumLikelihood }));
+        Assert.Contains("positive definite", ex.Message);
+        Assert.NotEmpty(FactorAnalysis.Fit(r, 500, 1).HeywoodItems); // minres still answers, flagged
     }
 
     [Fact]
