@@ -87,6 +87,35 @@ public class RotationTests
         for (int f = 0; f < 3; f++) Assert.Equal(1.0, r.Phi[f, f], 12);
     }
 
+    [Fact]
+    public void Quartimin_matches_scipy_general_purpose_minimisation()
+    {
+        // Expected: quartimin criterion minimised by scipy BFGS over column-normalised T (not gradient
+        // projection), Kaiser-normalised, from T = I (make_factoring_reference.py).
+        var r = Oblimin.Rotate(A3, 0.0, true, 5000, 1e-9);
+        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_quartimin_kaiser_scipy.csv"), r.Pattern.ToArray(), 1e-5);
+        LoadingAssert.Close(OffDiagonalMagnitudes(ReferenceCsv.Matrix(Area, "three_factor_quartimin_kaiser_scipy_phi.csv")),
+            OffDiagonalMagnitudes(r.Phi.ToArray()), 1e-5);
+    }
+
+    [Fact]
+    public void Promax_matches_numpy_promax_from_pairwise_varimax()
+    {
+        // Expected: numpy promax (power 4, Hendrickson & White 1964) on numpy's Kaiser pairwise varimax.
+        var r = Promax.Rotate(A3, 4, true, 1000, 1e-12);
+        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_promax_numpy.csv"), r.Pattern.ToArray(), 1e-6);
+        LoadingAssert.Close(OffDiagonalMagnitudes(ReferenceCsv.Matrix(Area, "three_factor_promax_numpy_phi.csv")),
+            OffDiagonalMagnitudes(r.Phi.ToArray()), 1e-6);
+    }
+
+    private static double[] OffDiagonalMagnitudes(double[,] m)
+    {
+        var list = new List<double>();
+        for (int a = 0; a < m.GetLength(0); a++)
+            for (int b = a + 1; b < m.GetLength(1); b++) list.Add(Math.Abs(m[a, b]));
+        return list.Order().ToArray();
+    }
+
     private static void AssertClose(Matrix<double> expected, Matrix<double> actual, double tol)
     {
         for (int i = 0; i < expected.RowCount; i++)

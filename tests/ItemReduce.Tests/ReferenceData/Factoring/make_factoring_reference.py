@@ -110,4 +110,34 @@ np.savetxt(f'{here}/three_factor_varimax_raw_numpy.csv', kaiser_pairwise_varimax
 from sklearn.decomposition._factor_analysis import _ortho_rotation
 np.savetxt(f'{here}/three_factor_varimax_raw_sklearn.csv', _ortho_rotation(A3, method='varimax', tol=1e-12, max_iter=10000).T,
            delimiter=',', fmt='%.17g')
+
+# --- quartimin (oblimin, gamma = 0) by general-purpose optimisation over T with unit-length columns ----
+# Independent of the gradient-projection algorithm: T = X / ||X|| (column-wise), Lambda = A (T^-1)^T,
+# Q = 1/4 sum(L2 * (L2 N)); scipy BFGS with numerical gradients from X = I. Kaiser row normalisation first.
+def quartimin_free(A, normalize=True):
+    h = np.sqrt(np.sum(A ** 2, 1)) if normalize else np.ones(A.shape[0])
+    An = A / h[:, None]
+    kk = A.shape[1]
+    N = np.ones((kk, kk)) - np.eye(kk)
+    def lam(xv):
+        X = xv.reshape(kk, kk)
+        T = X / np.sqrt(np.sum(X ** 2, 0))
+        return An @ np.linalg.inv(T).T, T
+    def q(xv):
+        L2 = lam(xv)[0] ** 2
+        return 0.25 * np.sum(L2 * (L2 @ N))
+    res = minimize(q, np.eye(kk).ravel(), method='BFGS', options={'gtol': 1e-13, 'maxiter': 100000})
+    Lr, T = lam(res.x)
+    return Lr * h[:, None], T.T @ T
+Pq, Phiq = quartimin_free(A3, True)
+np.savetxt(f'{here}/three_factor_quartimin_kaiser_scipy.csv', Pq, delimiter=',', fmt='%.17g')
+np.savetxt(f'{here}/three_factor_quartimin_kaiser_scipy_phi.csv', Phiq, delimiter=',', fmt='%.17g')
+
+# --- promax (Hendrickson & White 1964, power 4) from the numpy Kaiser varimax --------------------------
+Lv = kaiser_pairwise_varimax(A3, True)
+Q = Lv * np.abs(Lv) ** 3
+U = np.linalg.lstsq(Lv, Q, rcond=None)[0]
+U = U @ np.diag(np.sqrt(np.diag(np.linalg.inv(U.T @ U))))
+np.savetxt(f'{here}/three_factor_promax_numpy.csv', Lv @ U, delimiter=',', fmt='%.17g')
+np.savetxt(f'{here}/three_factor_promax_numpy_phi.csv', np.linalg.inv(U.T @ U), delimiter=',', fmt='%.17g')
 print('ok', opt.fun, Fmin, chi, rmsea, tli)
