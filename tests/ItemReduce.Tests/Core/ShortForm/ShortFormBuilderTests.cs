@@ -161,6 +161,36 @@ public class ShortFormBuilderTests
     }
 
     [Fact]
+    public void Without_declared_subscales_scales_follow_the_factors()
+    {
+        var (data, _) = Survey(n: 1200, subscaleOverride: new string[24]);
+        var result = ShortFormBuilder.Build(data, 3, new ShortFormOptions
+        {
+            Factoring = new() { Extraction = ItemReduce.Core.Factoring.FactorExtraction.MaximumLikelihood },
+            ItemsPerScale = 3,
+        });
+        Assert.Equal(["F1", "F2", "F3"], result.Scales.Select(s => s.Scale).Order());
+        Assert.All(result.Scales, s => Assert.Equal(3, s.SelectedItems.Count));
+        // every chosen item is one of the planted strong items of a single factor
+        Assert.All(result.SelectedIndices, j => Assert.Contains(j, StrongItems));
+        Assert.All(result.Scales, s => Assert.Single(s.SelectedItems.Select(n => (int.Parse(n[1..]) - 1) / 8).Distinct()));
+        Assert.NotNull(result.ShortSolution!.Fit);
+        Assert.All(result.Judgements, j => Assert.Null(j.Subscale));
+    }
+
+    [Fact]
+    public void Same_seed_gives_the_same_short_form_and_reliability()
+    {
+        var (data, _) = Survey(n: 800);
+        var o = new ShortFormOptions { HoldoutFraction = 0.4, Seed = 3 };
+        var a = ShortFormBuilder.Build(data, 3, o);
+        var b = ShortFormBuilder.Build(data, 3, o);
+        Assert.Equal(a.HoldoutRows, b.HoldoutRows);
+        Assert.Equal(a.SelectedIndices, b.SelectedIndices);
+        Assert.Equal(a.Reliability, b.Reliability);
+    }
+
+    [Fact]
     public void Invalid_options_are_rejected_with_the_value()
     {
         var (data, _) = Survey(n: 200);
