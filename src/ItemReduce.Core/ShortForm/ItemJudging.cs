@@ -24,7 +24,7 @@ internal static class ItemJudging
         if (ap < t.MinPrimaryLoading) reasons.Add(ItemReasonCodes.WeakPrimary);
         if (s.FactorCount > 1 && (asec >= t.MaxSecondaryLoading || ap - asec < t.MinLoadingGap)) reasons.Add(ItemReasonCodes.CrossLoading);
         if (s.Communalities[j] < t.MinCommunality) reasons.Add(ItemReasonCodes.LowCommunality);
-        if (!(itemTotal >= t.MinItemTotalCorrelation)) reasons.Add(ItemReasonCodes.WeakItemTotal);
+        if (itemTotal < t.MinItemTotalCorrelation) reasons.Add(ItemReasonCodes.WeakItemTotal);
         if (alphaIfDeleted > scaleAlpha + t.AlphaRiseMargin) reasons.Add(ItemReasonCodes.AlphaRisesWithout);
         if (hasDeclaredHome && pf != homeFactor) reasons.Add(ItemReasonCodes.OffHomeFactor);
         if (primary < 0) reasons.Add(ItemReasonCodes.NegativePrimary);
