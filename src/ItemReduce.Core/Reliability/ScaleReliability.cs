@@ -1,0 +1,90 @@
+using ItemReduce.Core.Data;
+
+namespace ItemReduce.Core.Reliability;
+
+/// <summary>
+/// Façade: reliability of a scale from (reverse-scored) responses — Cronbach's alpha with Feldt's interval,
+/// standardized alpha, McDonald's omega total, corrected item–total correlations and alpha-if-deleted —
+/// plus the overlap-corrected short/full correlation (<see cref="LevyOverlapCorrection"/>).
+/// Missing data: respondents with any missing answer on the scale's items are left out (listwise within the
+/// scale), so every statistic uses the same rows and n is well defined for the interval.
+/// </summary>
+public static class ScaleReliability
+{
+    /// <summary>Reliability of all columns of <paramref name="items"/> taken as one scale.</summary>
+    public static ReliabilityEstimate Compute(ResponseMatrix items, double confidence = 0.95)
+    {
+        ArgumentNullException.ThrowIfNull(items);
+        var (cov, n) = ListwiseCovariance(items, Enumerable.Range(0, items.ItemCount).ToArray());
+        int k = items.ItemCount;
+        double alpha = n >= 2 ? CronbachAlpha.FromCovariance(cov) : double.NaN;
+        var (lo, hi) = FeldtInterval.Compute(alpha, n, k, confidence);
+        var corr = ToCorrelation(cov);
+        bool usable = n >= 3 && Enumerable.Range(0, k).All(j => cov[j, j] > 0);
+        double omega = double.NaN;
+        double[] omegaLoadings = [];
+        if (usable && k >= 3)
+        {
+            var (w, model) = McDonaldOmega.FromCorrelation(corr, n);
+            omega = w;
+            omegaLoadings = Enumerable.Range(0, k).Select(j => model!.Pattern[j, 0]).ToArray();
+        }
+        return new ReliabilityEstimate(k, n, alpha, lo, hi, confidence,
+            usable ? CronbachAlpha.Standardized(corr) : double.NaN, omega, omegaLoadings,
+            usable ? CorrectedItemTotalCorrelation.Compute(cov) : Enumerable.Repeat(double.NaN, k).ToArray(),
+            usable ? CronbachAlpha.IfItemDeleted(cov) : Enumerable.Repeat(double.NaN, k).ToArray(), cov);
+    }
+
+    /// <summary>
+    /// Observed and overlap-corrected correlation between the sum of <paramref name="shortItems"/> and the sum
+    /// of all columns of <paramref name="fullItems"/> (short items are indices into those columns), listwise
+    /// over the full scale's items.
+    /// </summary>
+    public static (double Observed, double Corrected) ShortFullCorrelation(ResponseMatrix fullItems, IReadOnlyList<int> shortItems)
+    {
+        ArgumentNullException.ThrowIfNull(fullItems);
+        ArgumentNullException.ThrowIfNull(shortItems);
+        var all = Enumerable.Range(0, fullItems.ItemCount).ToArray();
+        var (cov, n) = ListwiseCovariance(fullItems, all);
+        return n >= 3 ? LevyOverlapCorrection.FromCovariance(cov, shortItems, all) : (double.NaN, double.NaN);
+    }
+
+    /// <summary>Sample covariance (n − 1, two-pass) of the given columns over rows complete on them.</summary>
+    internal static (double[,] Covariance, int N) ListwiseCovariance(ResponseMatrix data, IReadOnlyList<int> columns)
+    {
+        int k = columns.Count, rows = data.RespondentCount;
+        var complete = new List<int>();
+        for (int i = 0; i < rows; i++)
+        {
+            bool ok = true;
+            foreach (int c in columns) if (double.IsNaN(data[i, c])) { ok = false; break; }
+            if (ok) complete.Add(i);
+        }
+        int n = complete.Count;
+        var mean = new double[k];
+        foreach (int i in complete) for (int a = 0; a < k; a++) mean[a] += data[i, columns[a]];
+        for (int a = 0; a < k; a++) mean[a] = n > 0 ? mean[a] / n : double.NaN;
+        var cov = new double[k, k];
+        var d = new double[k];
+        foreach (int i in complete)
+        {
+            for (int a = 0; a < k; a++) d[a] = data[i, columns[a]] - mean[a];
+            for (int a = 0; a < k; a++)
+                for (int b = 0; b <= a; b++) cov[a, b] += d[a] * d[b];
+        }
+        for (int a = 0; a < k; a++)
+            for (int b = 0; b <= a; b++)
+                cov[a, b] = cov[b, a] = n > 1 ? cov[a, b] / (n - 1) : double.NaN;
+        return (cov, n);
+    }
+
+    internal static double[,] ToCorrelation(double[,] cov)
+    {
+        int k = cov.GetLength(0);
+        var r = new double[k, k];
+        for (int a = 0; a < k; a++)
+            for (int b = 0; b < k; b++)
+                r[a, b] = a == b ? 1.0 : cov[a, b] / Math.Sqrt(cov[a, a] * cov[b, b]);
+        return r;
+    }
+}
