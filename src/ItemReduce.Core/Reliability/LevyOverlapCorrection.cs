@@ -2,9 +2,8 @@ namespace ItemReduce.Core.Reliability;
 
 /// <summary>
 /// Short-form / full-form correlation corrected for item overlap. Levy, P. (1967), "The correction for
-/// spurious correlation in the evaluation of short-form tests" (citation from memory: we recall Journal of
-/// Clinical Psychology, 23, 84–86; it is also cited as Educational and Psychological Measurement, 27 — check
-/// before quoting). Because the short form S is part of the full form F, their observed correlation contains
+/// spurious correlation in the evaluation of short-form tests" Journal of Clinical Psychology, 23(1), 84–86 (citation from
+/// memory, not checked against the paper). Because the short form S is part of the full form F, their observed correlation contains
 /// S's own error variance twice over. The correction, in the form implemented here (our statement of the
 /// principle, derived rather than copied): replace the shared error by independent error, i.e.
 /// r_c = (Cov(S, F) − σ²_S (1 − ρ_S)) / (σ_S σ_F), where ρ_S is the short form's reliability (alpha). This is
