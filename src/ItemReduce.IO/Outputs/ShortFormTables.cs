@@ -1,0 +1,107 @@
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Factoring;
+using ItemReduce.Core.ShortForm;
+using static ItemReduce.IO.SafeCsvWriter;
+
+namespace ItemReduce.IO.Outputs;
+
+/// <summary>CSV tables of the factoring, reliability and short-form stage.</summary>
+public static class ShortFormTables
+{
+    private const int Decimals = 6;
+
+    /// <summary>True when the rotation is oblique (structure and factor correlations differ from the pattern and identity).</summary>
+    public static bool IsOblique(FactorSolution s) => s.Rotation is FactorRotation.Oblimin or FactorRotation.Promax;
+
+    private static IEnumerable<string> FactorHeaders(int k) => Enumerable.Range(1, k).Select(f => $"F{f}");
+
+    /// <summary><c>loadings.csv</c>: item, subscale, F1..Fk (rotated pattern), communality, decision.</summary>
+    public static string Loadings(IReadOnlyList<ItemDefinition> items, ShortFormResult r)
+    {
+        var s = r.FullSolution;
+        int k = s.Pattern.GetLength(1);
+        var w = new SafeCsvWriter(["item", "subscale", .. FactorHeaders(k), "communality", "decision"]);
+        for (int j = 0; j < items.Count; j++)
+        {
+            var cells = new List<string> { Text(items[j].Name), Text(items[j].Subscale) };
+            for (int f = 0; f < k; f++) cells.Add(Number(s.Pattern[j, f], Decimals));
+            cells.Add(Number(s.Communalities[j], Decimals));
+            cells.Add(Decision(r, j));
+            w.AppendRow(cells);
+        }
+        return w.ToString();
+    }
+
+    /// <summary><c>structure-loadings.csv</c>: item, subscale, F1..Fk (correlations of items with factors).</summary>
+    public static string StructureLoadings(IReadOnlyList<ItemDefinition> items, FactorSolution s)
+    {
+        int k = s.Structure.GetLength(1);
+        var w = new SafeCsvWriter(["item", "subscale", .. FactorHeaders(k)]);
+        for (int j = 0; j < items.Count; j++)
+        {
+            var cells = new List<string> { Text(items[j].Name), Text(items[j].Subscale) };
+            for (int f = 0; f < k; f++) cells.Add(Number(s.Structure[j, f], Decimals));
+            w.AppendRow(cells);
+        }
+        return w.ToString();
+    }
+
+    /// <summary><c>factor-correlations.csv</c>: factor, label, F1..Fk.</summary>
+    public static string FactorCorrelations(FactorSolution s)
+    {
+        int k = s.FactorCorrelations.GetLength(0);
+        var w = new SafeCsvWriter(["factor", "label", .. FactorHeaders(k)]);
+        for (int a = 0; a < k; a++)
+        {
+            var cells = new List<string> { $"F{a + 1}", Text(s.FactorLabels[a]) };
+            for (int b = 0; b < k; b++) cells.Add(Number(s.FactorCorrelations[a, b], Decimals));
+            w.AppendRow(cells);
+        }
+        return w.ToString();
+    }
+
+    /// <summary><c>item-decisions.csv</c>: one row per item with decision, reason codes and the numbers behind them.</summary>
+    public static string ItemDecisions(ShortFormResult r)
+    {
+        var w = new SafeCsvWriter(["item", "subscale", "decision", "reasons", "primary_factor", "primary_loading", "secondary_loading",
+            "item_total_r", "alpha_if_deleted", "communality", "scale", "reverse"]);
+        foreach (var j in r.Judgements.OrderBy(j => j.Index))
+        {
+            w.AppendRow([Text(j.Item), Text(j.Subscale), j.Decision == ItemDecision.Keep ? "keep" : "drop", Text(string.Join(';', j.Reasons)),
+                $"F{j.PrimaryFactor + 1}", Number(j.PrimaryLoading, Decimals), Number(j.SecondaryLoading, Decimals),
+                Number(j.ItemTotalCorrelation, Decimals), Number(j.AlphaIfDeleted, Decimals), Number(j.Communality, Decimals),
+                Text(j.Scale), Bool(j.Reverse)]);
+        }
+        return w.ToString();
+    }
+
+    /// <summary><c>reliability.csv</c>: scale, form, items, alpha, alpha_ci_low, alpha_ci_high, omega, plus sample details.</summary>
+    public static string Reliability(ShortFormResult r)
+    {
+        var w = new SafeCsvWriter(["scale", "form", "items", "alpha", "alpha_ci_low", "alpha_ci_high", "omega",
+            "standardized_alpha", "sample", "respondents", "short_full_r", "short_full_r_observed"]);
+        foreach (var row in r.Reliability)
+        {
+            w.AppendRow([Text(row.Scale), Text(row.FormLabel), Integer(row.Items), Number(row.Alpha, Decimals), Number(row.AlphaCiLow, Decimals),
+                Number(row.AlphaCiHigh, Decimals), Number(row.Omega, Decimals), Number(row.StandardizedAlpha, Decimals),
+                row.Sample.ToString().ToLowerInvariant(), Integer(row.Respondents), Number(row.ShortFullCorrelation, Decimals),
+                Number(row.ShortFullCorrelationObserved, Decimals)]);
+        }
+        return w.ToString();
+    }
+
+    /// <summary><c>short-form-codebook.csv</c>: the codebook rows of the retained items — a valid codebook for the next collection.</summary>
+    public static string ShortFormCodebook(IReadOnlyList<ItemDefinition> items, ShortFormResult r)
+    {
+        var w = new SafeCsvWriter(["item", "subscale", "reverse", "min", "max", "text"]);
+        foreach (int j in r.SelectedIndices.Order())
+        {
+            var it = items[j];
+            w.AppendRow([Text(it.Name), Text(it.Subscale), Bool(it.Reverse), Number(it.Min), Number(it.Max), Text(it.Text)]);
+        }
+        return w.ToString();
+    }
+
+    private static string Decision(ShortFormResult r, int j) =>
+        r.Judgements.FirstOrDefault(x => x.Index == j)?.Decision == ItemDecision.Keep ? "keep" : "drop";
+}
