@@ -1,3 +1,5 @@
+using System.Numerics;
+using System.Runtime.InteropServices;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Correlation;
@@ -8,54 +10,62 @@ namespace ItemReduce.Core.Correlation;
 /// respondents who answered both items, with that pair's own means and SDs (two-pass). Listwise: only
 /// complete rows. Returns a p × p symmetric matrix with unit diagonal; a pair with fewer than 3 joint
 /// answers or zero variance gives NaN.
+/// <para>
+/// Complete data take a fast path: columns are centred with two-pass means, then the lower triangle of the
+/// cross-product matrix XcᵀXc is accumulated in cache-sized tiles of observations with a 4 × 2 register-blocked
+/// SIMD kernel (fused multiply-add). Observations are split into a fixed number of segments that depend only
+/// on n (not on the thread count); segment sums are added in segment order, so results are identical for any
+/// degree of parallelism.
+/// </para>
 /// </summary>
 public static class PearsonCorrelation
 {
+    /// <summary>Observations per tile of the complete-data kernel (tile = p × 256 doubles, fits in L2).</summary>
+    private const int TileRows = 256;
+
     /// <summary>Correlation matrix of the columns of <paramref name="data"/>.</summary>
     public static double[,] Compute(ResponseMatrix data, MissingDataHandling handling = MissingDataHandling.Pairwise)
+        => Compute(data, handling, -1);
+
+    /// <summary>As <see cref="Compute(ResponseMatrix, MissingDataHandling)"/> with a cap on threads
+    /// (−1 = all cores, 1 = sequential).</summary>
+    internal static double[,] Compute(ResponseMatrix data, MissingDataHandling handling, int maxDegreeOfParallelism)
     {
         ArgumentNullException.ThrowIfNull(data);
         if (handling == MissingDataHandling.Listwise || !data.HasMissing())
         {
-            var rows = new List<int>();
-            for (int i = 0; i < data.RespondentCount; i++)
-            {
-                bool complete = true;
-                foreach (double x in data.Row(i)) if (double.IsNaN(x)) { complete = false; break; }
-                if (complete) rows.Add(i);
-            }
-            return rows.Count == data.RespondentCount ? Complete(data.Storage, data.RespondentCount, data.ItemCount)
-                : Complete(data.SelectRespondents(rows).Storage, rows.Count, data.ItemCount);
+            var rows = CompleteRows(data);
+            return rows.Length == data.RespondentCount
+                ? Complete(data.Storage, data.RespondentCount, data.ItemCount, maxDegreeOfParallelism)
+                : Complete(data.SelectRespondents(rows).Storage, rows.Length, data.ItemCount, maxDegreeOfParallelism);
         }
-        return Pairwise(data.Storage, data.RespondentCount, data.ItemCount);
+        return Pairwise(data.Storage, data.RespondentCount, data.ItemCount, maxDegreeOfParallelism);
     }
 
-    /// <summary>Correlations of complete data: centre columns (two-pass), then cross-products.</summary>
-    internal static double[,] Complete(double[] v, int n, int p)
+    /// <summary>Indices of the respondents who answered every item.</summary>
+    internal static int[] CompleteRows(ResponseMatrix data)
     {
-        var mean = new double[p];
-        for (int i = 0; i < n; i++)
-            for (int j = 0; j < p; j++) mean[j] += v[i * p + j];
-        for (int j = 0; j < p; j++) mean[j] /= n;
-        var cp = new double[p, p];
-        var d = new double[p];
-        for (int i = 0; i < n; i++)
+        var rows = new List<int>(data.RespondentCount);
+        for (int i = 0; i < data.RespondentCount; i++)
         {
-            int o = i * p;
-            for (int j = 0; j < p; j++) d[j] = v[o + j] - mean[j];
-            for (int j = 0; j < p; j++)
-            {
-                double dj = d[j];
-                for (int k = 0; k <= j; k++) cp[j, k] += dj * d[k];
-            }
+            bool complete = true;
+            foreach (double x in data.Row(i)) if (double.IsNaN(x)) { complete = false; break; }
+            if (complete) rows.Add(i);
         }
+        return rows.ToArray();
+    }
+
+    /// <summary>Correlations of complete row-major n × p data <paramref name="v"/> (no NaN).</summary>
+    internal static double[,] Complete(double[] v, int n, int p, int maxDegreeOfParallelism = -1)
+    {
+        var cp = CentredCrossProducts(v, n, p, maxDegreeOfParallelism, out int pp);
         var r = new double[p, p];
         for (int j = 0; j < p; j++)
         {
             for (int k = 0; k < j; k++)
             {
-                double den = Math.Sqrt(cp[j, j] * cp[k, k]);
-                double c = den > 0 && n >= 3 ? cp[j, k] / den : double.NaN;
+                double den = Math.Sqrt(cp[j * pp + j] * cp[k * pp + k]);
+                double c = den > 0 && n >= 3 ? cp[j * pp + k] / den : double.NaN;
                 r[j, k] = r[k, j] = c;
             }
             r[j, j] = 1.0;
@@ -63,35 +73,165 @@ public static class PearsonCorrelation
         return r;
     }
 
-    private static double[,] Pairwise(double[] v, int n, int p)
+    /// <summary>
+    /// Lower triangle (row-major, leading dimension <paramref name="pp"/> = p rounded up to 4) of the centred
+    /// cross-product matrix Σ_i (x_i − x̄)(x_i − x̄)ᵀ of complete data.
+    /// </summary>
+    internal static double[] CentredCrossProducts(double[] v, int n, int p, int maxDegreeOfParallelism, out int pp)
     {
-        var r = new double[p, p];
+        var mean = new double[p];
+        for (int i = 0; i < n; i++) AddRow(v.AsSpan(i * p, p), mean);
+        for (int j = 0; j < p; j++) mean[j] /= n;
+
+        int padded = (p + 3) & ~3;
+        pp = padded;
+        int segments = Math.Clamp((n + 4 * TileRows - 1) / (4 * TileRows), 1, 16);
+        var partial = new double[segments][];
+        var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
+        Parallel.For(0, segments, options, s =>
+        {
+            int r0 = (int)((long)n * s / segments), r1 = (int)((long)n * (s + 1) / segments);
+            var acc = new double[padded * padded];
+            var tile = new double[padded * TileRows];
+            for (int t0 = r0; t0 < r1; t0 += TileRows)
+            {
+                int rows = Math.Min(TileRows, r1 - t0);
+                FillCentredTile(v, p, mean, t0, rows, tile);
+                AccumulateTile(tile, padded, acc);
+            }
+            partial[s] = acc;
+        });
+        var total = partial[0];
+        for (int s = 1; s < segments; s++)
+        {
+            var ps = partial[s];
+            for (int k = 0; k < total.Length; k++) total[k] += ps[k];
+        }
+        return total;
+    }
+
+    private static void AddRow(ReadOnlySpan<double> row, double[] sum)
+    {
+        for (int j = 0; j < row.Length; j++) sum[j] += row[j];
+    }
+
+    /// <summary>Transposes rows t0..t0+rows−1 into variable-major tile rows, centred; pads with zeros.</summary>
+    private static void FillCentredTile(double[] v, int p, double[] mean, int t0, int rows, double[] tile)
+    {
+        if (rows < TileRows) Array.Clear(tile);
+        for (int t = 0; t < rows; t++)
+        {
+            int o = (t0 + t) * p;
+            for (int j = 0; j < p; j++) tile[j * TileRows + t] = v[o + j] - mean[j];
+        }
+    }
+
+    /// <summary>acc[j, k] += Σ_t tile[j, t] tile[k, t] for the 4 × 2 blocks on or below the diagonal.</summary>
+    private static void AccumulateTile(double[] tile, int padded, double[] acc)
+    {
+        var vt = MemoryMarshal.Cast<double, Vector<double>>(tile.AsSpan());
+        int w = TileRows / Vector<double>.Count; // vectors per variable
+        for (int j = 0; j < padded; j += 4)
+        {
+            for (int k = 0; k < j + 4; k += 2)
+            {
+                var a0 = vt.Slice(j * w, w);
+                var a1 = vt.Slice((j + 1) * w, w);
+                var a2 = vt.Slice((j + 2) * w, w);
+                var a3 = vt.Slice((j + 3) * w, w);
+                var b0 = vt.Slice(k * w, w);
+                var b1 = vt.Slice((k + 1) * w, w);
+                Vector<double> s00 = default, s01 = default, s10 = default, s11 = default,
+                               s20 = default, s21 = default, s30 = default, s31 = default;
+                for (int t = 0; t < w; t++)
+                {
+                    var x0 = b0[t];
+                    var x1 = b1[t];
+                    var y = a0[t];
+                    s00 = Vector.FusedMultiplyAdd(y, x0, s00); s01 = Vector.FusedMultiplyAdd(y, x1, s01);
+                    y = a1[t];
+                    s10 = Vector.FusedMultiplyAdd(y, x0, s10); s11 = Vector.FusedMultiplyAdd(y, x1, s11);
+                    y = a2[t];
+                    s20 = Vector.FusedMultiplyAdd(y, x0, s20); s21 = Vector.FusedMultiplyAdd(y, x1, s21);
+                    y = a3[t];
+                    s30 = Vector.FusedMultiplyAdd(y, x0, s30); s31 = Vector.FusedMultiplyAdd(y, x1, s31);
+                }
+                int o = j * padded + k;
+                acc[o] += Vector.Sum(s00); acc[o + 1] += Vector.Sum(s01); o += padded;
+                acc[o] += Vector.Sum(s10); acc[o + 1] += Vector.Sum(s11); o += padded;
+                acc[o] += Vector.Sum(s20); acc[o + 1] += Vector.Sum(s21); o += padded;
+                acc[o] += Vector.Sum(s30); acc[o + 1] += Vector.Sum(s31);
+            }
+        }
+    }
+
+    /// <summary>Pairwise-complete correlations; columns are first copied to contiguous arrays, then each
+    /// row j of the matrix is computed independently (parallel over j, deterministic).</summary>
+    private static double[,] Pairwise(double[] v, int n, int p, int maxDegreeOfParallelism)
+    {
+        var cols = new double[p][];
         for (int j = 0; j < p; j++)
         {
+            var c = new double[n];
+            for (int i = 0; i < n; i++) c[i] = v[i * p + j];
+            cols[j] = c;
+        }
+        var r = new double[p, p];
+        var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
+        Parallel.For(0, p, options, j =>
+        {
             r[j, j] = 1.0;
+            var cj = cols[j];
             for (int k = 0; k < j; k++)
             {
+                var ck = cols[k];
                 int m = 0;
                 double sj = 0, sk = 0;
                 for (int i = 0; i < n; i++)
                 {
-                    double a = v[i * p + j], b = v[i * p + k];
+                    double a = cj[i], b = ck[i];
                     if (double.IsNaN(a) || double.IsNaN(b)) continue;
                     m++; sj += a; sk += b;
                 }
-                if (m < 3) { r[j, k] = r[k, j] = double.NaN; continue; }
-                double mj = sj / m, mk = sk / m, cjj = 0, ckk = 0, cjk = 0;
-                for (int i = 0; i < n; i++)
+                double value = double.NaN;
+                if (m >= 3)
                 {
-                    double a = v[i * p + j], b = v[i * p + k];
-                    if (double.IsNaN(a) || double.IsNaN(b)) continue;
-                    double da = a - mj, db = b - mk;
-                    cjj += da * da; ckk += db * db; cjk += da * db;
+                    double mj = sj / m, mk = sk / m, cjj = 0, ckk = 0, cjk = 0;
+                    for (int i = 0; i < n; i++)
+                    {
+                        double a = cj[i], b = ck[i];
+                        if (double.IsNaN(a) || double.IsNaN(b)) continue;
+                        double da = a - mj, db = b - mk;
+                        cjj += da * da; ckk += db * db; cjk += da * db;
+                    }
+                    double den = Math.Sqrt(cjj * ckk);
+                    if (den > 0) value = cjk / den;
                 }
-                double den = Math.Sqrt(cjj * ckk);
-                r[j, k] = r[k, j] = den > 0 ? cjk / den : double.NaN;
+                r[j, k] = value;
+                r[k, j] = value;
+            }
+        });
+        return r;
+    }
+
+    /// <summary>Number of respondents who answered both items, for every pair (diagonal: answers per item).</summary>
+    internal static int[,] PairwiseCounts(ResponseMatrix data)
+    {
+        int n = data.RespondentCount, p = data.ItemCount;
+        var v = data.Storage;
+        var counts = new int[p, p];
+        var present = new bool[p];
+        for (int i = 0; i < n; i++)
+        {
+            int o = i * p;
+            for (int j = 0; j < p; j++) present[j] = !double.IsNaN(v[o + j]);
+            for (int j = 0; j < p; j++)
+            {
+                if (!present[j]) continue;
+                for (int k = 0; k <= j; k++) if (present[k]) counts[j, k]++;
             }
         }
-        return r;
+        for (int j = 0; j < p; j++) for (int k = 0; k < j; k++) counts[k, j] = counts[j, k];
+        return counts;
     }
 }

@@ -1,0 +1,101 @@
+using ItemReduce.Core.LinearAlgebra;
+using ItemReduce.Core.Randomness;
+
+namespace ItemReduce.Core.Dimensions;
+
+/// <summary>
+/// Draws W ~ Wishart_p(I, m) by the Bartlett decomposition — Bartlett (1933), "On the theory of statistical
+/// regression", Proceedings of the Royal Society of Edinburgh 53, 260–283; in the form of Anderson (2003),
+/// An Introduction to Multivariate Statistical Analysis, 3rd ed., Theorem 7.2.1 / Corollary 7.2.1 and
+/// Odell &amp; Feiveson (1966), JASA 61, 199–203: W = L Lᵀ with L lower triangular, independent
+/// L_ii² ~ χ²(m − i + 1) for i = 1..p and L_ij ~ N(0, 1) for i &gt; j. χ² variates come from
+/// <see cref="MarsagliaTsangGamma"/>.
+/// <para>
+/// Use in parallel analysis: the centred cross-product matrix of n independent N_p(0, I) observations is
+/// Wishart_p(I, n − 1), and the sample correlation matrix is its scale-free version
+/// R = D^{−1/2} W D^{−1/2}. So a reference correlation matrix for n respondents costs p(p+1)/2 random
+/// numbers and p³/6 multiply-adds, independent of n. Requires m ≥ p (n &gt; p).
+/// </para>
+/// </summary>
+public static class BartlettWishartSampler
+{
+    /// <summary>One draw of W ~ Wishart_p(I, <paramref name="degreesOfFreedom"/>) (p × p).</summary>
+    /// <exception cref="ArgumentException">p &lt; 1 or degreesOfFreedom &lt; p.</exception>
+    public static double[,] SampleWishart(int p, int degreesOfFreedom, RandomStream rng)
+    {
+        Validate(p, degreesOfFreedom, rng);
+        var l = new double[p * p];
+        var w = new double[p * p];
+        SampleFactor(p, degreesOfFreedom, rng, l);
+        Product(l, p, w);
+        return MatrixChecks.FromRowMajor(w, p);
+    }
+
+    /// <summary>One draw of the correlation matrix of n = <paramref name="degreesOfFreedom"/> + 1 independent
+    /// standard-normal p-vectors (p × p, unit diagonal).</summary>
+    public static double[,] SampleCorrelation(int p, int degreesOfFreedom, RandomStream rng)
+    {
+        Validate(p, degreesOfFreedom, rng);
+        var w = new double[p * p];
+        SampleCorrelationInto(p, degreesOfFreedom, rng, new double[p * p], w);
+        return MatrixChecks.FromRowMajor(w, p);
+    }
+
+    private static void Validate(int p, int df, RandomStream rng)
+    {
+        ArgumentNullException.ThrowIfNull(rng);
+        if (p < 1) throw new ArgumentException($"p must be ≥ 1, got {p}.", nameof(p));
+        if (df < p)
+            throw new ArgumentException($"Degrees of freedom must be ≥ p = {p} (more respondents than items), got {df}.", "degreesOfFreedom");
+    }
+
+    /// <summary>Unchecked kernel: fills <paramref name="w"/> (row-major p × p, full) with a correlation draw;
+    /// <paramref name="l"/> (p × p) is scratch.</summary>
+    internal static void SampleCorrelationInto(int p, int df, RandomStream rng, double[] l, double[] w)
+    {
+        SampleFactor(p, df, rng, l);
+        Product(l, p, w);
+        ScaleToCorrelation(w, p);
+    }
+
+    /// <summary>Bartlett factor: row i (0-based) holds L_i0..L_ii; L_ii = sqrt(χ²(m − i)), i.e. χ²(m − i + 1) in
+    /// 1-based numbering; strict upper triangle zero.</summary>
+    internal static void SampleFactor(int p, int df, RandomStream rng, double[] l)
+    {
+        for (int i = 0; i < p; i++)
+        {
+            int o = i * p;
+            for (int j = 0; j < i; j++) l[o + j] = rng.NextGaussian();
+            l[o + i] = Math.Sqrt(MarsagliaTsangGamma.ChiSquare(rng, df - i));
+            Array.Clear(l, o + i + 1, p - i - 1);
+        }
+    }
+
+    /// <summary>W = L Lᵀ: W_ij = Σ_{k ≤ j} L_ik L_jk for j ≤ i (contiguous row dot products), mirrored.</summary>
+    private static void Product(double[] l, int p, double[] w)
+    {
+        for (int i = 0; i < p; i++)
+        {
+            var li = l.AsSpan(i * p, i + 1);
+            for (int j = 0; j <= i; j++)
+            {
+                double s = VectorKernels.Dot(li[..(j + 1)], l.AsSpan(j * p, j + 1));
+                w[i * p + j] = s;
+                w[j * p + i] = s;
+            }
+        }
+    }
+
+    private static void ScaleToCorrelation(double[] w, int p)
+    {
+        Span<double> s = p <= 512 ? stackalloc double[p] : new double[p];
+        for (int i = 0; i < p; i++) s[i] = 1 / Math.Sqrt(w[i * p + i]);
+        for (int i = 0; i < p; i++)
+        {
+            var row = w.AsSpan(i * p, p);
+            double si = s[i];
+            for (int j = 0; j < p; j++) row[j] *= si * s[j];
+            row[i] = 1;
+        }
+    }
+}

@@ -1,0 +1,208 @@
+using System.Globalization;
+using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Data;
+
+namespace ItemReduce.Core.Dimensions;
+
+/// <summary>
+/// Façade of the dimensions stage: how many dimensions do the items measure? Steps: correlation matrix
+/// (Pearson or polychoric, pairwise or listwise) → positive-definiteness check and smoothing
+/// (<see cref="NearestCorrelationMatrix"/>) → eigenvalues of R and of the reduced matrix
+/// (<see cref="SquaredMultipleCorrelation"/>) → <see cref="ParallelAnalysis"/>, <see cref="VelicerMap"/>,
+/// <see cref="KaiserCriterion"/> → factorability (<see cref="KaiserMeyerOlkin"/>,
+/// <see cref="BartlettSphericityTest"/>) → the retained count from the chosen rule.
+/// </summary>
+public static class DimensionAnalysis
+{
+    /// <summary>Runs the stage.</summary>
+    /// <param name="data">Reverse-scored responses of the usable items (no zero-variance or empty items), n × p, p ≥ 2.</param>
+    /// <param name="options">Settings.</param>
+    /// <exception cref="ArgumentException">Invalid options, too few items or respondents, or a pair of items
+    /// with fewer than 3 joint answers (its correlation is undefined).</exception>
+    public static DimensionResult Run(ResponseMatrix data, DimensionOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(data);
+        ArgumentNullException.ThrowIfNull(options);
+        Validate(data, options);
+        var warnings = new List<string>();
+        int p = data.ItemCount;
+
+        var raw = Correlate(data, options, options.MaxDegreeOfParallelism);
+        CheckDefined(raw, data);
+        int nEff = EffectiveRespondents(data, options, warnings);
+        if (nEff <= p + 1)
+            throw new ArgumentException(
+                $"Too few respondents for {p} items: {nEff} usable (at least {p + 2} needed; in practice several times the number of items).", nameof(data));
+
+        var smoothing = NearestCorrelationMatrix.Find(raw, options.EigenvalueFloor);
+        if (smoothing.Adjusted)
+            warnings.Add(string.Create(CultureInfo.InvariantCulture,
+                $"The {Name(options.Correlation)} correlation matrix was not positive definite (smallest eigenvalue {smoothing.MinEigenvalueBefore:G3}); it was replaced by the nearest valid correlation matrix, changing no correlation by more than {smoothing.MaxAbsoluteChange:F3}."));
+        var r = smoothing.Matrix;
+
+        var eigen = LinearAlgebra.SymmetricEigensolver.Eigenvalues(r);
+        double[]? smc = null, reducedEigen = null;
+        if (options.IncludeReducedMatrix)
+        {
+            smc = SquaredMultipleCorrelation.Compute(r);
+            var reduced = (double[,])r.Clone();
+            for (int j = 0; j < p; j++) reduced[j, j] = smc[j];
+            reducedEigen = LinearAlgebra.SymmetricEigensolver.Eigenvalues(reduced);
+        }
+
+        var reference = Reference(data, options, nEff);
+        var map = VelicerMap.Compute(r);
+        int kaiser = KaiserCriterion.Count(eigen);
+        var counts = new RuleCounts(
+            ParallelAnalysis.RetainedCount(eigen, reference.Percentile),
+            reducedEigen is null || reference.ReducedPercentile is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedPercentile),
+            map.Count, map.RevisedCount, kaiser);
+        var kmo = KaiserMeyerOlkin.Compute(r);
+        var bartlett = BartlettSphericityTest.Compute(r, nEff);
+
+        var (retained, rule, reason) = Decide(options, counts, reference);
+        AddInterpretationNotes(warnings, options, counts, kmo, bartlett, data);
+
+        return new DimensionResult
+        {
+            CorrelationKind = options.Correlation,
+            CorrelationMatrix = r,
+            Smoothing = smoothing,
+            EffectiveRespondents = nEff,
+            Eigenvalues = eigen,
+            SquaredMultipleCorrelations = smc,
+            ReducedEigenvalues = reducedEigen,
+            Reference = reference,
+            ByRule = counts,
+            Retained = retained,
+            RuleUsed = rule,
+            Reason = reason,
+            Kmo = kmo.Overall,
+            Msa = kmo.PerItem,
+            Bartlett = bartlett,
+            MapCurve = map.Curve,
+            MapRevisedCurve = map.RevisedCurve,
+            Warnings = warnings,
+        };
+    }
+
+    private static void Validate(ResponseMatrix data, DimensionOptions o)
+    {
+        if (data.ItemCount < 2) throw new ArgumentException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
+        if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
+            throw new ArgumentException($"FactorsRule must be Parallel, Map or Kaiser, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+        if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
+            throw new ArgumentException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o.FixedFactors));
+        if (!(o.EigenvalueFloor > 0 && o.EigenvalueFloor <= 0.5))
+            throw new ArgumentException($"EigenvalueFloor must lie in (0, 0.5], got {o.EigenvalueFloor}.", nameof(o.EigenvalueFloor));
+        ToParallelOptions(o).Validate();
+    }
+
+    private static ParallelAnalysisOptions ToParallelOptions(DimensionOptions o) => new()
+    {
+        Replicates = o.Replicates,
+        Percentile = o.Percentile,
+        Reference = o.Reference,
+        Seed = o.Seed,
+        IncludeReducedMatrix = o.IncludeReducedMatrix,
+        MaxDegreeOfParallelism = o.MaxDegreeOfParallelism,
+    };
+
+    private static string Name(CorrelationKind k) => k == CorrelationKind.Polychoric ? "polychoric" : "Pearson";
+
+    private static double[,] Correlate(ResponseMatrix data, DimensionOptions o, int threads) => o.Correlation switch
+    {
+        CorrelationKind.Polychoric => PolychoricCorrelation.Compute(data, o.MissingData, threads),
+        _ => PearsonCorrelation.Compute(data, o.MissingData, threads),
+    };
+
+    private static void CheckDefined(double[,] r, ResponseMatrix data)
+    {
+        int p = r.GetLength(0);
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k < j; k++)
+                if (double.IsNaN(r[j, k]))
+                    throw new ArgumentException(
+                        $"The correlation of items '{data.Items[k].Name}' and '{data.Items[j].Name}' is undefined (fewer than 3 respondents answered both, or one of them does not vary among those who did).",
+                        nameof(data));
+    }
+
+    /// <summary>n for the normal reference and Bartlett's test (see <see cref="DimensionResult.EffectiveRespondents"/>).</summary>
+    internal static int EffectiveRespondents(ResponseMatrix data, DimensionOptions o, List<string> warnings)
+    {
+        int n = data.RespondentCount;
+        if (!data.HasMissing()) return n;
+        if (o.MissingData == MissingDataHandling.Listwise)
+        {
+            int complete = PearsonCorrelation.CompleteRows(data).Length;
+            warnings.Add($"Listwise deletion: {n - complete} of {n} respondents with at least one missing answer were left out of the dimension analysis.");
+            return complete;
+        }
+        // Harmonic mean of the pairwise counts: our choice (common practice, no source) so that pairs
+        // with fewer joint answers weigh more.
+        var counts = PearsonCorrelation.PairwiseCounts(data);
+        int p = data.ItemCount;
+        double inv = 0;
+        int pairs = 0;
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k < j; k++) { inv += 1.0 / Math.Max(counts[j, k], 1); pairs++; }
+        int nEff = (int)Math.Floor(pairs / inv);
+        warnings.Add($"Missing answers were handled pairwise; the random reference and Bartlett's test use an effective sample size of {nEff} respondents (harmonic mean of the pairwise counts).");
+        return nEff;
+    }
+
+    private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff)
+    {
+        var po = ToParallelOptions(o);
+        if (o.Reference == ReferenceKind.Permutation)
+            return ParallelAnalysis.PermutationReference(data, d => Correlate(d, o, 1), po);
+        return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);
+    }
+
+    private static (int Retained, RetentionRule Rule, string Reason) Decide(DimensionOptions o, RuleCounts c, ParallelAnalysisReference reference)
+    {
+        var ci = CultureInfo.InvariantCulture;
+        if (o.FixedFactors is int k)
+            return (k, RetentionRule.Fixed, string.Create(ci, $"The number of dimensions was set to {k} in the settings; the rules below are shown for comparison."));
+        string source = reference.Kind == ReferenceKind.Permutation ? "copies of the data with each item shuffled separately" : "sets of uncorrelated normal data of the same size";
+        return o.FactorsRule switch
+        {
+            RetentionRule.Map => (c.Map, RetentionRule.Map, string.Create(ci,
+                $"{Count(c.Map)} kept because the average squared partial correlation between items is lowest once {c.Map} component{(c.Map == 1 ? " is" : "s are")} removed (minimum average partial test).")),
+            RetentionRule.Kaiser => (c.Kaiser, RetentionRule.Kaiser, string.Create(ci,
+                $"{Count(c.Kaiser)} kept because {c.Kaiser} eigenvalue{(c.Kaiser == 1 ? " is" : "s are")} above 1; this rule tends to keep too many.")),
+            _ => (c.Parallel, RetentionRule.Parallel, string.Create(ci,
+                $"{Count(c.Parallel)} kept because {(c.Parallel == 1 ? "the first eigenvalue is" : $"the first {c.Parallel} eigenvalues are")} larger than the {Ordinal(reference.PercentileLevel)} percentile of {reference.Replicates} {source} (parallel analysis).")),
+        };
+    }
+
+    private static string Count(int k) => k switch { 0 => "No dimension is", 1 => "One dimension is", _ => $"{k} dimensions are" };
+
+    private static string Ordinal(double level)
+    {
+        string s = level.ToString("0.##", CultureInfo.InvariantCulture);
+        if (level != Math.Floor(level)) return s + "th";
+        int v = (int)level;
+        string suffix = (v % 100) is 11 or 12 or 13 ? "th" : (v % 10) switch { 1 => "st", 2 => "nd", 3 => "rd", _ => "th" };
+        return s + suffix;
+    }
+
+    private static void AddInterpretationNotes(List<string> w, DimensionOptions o, RuleCounts c, KaiserMeyerOlkinResult kmo, BartlettSphericityResult b, ResponseMatrix data)
+    {
+        var ci = CultureInfo.InvariantCulture;
+        w.Add(KaiserCriterion.Caution);
+        if (c.Parallel == 0)
+            w.Add("No component stands out from random data in parallel analysis: the items may not share a common dimension.");
+        if (c.Parallel != c.Map)
+            w.Add(string.Create(ci, $"The rules disagree (parallel analysis {c.Parallel}, MAP {c.Map}); consider inspecting solutions with each count before deciding."));
+        if (kmo.Overall < 0.6)
+            w.Add(string.Create(ci, $"The overall KMO is {kmo.Overall:F2}; values below about 0.6 suggest the items share too little variance for a factor analysis to be informative (Kaiser, 1974)."));
+        var low = Enumerable.Range(0, kmo.PerItem.Length).Where(j => kmo.PerItem[j] < 0.5).Select(j => data.Items[j].Name).ToList();
+        if (low.Count > 0)
+            w.Add($"Items with a sampling adequacy below 0.5 (they share little with the rest): {string.Join(", ", low)}.");
+        if (b.P > 0.05)
+            w.Add(string.Create(ci, $"Bartlett's test does not reject uncorrelated items (p = {b.P:G3}); the correlations may be too weak to analyse."));
+        if (o.Correlation == CorrelationKind.Polychoric && o.Reference == ReferenceKind.Normal)
+            w.Add("Polychoric correlations are compared with a normal-data reference; a permutation reference keeps the items' own category distributions.");
+    }
+}

@@ -1,0 +1,63 @@
+using ItemReduce.Core.Correlation;
+
+namespace ItemReduce.Core.Dimensions;
+
+/// <summary>Which correlation coefficient the dimension analysis uses.</summary>
+public enum CorrelationKind
+{
+    /// <summary>Pearson product-moment correlations (default).</summary>
+    Pearson,
+    /// <summary>Polychoric correlations for ordinal items (Olsson, 1979, two-step ML).</summary>
+    Polychoric,
+}
+
+/// <summary>Rule that decides how many dimensions to retain.</summary>
+public enum RetentionRule
+{
+    /// <summary>Parallel analysis on the full correlation matrix (default).</summary>
+    Parallel,
+    /// <summary>Velicer's minimum average partial test (squared partials).</summary>
+    Map,
+    /// <summary>Eigenvalue above 1 (Kaiser, 1960); not recommended, available for comparison.</summary>
+    Kaiser,
+    /// <summary>Result only: the count was fixed by <see cref="DimensionOptions.FixedFactors"/>. Not a valid option value.</summary>
+    Fixed,
+}
+
+/// <summary>Settings of <see cref="DimensionAnalysis.Run"/>; every property maps to one command-line option.</summary>
+public sealed record DimensionOptions
+{
+    /// <summary>Correlation coefficient; default <see cref="CorrelationKind.Pearson"/>.</summary>
+    public CorrelationKind Correlation { get; init; } = CorrelationKind.Pearson;
+
+    /// <summary>Missing-answer handling; default <see cref="MissingDataHandling.Pairwise"/>.</summary>
+    public MissingDataHandling MissingData { get; init; } = MissingDataHandling.Pairwise;
+
+    /// <summary>Parallel-analysis replicates; default 1000, range [10, 100000].</summary>
+    public int Replicates { get; init; } = 1000;
+
+    /// <summary>Reference percentile; default 95, range (0, 100).</summary>
+    public double Percentile { get; init; } = 95;
+
+    /// <summary>Parallel-analysis reference; default <see cref="ReferenceKind.Normal"/>.</summary>
+    public ReferenceKind Reference { get; init; } = ReferenceKind.Normal;
+
+    /// <summary>Seed of every random step; default 1.</summary>
+    public ulong Seed { get; init; } = 1;
+
+    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.Parallel"/>.
+    /// <see cref="RetentionRule.Fixed"/> is not allowed here (use <see cref="FixedFactors"/>).</summary>
+    public RetentionRule FactorsRule { get; init; } = RetentionRule.Parallel;
+
+    /// <summary>When set, retain exactly this many dimensions (1..p) whatever the rules say; default null.</summary>
+    public int? FixedFactors { get; init; }
+
+    /// <summary>Also analyse the reduced matrix (SMC diagonal); default true.</summary>
+    public bool IncludeReducedMatrix { get; init; } = true;
+
+    /// <summary>Smallest eigenvalue accepted before the matrix is smoothed; default 1e-6, range (0, 0.5].</summary>
+    public double EigenvalueFloor { get; init; } = NearestCorrelationMatrix.DefaultEigenvalueFloor;
+
+    /// <summary>Thread cap (−1 = all cores); results do not depend on it.</summary>
+    public int MaxDegreeOfParallelism { get; init; } = -1;
+}

@@ -1,0 +1,241 @@
+using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Data;
+using ItemReduce.Core.LinearAlgebra;
+using ItemReduce.Core.Randomness;
+
+namespace ItemReduce.Core.Dimensions;
+
+/// <summary>Where the random reference eigenvalues of parallel analysis come from.</summary>
+public enum ReferenceKind
+{
+    /// <summary>Uncorrelated normal data of the same size (drawn as Wishart matrices, see
+    /// <see cref="BartlettWishartSampler"/>). Default.</summary>
+    Normal,
+    /// <summary>The observed data with each item's answers shuffled independently across respondents
+    /// (Buja &amp; Eyuboglu, 1992), keeping every item's distribution.</summary>
+    Permutation,
+}
+
+/// <summary>Settings of <see cref="ParallelAnalysis"/>.</summary>
+public sealed record ParallelAnalysisOptions
+{
+    /// <summary>Random reference data sets; default 1000, range [10, 100000].</summary>
+    public int Replicates { get; init; } = 1000;
+
+    /// <summary>Percentile of the reference eigenvalues used as threshold; default 95 (Glorfeld, 1995),
+    /// range (0, 100); 50 gives the median.</summary>
+    public double Percentile { get; init; } = 95;
+
+    /// <summary>Reference kind; default <see cref="ReferenceKind.Normal"/>.</summary>
+    public ReferenceKind Reference { get; init; } = ReferenceKind.Normal;
+
+    /// <summary>Seed; replicate r uses <c>RandomStream.ForTask(Seed, r, purpose)</c>.</summary>
+    public ulong Seed { get; init; } = 20_240_601;
+
+    /// <summary>Also compute reference eigenvalues of the reduced (SMC-diagonal) matrix; default true.</summary>
+    public bool IncludeReducedMatrix { get; init; } = true;
+
+    /// <summary>Thread cap (−1 = all cores). Results do not depend on it.</summary>
+    public int MaxDegreeOfParallelism { get; init; } = -1;
+
+    internal void Validate()
+    {
+        if (Replicates is < 10 or > 100_000)
+            throw new ArgumentException($"Replicates must lie in [10, 100000], got {Replicates}.", nameof(Replicates));
+        if (!(Percentile > 0 && Percentile < 100))
+            throw new ArgumentException($"Percentile must lie in (0, 100), got {Percentile}.", nameof(Percentile));
+        if (MaxDegreeOfParallelism == 0 || MaxDegreeOfParallelism < -1)
+            throw new ArgumentException($"MaxDegreeOfParallelism must be −1 or ≥ 1, got {MaxDegreeOfParallelism}.", nameof(MaxDegreeOfParallelism));
+    }
+}
+
+/// <summary>Reference eigenvalues of parallel analysis; every array has length p, component 1 first.</summary>
+/// <param name="Mean">Mean over replicates of the c-th largest eigenvalue of the reference correlation matrix.</param>
+/// <param name="Percentile">The requested percentile of the same (linear interpolation, Hyndman &amp; Fan 1996 type 7).</param>
+/// <param name="ReducedMean">As <paramref name="Mean"/> for the reduced (SMC-diagonal) reference matrices, or null.</param>
+/// <param name="ReducedPercentile">As <paramref name="Percentile"/> for the reduced matrices, or null.</param>
+/// <param name="Replicates">Number of replicates.</param>
+/// <param name="PercentileLevel">The percentile level used (e.g. 95).</param>
+/// <param name="Kind">Reference kind.</param>
+public sealed record ParallelAnalysisReference(
+    double[] Mean, double[] Percentile, double[]? ReducedMean, double[]? ReducedPercentile,
+    int Replicates, double PercentileLevel, ReferenceKind Kind);
+
+/// <summary>
+/// Parallel analysis: Horn (1965), "A rationale and test for the number of factors in factor analysis",
+/// Psychometrika 30(2), 179–185 — retain the leading components whose observed eigenvalues exceed those of
+/// random data of the same size. Threshold at a percentile rather than the mean: Glorfeld (1995), "An
+/// improvement on Horn's parallel analysis methodology for selecting the correct number of factors to retain",
+/// Educational and Psychological Measurement 55(3), 377–393. Permutation reference: Buja &amp; Eyuboglu (1992),
+/// "Remarks on parallel analysis", Multivariate Behavioral Research 27(4), 509–540. Reduced-matrix (factor
+/// analytic) variant: the same comparison with squared multiple correlations on the diagonal
+/// (<see cref="SquaredMultipleCorrelation"/>), as discussed by Humphreys &amp; Ilgen (1969), EPM 29, 571–578.
+/// <para>
+/// Normal reference without simulating data: each replicate draws the correlation matrix of n normal
+/// p-vectors directly (<see cref="BartlettWishartSampler"/>), O(p³) per replicate independent of n.
+/// Replicate r always uses <c>RandomStream.ForTask(seed, r, purpose)</c> and writes its own slot, so
+/// results are identical for any number of threads.
+/// </para>
+/// </summary>
+public static class ParallelAnalysis
+{
+    internal const ulong NormalPurpose = 0x4E4F524D;      // "NORM"
+    internal const ulong PermutationPurpose = 0x5045524D; // "PERM"
+    internal const ulong BruteForcePurpose = 0x42525554;  // "BRUT"
+
+    /// <summary>Normal-reference eigenvalues for <paramref name="respondents"/> × <paramref name="items"/> data.</summary>
+    /// <exception cref="ArgumentException">items &lt; 1, respondents ≤ items, or invalid options.</exception>
+    public static ParallelAnalysisReference NormalReference(int respondents, int items, ParallelAnalysisOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(options);
+        options.Validate();
+        if (items < 1) throw new ArgumentException($"items must be ≥ 1, got {items}.", nameof(items));
+        if (respondents <= items)
+            throw new ArgumentException($"The normal reference needs more respondents than items; got n = {respondents}, p = {items}.", nameof(respondents));
+        int p = items, df = respondents - 1;
+        return Run(p, options with { Reference = ReferenceKind.Normal }, NormalPurpose, () => new double[p * p],
+            (rng, scratch, r) => BartlettWishartSampler.SampleCorrelationInto(p, df, rng, scratch, r));
+    }
+
+    /// <summary>Permutation-reference eigenvalues: every replicate shuffles each item's answers independently
+    /// (missing answers move with them) and recomputes the correlation matrix with <paramref name="correlate"/>,
+    /// which is called from several threads at once and must be single-threaded and side-effect free.</summary>
+    internal static ParallelAnalysisReference PermutationReference(
+        ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    {
+        options.Validate();
+        int n = data.RespondentCount, p = data.ItemCount;
+        var columns = new double[p][];
+        for (int j = 0; j < p; j++) columns[j] = data.Column(j);
+        return Run(p, options with { Reference = ReferenceKind.Permutation }, PermutationPurpose, () => new double[(long)n * p],
+            (rng, buffer, r) =>
+            {
+                var shuffled = new double[n];
+                for (int j = 0; j < p; j++)
+                {
+                    columns[j].CopyTo(shuffled, 0);
+                    rng.Shuffle(shuffled.AsSpan());
+                    for (int i = 0; i < n; i++) buffer[(long)i * p + j] = shuffled[i];
+                }
+                var c = correlate(data.WithValues(buffer));
+                Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
+            });
+    }
+
+    /// <summary>
+    /// Normal reference the slow way, for validation and benchmarks: simulate n × p standard-normal data,
+    /// correlate (complete-data Pearson fast path), eigenvalues. O(n p²) per replicate.
+    /// </summary>
+    internal static ParallelAnalysisReference BruteForceNormalReference(int respondents, int items, ParallelAnalysisOptions options)
+    {
+        options.Validate();
+        int n = respondents, p = items;
+        return Run(p, options with { Reference = ReferenceKind.Normal }, BruteForcePurpose, () => new double[(long)n * p],
+            (rng, x, r) => BruteForceReplicate(n, p, rng, x, r));
+    }
+
+    /// <summary>One brute-force replicate: fill <paramref name="x"/> with N(0,1) draws, correlate into <paramref name="r"/>.</summary>
+    internal static void BruteForceReplicate(int n, int p, RandomStream rng, double[] x, double[] r)
+    {
+        for (long k = 0; k < x.Length; k++) x[k] = rng.NextGaussian();
+        var c = PearsonCorrelation.Complete(x, n, p, 1);
+        Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
+    }
+
+    /// <summary>Number of leading observed eigenvalues that exceed the reference, stopping at the first that
+    /// does not (Horn's rule applied sequentially).</summary>
+    public static int RetainedCount(IReadOnlyList<double> observed, IReadOnlyList<double> reference)
+    {
+        ArgumentNullException.ThrowIfNull(observed);
+        ArgumentNullException.ThrowIfNull(reference);
+        int m = Math.Min(observed.Count, reference.Count), c = 0;
+        while (c < m && observed[c] > reference[c]) c++;
+        return c;
+    }
+
+    /// <summary>Shared replicate loop: draw a reference correlation matrix (row-major, full) per replicate,
+    /// take its eigenvalues (and those of its reduced version), then summarise per component.</summary>
+    private static ParallelAnalysisReference Run(
+        int p, ParallelAnalysisOptions options, ulong purpose, Func<double[]> newScratch,
+        Action<RandomStream, double[], double[]> draw)
+    {
+        int reps = options.Replicates;
+        bool reduced = options.IncludeReducedMatrix;
+        var eig = new double[reps][];
+        var eigReduced = reduced ? new double[reps][] : null;
+        var po = new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism };
+        Parallel.For(0, reps, po, () => new ReplicateBuffers(p, newScratch()), (rep, _, b) =>
+        {
+            var rng = RandomStream.ForTask(options.Seed, rep, purpose);
+            draw(rng, b.Scratch, b.R);
+            if (eigReduced is not null)
+            {
+                var smc = ReferenceSmc(b.R, b.Work, p);
+                Array.Copy(b.R, b.Reduced, b.R.Length);
+                for (int j = 0; j < p; j++) b.Reduced[j * p + j] = smc[j];
+                eigReduced[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.Reduced, p, b.D, b.E, b.Tri).Clone();
+            }
+            eig[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.R, p, b.D, b.E, b.Tri).Clone();
+            return b;
+        }, _ => { });
+        var (mean, pct) = Summarise(eig, p, options.Percentile);
+        double[]? rMean = null, rPct = null;
+        if (eigReduced is not null) (rMean, rPct) = Summarise(eigReduced, p, options.Percentile);
+        return new ParallelAnalysisReference(mean, pct, rMean, rPct, reps, options.Percentile, options.Reference);
+    }
+
+    /// <summary>SMCs of a reference matrix; a matrix that is not positive definite (possible with pairwise
+    /// deletion in permuted data) is first replaced by its nearest correlation matrix.</summary>
+    private static double[] ReferenceSmc(double[] r, double[] work, int p)
+    {
+        Array.Copy(r, work, r.Length);
+        try
+        {
+            return SquaredMultipleCorrelation.FromRowMajor(work, p);
+        }
+        catch (MatrixNotPositiveDefiniteException)
+        {
+            var smoothed = NearestCorrelationMatrix.Find(MatrixChecks.FromRowMajor(r, p)).Matrix;
+            return SquaredMultipleCorrelation.Compute(smoothed);
+        }
+    }
+
+    private sealed class ReplicateBuffers(int p, double[] scratch)
+    {
+        public double[] Scratch { get; } = scratch;
+        public double[] R { get; } = new double[p * p];
+        public double[] Work { get; } = new double[p * p];
+        public double[] Reduced { get; } = new double[p * p];
+        public double[] D { get; } = new double[p];
+        public double[] E { get; } = new double[p];
+        public double[] Tri { get; } = new double[2 * p];
+    }
+
+    /// <summary>Per-component mean and percentile over replicates.</summary>
+    internal static (double[] Mean, double[] Percentile) Summarise(double[][] eig, int p, double percentile)
+    {
+        int reps = eig.Length;
+        var mean = new double[p];
+        var pct = new double[p];
+        var column = new double[reps];
+        for (int c = 0; c < p; c++)
+        {
+            double s = 0;
+            for (int r = 0; r < reps; r++) { column[r] = eig[r][c]; s += column[r]; }
+            mean[c] = s / reps;
+            Array.Sort(column);
+            pct[c] = Quantile(column, percentile / 100);
+        }
+        return (mean, pct);
+    }
+
+    /// <summary>Sample quantile of sorted data, linear interpolation between order statistics: Hyndman &amp;
+    /// Fan (1996), "Sample quantiles in statistical packages", The American Statistician 50(4), 361–365, type 7.</summary>
+    internal static double Quantile(double[] sorted, double q)
+    {
+        double h = (sorted.Length - 1) * q;
+        int lo = (int)Math.Floor(h);
+        int hi = Math.Min(lo + 1, sorted.Length - 1);
+        return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+    }
+}
