@@ -1,0 +1,111 @@
+using System.Collections.Concurrent;
+
+namespace ItemReduce.Core.Screening;
+
+/// <summary>
+/// Squared Mahalanobis distance <c>D²_i = (x_i − μ)ᵀ Σ⁻¹ (x_i − μ)</c> (Mahalanobis, P. C., 1936, "On the
+/// generalised distance in statistics", Proceedings of the National Institute of Sciences of India 2(1), 49–55),
+/// for respondents who may have skipped items: D² uses only the items respondent i answered, with the matching
+/// sub-vector of μ and sub-matrix of Σ, so under multivariate normality it follows χ² with
+/// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached.
+/// A respondent with no answers gets NaN; so does one whose sub-matrix cannot be factorised.
+/// </summary>
+internal sealed class MahalanobisDistance
+{
+    private readonly double[] _location;
+    private readonly double[] _scatter;
+    private readonly int _p;
+    private readonly ScreeningCholesky? _full;
+    private readonly ConcurrentDictionary<string, PatternFactor?> _cache = new(StringComparer.Ordinal);
+
+    private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
+
+    /// <param name="location">μ, length p.</param>
+    /// <param name="scatter">Σ, p × p symmetric.</param>
+    public MahalanobisDistance(double[] location, double[,] scatter)
+    {
+        _p = location.Length;
+        _location = location;
+        _scatter = new double[_p * _p];
+        for (int j = 0; j < _p; j++)
+            for (int k = 0; k < _p; k++) _scatter[j * _p + k] = scatter[j, k];
+        _full = ScreeningCholesky.TryFactor(_scatter, _p);
+    }
+
+    /// <summary>Number of distinct incomplete missing-data patterns factorised so far.</summary>
+    public int CachedPatterns => _cache.Count;
+
+    /// <summary>Number of patterns whose sub-matrix was not positive definite.</summary>
+    public int FailedPatterns => _cache.Values.Count(f => f is null);
+
+    /// <summary>True when the full matrix could be factorised.</summary>
+    public bool FullFactorAvailable => _full is not null;
+
+    /// <summary>
+    /// D² of every row of the row-major <paramref name="v"/> (n × p) and the number of items each row answered.
+    /// Rows are processed in parallel blocks; the result does not depend on the thread count.
+    /// </summary>
+    public (double[] D2, int[] Answered) Compute(double[] v, int n)
+    {
+        var d2 = new double[n];
+        var answered = new int[n];
+        const int block = 4096;
+        int blocks = (n + block - 1) / block;
+        Parallel.For(0, blocks, b =>
+        {
+            var work = new double[_p];
+            var diff = new double[_p];
+            int end = Math.Min(n, (b + 1) * block);
+            for (int i = b * block; i < end; i++)
+                d2[i] = Row(new ReadOnlySpan<double>(v, i * _p, _p), diff, work, out answered[i]);
+        });
+        return (d2, answered);
+    }
+
+    /// <summary>D² of one row (NaN = missing).</summary>
+    public double Row(ReadOnlySpan<double> x, Span<double> diff, Span<double> work, out int answered)
+    {
+        answered = 0;
+        for (int j = 0; j < _p; j++) if (!double.IsNaN(x[j])) answered++;
+        if (answered == 0) return double.NaN;
+        if (answered == _p)
+        {
+            if (_full is null) return double.NaN;
+            for (int j = 0; j < _p; j++) diff[j] = x[j] - _location[j];
+            return _full.QuadraticForm(diff, work);
+        }
+        string key = PatternKey(x);
+        if (!_cache.TryGetValue(key, out var factor))
+        {
+            factor = FactorPattern(x);
+            factor = _cache.GetOrAdd(key, factor);
+        }
+        if (factor is null) return double.NaN;
+        var idx = factor.Answered;
+        for (int t = 0; t < idx.Length; t++) diff[t] = x[idx[t]] - _location[idx[t]];
+        return factor.Factor.QuadraticForm(diff[..idx.Length], work);
+    }
+
+    private PatternFactor? FactorPattern(ReadOnlySpan<double> x)
+    {
+        var idx = new List<int>(_p);
+        for (int j = 0; j < _p; j++) if (!double.IsNaN(x[j])) idx.Add(j);
+        int q = idx.Count;
+        var sub = new double[q * q];
+        for (int a = 0; a < q; a++)
+            for (int b = 0; b < q; b++) sub[a * q + b] = _scatter[idx[a] * _p + idx[b]];
+        var f = ScreeningCholesky.TryFactor(sub, q);
+        return f is null ? null : new PatternFactor(idx.ToArray(), f);
+    }
+
+    /// <summary>The answered/missing pattern packed 16 items per character.</summary>
+    private string PatternKey(ReadOnlySpan<double> x)
+    {
+        int len = (_p + 15) / 16;
+        Span<char> chars = len <= 256 ? stackalloc char[len] : new char[len];
+        chars.Clear();
+        for (int j = 0; j < _p; j++)
+            if (!double.IsNaN(x[j])) chars[j >> 4] = (char)(chars[j >> 4] | (1 << (j & 15)));
+        return new string(chars);
+    }
+}

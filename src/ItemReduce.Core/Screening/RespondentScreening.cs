@@ -1,0 +1,205 @@
+using System.Globalization;
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Randomness;
+
+namespace ItemReduce.Core.Screening;
+
+/// <summary>
+/// Respondent screening: classical and robust squared Mahalanobis distances on the items each respondent answered,
+/// compared with χ² cutoffs whose degrees of freedom equal the items answered, plus careless-response indices
+/// (long-string, IRV, even-odd consistency, share missing). The result is a list of respondents to look at;
+/// flags are for human review, not for automatic deletion.
+/// </summary>
+public static class RespondentScreening
+{
+    private const ulong PurposeSubsample = 0x5343_5245_01;
+
+    /// <summary>Screens every respondent.</summary>
+    /// <param name="data">Analysed responses: reverse-scored, usable items only (the caller drops all-missing and
+    /// zero-variance items); NaN = missing. Distances and even-odd consistency use these values.</param>
+    /// <param name="options">Options; <see cref="ScreeningOptions"/> documents the defaults.</param>
+    /// <param name="asAnswered">Optional responses as given (before reverse scoring), same respondents and items in the
+    /// same order. When given, long-string and IRV use them (a respondent who ticks the same box throughout shows a
+    /// flat profile only before reverse scoring); otherwise they use <paramref name="data"/>.</param>
+    public static ScreeningResult Run(ResponseMatrix data, ScreeningOptions options, ResponseMatrix? asAnswered = null)
+    {
+        ArgumentNullException.ThrowIfNull(data);
+        ArgumentNullException.ThrowIfNull(options);
+        options.Validate();
+        int n = data.RespondentCount, p = data.ItemCount;
+        if (p < 1) throw new ArgumentException("Screening needs at least 1 item; got 0.", nameof(data));
+        if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
+            throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
+        var warnings = new List<string>();
+        var v = data.Storage;
+
+        // 1. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
+        var (mean, rawCov, noOverlap) = PairwiseCovariance.Compute(data);
+        if (noOverlap > 0)
+            warnings.Add($"{noOverlap} item pair(s) had fewer than 2 respondents answering both; their covariance was set to 0.");
+        var (cov, repaired, smallest) = PairwiseCovariance.EnsurePositiveDefinite(rawCov);
+        if (repaired)
+            warnings.Add("The item covariance matrix was not positive definite (smallest eigenvalue " +
+                         smallest.ToString("G4", CultureInfo.InvariantCulture) +
+                         "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
+                         "eigenvalues were raised to a small floor, so classical distances are approximate.");
+        var classical = new MahalanobisDistance(mean, cov);
+        var (d2, answered) = classical.Compute(v, n);
+
+        // 2. Robust distances from FAST-MCD on complete rows.
+        var (robust, robustD2) = RobustDistances(data, options, warnings);
+
+        // 3. Cutoffs and p-values, df = items answered.
+        var cutoffByDf = new double[p + 1];
+        cutoffByDf[0] = double.NaN;
+        for (int k = 1; k <= p; k++) cutoffByDf[k] = ChiSquareTail.UpperQuantile(options.CutoffP, k);
+
+        // 4. Careless-response indices.
+        var subscales = data.Items.Select(i => i.Subscale).ToList();
+        var evenOdd = new EvenOddConsistency(subscales, options.EvenOddMinSubscales);
+        if (!evenOdd.Applicable)
+            warnings.Add($"Even-odd consistency was not computed: it needs at least {options.EvenOddMinSubscales} subscales with two or more items, " +
+                         $"the codebook gives {evenOdd.SplittableSubscales}.");
+        int runLimit = Math.Max(options.LongStringMinimum, (int)Math.Ceiling(options.LongStringShare * p));
+        bool useRobust = options.UseRobust && robust.Available;
+        if (options.UseRobust && !robust.Available)
+            warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
+
+        var rows = new RespondentScreeningRow[n];
+        var raw = asAnswered?.Storage ?? v;
+        Parallel.For(0, (n + 4095) / 4096, b =>
+        {
+            int end = Math.Min(n, (b + 1) * 4096);
+            for (int i = b * 4096; i < end; i++)
+                rows[i] = ScreenOne(i, data.RespondentIds[i], new ReadOnlySpan<double>(v, i * p, p), new ReadOnlySpan<double>(raw, i * p, p),
+                    d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
+        });
+
+        int nanDistance = 0;
+        for (int i = 0; i < n; i++) if (answered[i] > 0 && double.IsNaN(d2[i])) nanDistance++;
+        if (nanDistance > 0)
+            warnings.Add($"{nanDistance} respondent(s) got no classical distance because the covariance sub-matrix of their answered items could not be factorised.");
+        int noAnswers = answered.Count(a => a == 0);
+        if (noAnswers > 0) warnings.Add($"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
+
+        var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
+            rows.Count(r => r.Reasons.Contains(code)))).ToList();
+        int flagged = rows.Count(r => r.Flagged);
+        string rule = Describe(options, useRobust, runLimit, p, evenOdd.Applicable);
+        var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
+        return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options);
+    }
+
+    private static RespondentScreeningRow ScreenOne(int i, string id, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
+        double d2, double robustD2, int answered, double[] cutoffByDf, EvenOddConsistency evenOdd, int runLimit, bool useRobust, ScreeningOptions o)
+    {
+        int p = x.Length;
+        double cutoff = cutoffByDf[answered];
+        double pValue = answered > 0 ? ChiSquareTail.UpperTail(d2, answered) : double.NaN;
+        double robustP = answered > 0 ? ChiSquareTail.UpperTail(robustD2, answered) : double.NaN;
+        int longString = LongString.Compute(rawRow);
+        double irv = IntraIndividualResponseVariability.Compute(rawRow);
+        double eo = evenOdd.Compute(x);
+        double missing = (p - answered) / (double)p;
+
+        var reasons = new List<string>(2);
+        if (useRobust && robustD2 > cutoff) reasons.Add(ScreeningReasons.RobustDistance);
+        if (!useRobust && d2 > cutoff) reasons.Add(ScreeningReasons.ClassicalDistance);
+        if (longString >= runLimit) reasons.Add(ScreeningReasons.RepeatedAnswerRun);
+        if (irv < o.FlatVariabilityLimit) reasons.Add(ScreeningReasons.FlatProfile);
+        if (eo < o.EvenOddMinimum) reasons.Add(ScreeningReasons.HalvesDisagree);
+        if (missing > o.MissingShareLimit) reasons.Add(ScreeningReasons.MostlyUnanswered);
+        return new RespondentScreeningRow(id, answered, d2, robustD2, cutoff, pValue, robustP, longString, irv, eo, missing,
+            reasons.Count > 0, reasons);
+    }
+
+    /// <summary>FAST-MCD on the complete rows (subsampled above the cap), then robust D² on each respondent's answered items.</summary>
+    private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings)
+    {
+        int n = data.RespondentCount, p = data.ItemCount;
+        var v = data.Storage;
+        var complete = new List<int>();
+        for (int i = 0; i < n; i++)
+        {
+            bool ok = true;
+            for (int j = 0; j < p; j++) if (double.IsNaN(v[i * p + j])) { ok = false; break; }
+            if (ok) complete.Add(i);
+        }
+        var nan = new double[n];
+        Array.Fill(nan, double.NaN);
+        RobustEstimatorDetails Unavailable(string note, int used = 0, bool sub = false)
+        {
+            warnings.Add(note);
+            return new RobustEstimatorDetails(false, complete.Count, sub, used, 0, double.NaN, double.NaN, 0, false, 0, 0, 0, false, null, null, note);
+        }
+        int minimum = Math.Max(2 * (p + 1), p + 2);
+        if (complete.Count < minimum)
+            return (Unavailable($"Robust distances need at least {minimum} respondents who answered every item (2 × (items + 1)); only {complete.Count} did."), nan);
+
+        var rowsUsed = complete;
+        bool subsampled = false;
+        if (complete.Count > o.RobustMaxRows)
+        {
+            var shuffled = complete.ToArray();
+            RandomStream.ForTask(o.Seed, 0, PurposeSubsample).Shuffle(shuffled.AsSpan());
+            rowsUsed = shuffled[..o.RobustMaxRows].OrderBy(i => i).ToList();
+            subsampled = true;
+        }
+        int m = rowsUsed.Count;
+        var x = new double[(long)m * p];
+        for (int r = 0; r < m; r++) Array.Copy(v, (long)rowsUsed[r] * p, x, (long)r * p, p);
+        int? h = o.RobustSupportFraction is double f ? Math.Clamp((int)Math.Ceiling(f * m), p + 1, m) : null;
+        FastMcdEstimate fit;
+        try
+        {
+            fit = FastMcd.Fit(x, m, p, new FastMcdSettings(SupportSize: h, InitialSubsets: o.RobustInitialSubsets, Seed: o.Seed));
+        }
+        catch (FastMcdExactFitException e)
+        {
+            return (Unavailable("Robust fit failed: " + e.Message + " This happens when more than half the respondents give identical answers on some items.", m, subsampled), nan);
+        }
+        if (!fit.Converged) warnings.Add("FAST-MCD reached its C-step cap before the determinant stopped decreasing; robust distances may be slightly off.");
+        var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
+        if (!dist.FullFactorAvailable)
+            return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), nan);
+        var (robustD2, _) = dist.Compute(v, n);
+        string note = subsampled
+            ? $"FAST-MCD fitted to a seeded random subsample of {m} of the {complete.Count} complete respondents; robust distances computed for everyone."
+            : $"FAST-MCD fitted to the {m} complete respondents; robust distances of respondents with missing answers use the matching parts of the robust location and scatter.";
+        return (new RobustEstimatorDetails(true, complete.Count, subsampled, m, fit.SupportSize, fit.ConsistencyFactor, fit.ReweightingFactor,
+            fit.ReweightedCount, fit.Nested, fit.SubsetCount, fit.MergedSize, fit.Trials, fit.Converged, fit.Location, fit.Scatter, note), robustD2);
+    }
+
+    private static string Meaning(string code) => code switch
+    {
+        ScreeningReasons.RobustDistance => "robust distance beyond the chi-square cutoff for the items answered",
+        ScreeningReasons.ClassicalDistance => "classical distance beyond the chi-square cutoff for the items answered",
+        ScreeningReasons.RepeatedAnswerRun => "long run of the same answer on consecutive items",
+        ScreeningReasons.FlatProfile => "answers barely vary across items",
+        ScreeningReasons.HalvesDisagree => "odd- and even-numbered items of the same scales disagree",
+        ScreeningReasons.MostlyUnanswered => "most items unanswered",
+        _ => code,
+    };
+
+    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int p, bool evenOdd)
+    {
+        var c = CultureInfo.InvariantCulture;
+        var parts = new List<string>
+        {
+            string.Format(c, "A respondent is marked for review when any of these holds. (1) The {0} squared Mahalanobis distance, computed on the items the respondent answered, " +
+                "exceeds the chi-square value with as many degrees of freedom as items answered that an attentive respondent from a multivariate normal population would exceed with probability {1}; " +
+                "the cutoff therefore grows with the number of items answered instead of using one fixed radius.",
+                robust ? "robust (reweighted FAST-MCD)" : "classical", o.CutoffP),
+            string.Format(c, "(2) The same answer is given to at least {0} consecutive items (of {1}).", runLimit, p),
+        };
+        if (o.FlatVariabilityLimit > 0)
+            parts.Add(string.Format(c, "(3) The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit));
+        if (evenOdd)
+            parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between odd- and even-numbered halves of the subscales is below {0}.", o.EvenOddMinimum));
+        parts.Add(string.Format(c, "(5) More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit));
+        parts.Add("Even with no careless respondents, about " + o.CutoffP.ToString(c) + " of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
+                  "Flags are for human review, not automatic deletion: inspect each flagged respondent, report how many were set aside and why, " +
+                  "and follow your ethics board and professional standards.");
+        return string.Join(" ", parts);
+    }
+}

@@ -1,0 +1,85 @@
+namespace ItemReduce.Core.Screening;
+
+/// <summary>
+/// Cholesky factorisation <c>A = L Lᵀ</c> of a small symmetric positive definite matrix, kept inside the
+/// screening stage (row-major <c>q × q</c> storage, lower triangle used). The factorisation fails, instead
+/// of returning nonsense, when a pivot is not positive or falls below <see cref="RelativePivotTolerance"/>
+/// times the matching diagonal entry of <c>A</c> (a numerically singular matrix).
+/// </summary>
+internal sealed class ScreeningCholesky
+{
+    /// <summary>A pivot smaller than this share of its original diagonal entry counts as singular.</summary>
+    internal const double RelativePivotTolerance = 1e-12;
+
+    private readonly double[] _l;
+
+    private ScreeningCholesky(double[] l, int order, double logDeterminant)
+    {
+        _l = l;
+        Order = order;
+        LogDeterminant = logDeterminant;
+    }
+
+    /// <summary>Matrix order q.</summary>
+    public int Order { get; }
+
+    /// <summary><c>ln det A = 2 Σ ln L_ii</c>.</summary>
+    public double LogDeterminant { get; }
+
+    /// <summary>Factorises the row-major <paramref name="a"/> (q × q); null when not positive definite.</summary>
+    public static ScreeningCholesky? TryFactor(ReadOnlySpan<double> a, int q)
+    {
+        var l = new double[q * q];
+        double logDet = 0;
+        for (int i = 0; i < q; i++)
+        {
+            int oi = i * q;
+            for (int j = 0; j <= i; j++)
+            {
+                int oj = j * q;
+                double s = a[oi + j];
+                for (int t = 0; t < j; t++) s -= l[oi + t] * l[oj + t];
+                if (i == j)
+                {
+                    double diag = a[oi + i];
+                    if (!(s > 0) || !(diag > 0) || s <= RelativePivotTolerance * diag || double.IsNaN(s)) return null;
+                    double r = Math.Sqrt(s);
+                    l[oi + i] = r;
+                    logDet += 2 * Math.Log(r);
+                }
+                else l[oi + j] = s / l[oj + j];
+            }
+        }
+        return new ScreeningCholesky(l, q, logDet);
+    }
+
+    /// <summary>Factorises a symmetric <c>double[,]</c>; null when not positive definite.</summary>
+    public static ScreeningCholesky? TryFactor(double[,] a)
+    {
+        int q = a.GetLength(0);
+        var flat = new double[q * q];
+        for (int i = 0; i < q; i++)
+            for (int j = 0; j < q; j++) flat[i * q + j] = a[i, j];
+        return TryFactor(flat, q);
+    }
+
+    /// <summary>
+    /// Quadratic form <c>dᵀ A⁻¹ d = ‖L⁻¹ d‖²</c> by forward substitution; <paramref name="work"/> has length ≥ q.
+    /// </summary>
+    public double QuadraticForm(ReadOnlySpan<double> d, Span<double> work)
+    {
+        int q = Order;
+        var l = _l;
+        double sum = 0;
+        for (int i = 0; i < q; i++)
+        {
+            int oi = i * q;
+            double s = d[i];
+            for (int t = 0; t < i; t++) s -= l[oi + t] * work[t];
+            double z = s / l[oi + i];
+            work[i] = z;
+            sum += z * z;
+        }
+        return sum;
+    }
+}

@@ -1,0 +1,83 @@
+namespace ItemReduce.Core.Screening;
+
+/// <summary>
+/// Options of the respondent-screening stage (<see cref="RespondentScreening"/>). Every threshold is a
+/// suggestion for human review, never a rule for automatic deletion.
+/// </summary>
+public sealed record ScreeningOptions
+{
+    /// <summary>
+    /// Upper-tail probability of the distance cutoff: a respondent is atypical when P(χ²_df &gt; D²) &lt; CutoffP with
+    /// df = items answered. Default 0.001 (common practice in multivariate outlier screening, no source).
+    /// Range (0, 0.5).
+    /// </summary>
+    public double CutoffP { get; init; } = 0.001;
+
+    /// <summary>Flag by the robust (FAST-MCD) distance when true (default), by the classical distance when false.
+    /// Both distances are always reported when they can be computed.</summary>
+    public bool UseRobust { get; init; } = true;
+
+    /// <summary>Seed of every random step (FAST-MCD starts and subsampling). Default 20240601.</summary>
+    public ulong Seed { get; init; } = 20240601;
+
+    /// <summary>
+    /// Most complete rows FAST-MCD is fitted to; above this a seeded random subsample of this size is used and the
+    /// robust distances of all respondents are computed from that fit. Default 50,000; range ≥ 100.
+    /// </summary>
+    public int RobustMaxRows { get; init; } = 50_000;
+
+    /// <summary>Share h / n of rows in the MCD support; null (default) means h = ⌊(n + p + 1) / 2⌋, the highest
+    /// breakdown point. Range [0.5, 1].</summary>
+    public double? RobustSupportFraction { get; init; }
+
+    /// <summary>Random (p + 1)-subsets FAST-MCD starts from (Rousseeuw &amp; Van Driessen 1999 use 500). Range 1..100000.</summary>
+    public int RobustInitialSubsets { get; init; } = 500;
+
+    /// <summary>
+    /// Long-string limit as a share of the number of items: a run of identical consecutive answers at least
+    /// max(<see cref="LongStringMinimum"/>, ⌈share × items⌉) long is flagged. Default 0.5 (our choice: half the
+    /// questionnaire answered with one response option; common practice, no source). Range (0, 1].
+    /// </summary>
+    public double LongStringShare { get; init; } = 0.5;
+
+    /// <summary>Smallest run length ever flagged, so short questionnaires are not over-flagged. Default 8 (our choice). Range ≥ 2.</summary>
+    public int LongStringMinimum { get; init; } = 8;
+
+    /// <summary>
+    /// IRV (within-person SD, response-scale units) below this value is flagged as a flat profile. Default 0.2 (our
+    /// choice for 5- to 7-point scales: one answer off an otherwise constant 20-item profile gives IRV ≈ 0.22;
+    /// common practice is to inspect the low tail, no source). 0 disables the rule. Range ≥ 0.
+    /// </summary>
+    public double FlatVariabilityLimit { get; init; } = 0.2;
+
+    /// <summary>
+    /// Even-odd consistency below this value is flagged. Default 0 (a negative coefficient: the two halves of the
+    /// same scales disagree more than they agree; common practice, no source). Range [−1, 1].
+    /// </summary>
+    public double EvenOddMinimum { get; init; } = 0.0;
+
+    /// <summary>Subscales with at least two items needed before even-odd consistency is computed. Default 3. Range ≥ 3.</summary>
+    public int EvenOddMinSubscales { get; init; } = 3;
+
+    /// <summary>Share of items missing above which a respondent is flagged. Default 0.5 (common practice, no source). Range [0, 1).</summary>
+    public double MissingShareLimit { get; init; } = 0.5;
+
+    /// <summary>Throws <see cref="ArgumentException"/> naming the first option out of range.</summary>
+    public void Validate()
+    {
+        static void Check(bool ok, string name, object value, string range)
+        {
+            if (!ok) throw new ArgumentException($"Screening option {name} = {value} is out of range; allowed: {range}.", name);
+        }
+        Check(CutoffP > 0 && CutoffP < 0.5, nameof(CutoffP), CutoffP, "(0, 0.5)");
+        Check(RobustMaxRows >= 100, nameof(RobustMaxRows), RobustMaxRows, "≥ 100");
+        Check(RobustSupportFraction is null || (RobustSupportFraction >= 0.5 && RobustSupportFraction <= 1), nameof(RobustSupportFraction), RobustSupportFraction!, "[0.5, 1] or unset");
+        Check(RobustInitialSubsets is >= 1 and <= 100_000, nameof(RobustInitialSubsets), RobustInitialSubsets, "1..100000");
+        Check(LongStringShare > 0 && LongStringShare <= 1, nameof(LongStringShare), LongStringShare, "(0, 1]");
+        Check(LongStringMinimum >= 2, nameof(LongStringMinimum), LongStringMinimum, "≥ 2");
+        Check(FlatVariabilityLimit >= 0 && !double.IsInfinity(FlatVariabilityLimit), nameof(FlatVariabilityLimit), FlatVariabilityLimit, "≥ 0, finite");
+        Check(EvenOddMinimum >= -1 && EvenOddMinimum <= 1, nameof(EvenOddMinimum), EvenOddMinimum, "[−1, 1]");
+        Check(EvenOddMinSubscales >= 3, nameof(EvenOddMinSubscales), EvenOddMinSubscales, "≥ 3");
+        Check(MissingShareLimit >= 0 && MissingShareLimit < 1, nameof(MissingShareLimit), MissingShareLimit, "[0, 1)");
+    }
+}

@@ -1,0 +1,27 @@
+namespace ItemReduce.Core.Screening;
+
+/// <summary>Reason codes attached to flagged respondents (our own short kebab-case names).</summary>
+public static class ScreeningReasons
+{
+    /// <summary>Robust (FAST-MCD) squared distance beyond the χ² cutoff for the items answered.</summary>
+    public const string RobustDistance = "atypical-robust";
+
+    /// <summary>Classical squared distance beyond the χ² cutoff (used for flags when the robust one is off or unavailable).</summary>
+    public const string ClassicalDistance = "atypical-classical";
+
+    /// <summary>Long run of identical consecutive answers (long-string index).</summary>
+    public const string RepeatedAnswerRun = "repeated-answer-run";
+
+    /// <summary>Very low within-person variability (IRV).</summary>
+    public const string FlatProfile = "flat-profile";
+
+    /// <summary>Low or negative even-odd consistency.</summary>
+    public const string HalvesDisagree = "halves-disagree";
+
+    /// <summary>More than the allowed share of items unanswered.</summary>
+    public const string MostlyUnanswered = "mostly-unanswered";
+
+    /// <summary>All codes in reporting order.</summary>
+    public static IReadOnlyList<string> All { get; } =
+        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered];
+}

@@ -1,0 +1,91 @@
+namespace ItemReduce.Core.Screening;
+
+/// <summary>Screening outcome of one respondent. NaN marks a value that could not be computed.</summary>
+/// <param name="RespondentId">Id from the input, rows in input order.</param>
+/// <param name="ItemsAnswered">Items answered = degrees of freedom of both distances.</param>
+/// <param name="D2">Classical squared Mahalanobis distance (sample mean, pairwise n − 1 covariance) on the items answered.</param>
+/// <param name="RobustD2">Robust squared distance (reweighted FAST-MCD location and scatter) on the items answered; NaN when the robust fit is unavailable.</param>
+/// <param name="Cutoff">χ² upper quantile at <see cref="ScreeningOptions.CutoffP"/> with df = <paramref name="ItemsAnswered"/>.</param>
+/// <param name="PValue">P(χ²_df &gt; D2).</param>
+/// <param name="RobustPValue">P(χ²_df &gt; RobustD2).</param>
+/// <param name="LongString">Longest run of identical consecutive answers (0 with no answers).</param>
+/// <param name="Irv">Within-person SD (n − 1) of the answers; NaN with fewer than 2 answers.</param>
+/// <param name="EvenOdd">Spearman–Brown corrected even-odd consistency; NaN when not computable.</param>
+/// <param name="MissingShare">Share of items not answered, in [0, 1].</param>
+/// <param name="Flagged">True when at least one reason applies.</param>
+/// <param name="Reasons">Reason codes from <see cref="ScreeningReasons"/>, in the order of <see cref="ScreeningReasons.All"/>.</param>
+public sealed record RespondentScreeningRow(
+    string RespondentId,
+    int ItemsAnswered,
+    double D2,
+    double RobustD2,
+    double Cutoff,
+    double PValue,
+    double RobustPValue,
+    int LongString,
+    double Irv,
+    double EvenOdd,
+    double MissingShare,
+    bool Flagged,
+    IReadOnlyList<string> Reasons);
+
+/// <summary>How many respondents carry one reason code.</summary>
+public sealed record ScreeningReasonCount(string Code, string Meaning, int Count);
+
+/// <summary>Details of the robust (FAST-MCD) fit.</summary>
+/// <param name="Available">False when the robust fit could not be made (see <paramref name="Note"/>); flags then use the classical distance.</param>
+/// <param name="CompleteRows">Respondents who answered every item (the rows FAST-MCD may use).</param>
+/// <param name="Subsampled">True when a seeded random subsample of the complete rows was used.</param>
+/// <param name="RowsUsed">Rows FAST-MCD was fitted to.</param>
+/// <param name="SupportSize">h, the MCD support size.</param>
+/// <param name="ConsistencyFactor">median(raw D²) / χ²_p(0.5) applied to the raw scatter.</param>
+/// <param name="ReweightingFactor">Normal-theory factor applied to the reweighted scatter.</param>
+/// <param name="ReweightedCount">Rows kept by the one-step reweighting (D² ≤ χ²_p(0.975)).</param>
+/// <param name="NestedExtension">True when the subsample-and-merge extension was used (more than 600 rows).</param>
+/// <param name="SubsetCount">Subsets of the nested extension (1 when not nested).</param>
+/// <param name="MergedSetSize">Rows of the merged set (RowsUsed when not nested).</param>
+/// <param name="InitialSubsets">Random (p + 1)-subsets started from.</param>
+/// <param name="Converged">False when some C-step iteration hit its cap.</param>
+/// <param name="Location">Reweighted robust location (length p), or null.</param>
+/// <param name="Scatter">Reweighted robust scatter (p × p), or null.</param>
+/// <param name="Note">Plain-English remark.</param>
+public sealed record RobustEstimatorDetails(
+    bool Available,
+    int CompleteRows,
+    bool Subsampled,
+    int RowsUsed,
+    int SupportSize,
+    double ConsistencyFactor,
+    double ReweightingFactor,
+    int ReweightedCount,
+    bool NestedExtension,
+    int SubsetCount,
+    int MergedSetSize,
+    int InitialSubsets,
+    bool Converged,
+    double[]? Location,
+    double[,]? Scatter,
+    string Note);
+
+/// <summary>Result of <see cref="RespondentScreening.Run"/>.</summary>
+/// <param name="Respondents">One row per respondent, in input order.</param>
+/// <param name="ReasonCounts">Count per reason code, in the order of <see cref="ScreeningReasons.All"/>.</param>
+/// <param name="TotalRespondents">n.</param>
+/// <param name="FlaggedRespondents">Respondents with at least one reason.</param>
+/// <param name="DistanceRule">"robust" or "classical": which distance produced the distance flags.</param>
+/// <param name="RuleDescription">Plain-English description of the rules, with the caution that flags are for human review.</param>
+/// <param name="Robust">The robust fit.</param>
+/// <param name="HalfPeakRegion">Figure data for k = 1 .. max(p, 20).</param>
+/// <param name="Warnings">Recoverable problems, in plain English.</param>
+/// <param name="Options">The options used.</param>
+public sealed record ScreeningResult(
+    IReadOnlyList<RespondentScreeningRow> Respondents,
+    IReadOnlyList<ScreeningReasonCount> ReasonCounts,
+    int TotalRespondents,
+    int FlaggedRespondents,
+    string DistanceRule,
+    string RuleDescription,
+    RobustEstimatorDetails Robust,
+    IReadOnlyList<HalfPeakRegionRow> HalfPeakRegion,
+    IReadOnlyList<string> Warnings,
+    ScreeningOptions Options);

@@ -1,0 +1,86 @@
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Screening;
+
+namespace ItemReduce.Tests.Core.Screening;
+
+public class MahalanobisDistanceTests
+{
+    internal static ResponseMatrix Matrix(double[][] rows, int p)
+    {
+        var items = Enumerable.Range(1, p).Select(j => new ItemDefinition($"x{j}", null, false, -1e9, 1e9, null)).ToList();
+        var ids = Enumerable.Range(1, rows.Length).Select(i => $"r{i}").ToList();
+        return new ResponseMatrix(ids, items, rows.SelectMany(r => r.Take(p)).ToArray());
+    }
+
+    [Fact]
+    public void Complete_data_distances_match_numpy_on_iris()
+    {
+        // Expected: numpy — sample mean, np.cov(ddof=1), np.linalg.solve (mahalanobis_reference.py; iris data,
+        // Fisher 1936, public domain).
+        var (_, rows) = ScreeningFixtures.Read("iris_mahalanobis.csv");
+        var data = Matrix(rows, 4);
+        var r = RespondentScreening.Run(data, new ScreeningOptions());
+        for (int i = 0; i < rows.Length; i++)
+        {
+            Assert.Equal(4, r.Respondents[i].ItemsAnswered);
+            Assert.True(Math.Abs(r.Respondents[i].D2 - rows[i][5]) <= 1e-9 * rows[i][5], $"row {i}: {r.Respondents[i].D2} vs {rows[i][5]}");
+        }
+    }
+
+    [Fact]
+    public void Sum_of_squared_distances_is_n_minus_1_times_p()
+    {
+        // Identity: Σ_i (x_i − x̄)ᵀ S⁻¹ (x_i − x̄) = tr(S⁻¹ (n − 1) S) = (n − 1) p for the n − 1 covariance.
+        var (_, rows) = ScreeningFixtures.Read("iris_mahalanobis.csv");
+        var r = RespondentScreening.Run(Matrix(rows, 4), new ScreeningOptions());
+        Assert.Equal(149.0 * 4, r.Respondents.Sum(x => x.D2), 1e-8);
+    }
+
+    [Fact]
+    public void Distances_with_missing_answers_match_numpy_sub_matrix_rule()
+    {
+        // Expected: numpy implementation of the same rule (item means over answered values, pairwise-complete
+        // covariance with the pair's own means and m − 1, D² on the answered sub-vector / sub-matrix), in
+        // mahalanobis_reference.py. Row 6 answered nothing.
+        var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
+        var r = RespondentScreening.Run(Matrix(rows, 4), new ScreeningOptions());
+        for (int i = 0; i < rows.Length; i++)
+        {
+            var row = r.Respondents[i];
+            Assert.Equal((int)rows[i][4], row.ItemsAnswered);
+            if (double.IsNaN(rows[i][5])) { Assert.True(double.IsNaN(row.D2)); continue; }
+            Assert.True(Math.Abs(row.D2 - rows[i][5]) <= 1e-9 * rows[i][5], $"row {i}: {row.D2} vs {rows[i][5]}");
+        }
+        var empty = r.Respondents[5];
+        Assert.Equal(0, empty.ItemsAnswered);
+        Assert.True(double.IsNaN(empty.RobustD2) && double.IsNaN(empty.Cutoff) && double.IsNaN(empty.PValue));
+        Assert.True(empty.Flagged);
+        Assert.Equal([ScreeningReasons.MostlyUnanswered], empty.Reasons);
+        Assert.Equal(1.0, empty.MissingShare);
+    }
+
+    [Fact]
+    public void Each_missing_pattern_is_factorised_once()
+    {
+        var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
+        var data = Matrix(rows, 4);
+        var (mean, cov, _) = PairwiseCovariance.Compute(data);
+        var d = new MahalanobisDistance(mean, cov);
+        d.Compute(data.Storage, data.RespondentCount);
+        // Patterns in the fixture: one item missing (4 patterns) plus the empty row, which needs no factor.
+        var patterns = rows.Select(r => string.Concat(r.Take(4).Select(x => double.IsNaN(x) ? '0' : '1')))
+            .Where(s => s.Contains('0') && s.Contains('1')).Distinct().Count();
+        Assert.Equal(patterns, d.CachedPatterns);
+        Assert.Equal(0, d.FailedPatterns);
+    }
+
+    [Fact]
+    public void Non_positive_definite_pairwise_matrix_is_repaired_with_a_warning()
+    {
+        // Three items where x3 = x1 + x2 exactly: the covariance is singular (property, no outside value needed).
+        var rows = Enumerable.Range(0, 30).Select(i => { double a = Math.Sin(i), b = Math.Cos(3 * i); return new[] { a, b, a + b }; }).ToArray();
+        var r = RespondentScreening.Run(Matrix(rows, 3), new ScreeningOptions());
+        Assert.Contains(r.Warnings, w => w.Contains("not positive definite"));
+        Assert.All(r.Respondents, x => Assert.False(double.IsNaN(x.D2)));
+    }
+}
