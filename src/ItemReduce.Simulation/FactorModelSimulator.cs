@@ -96,7 +96,9 @@ public static class FactorModelSimulator
                     }
                     break;
             }
-            if (c > 0 && spec.ReverseKeyed is { } rev)
+            // Reverse-keyed items are mirrored only for model-generated answers: careless respondents'
+            // raw answers are planted as given (a straight-liner ticks the same box on every item).
+            if (c > 0 && careless[i] == CarelessKind.None && spec.ReverseKeyed is { } rev)
                 for (int j = 0; j < p; j++) if (rev[j]) values[o + j] = 1 + c - values[o + j];
             if (settings.MissingRate > 0)
                 for (int j = 0; j < p; j++) if (rng.NextDouble() < settings.MissingRate) values[o + j] = double.NaN;

@@ -7,10 +7,11 @@ namespace ItemReduce.Core.Pipeline;
 /// </summary>
 /// <param name="Raw">Responses as read (not reverse-scored), all codebook items.</param>
 /// <param name="Scored">Reverse-scored responses on the usable items only.</param>
+/// <param name="AsAnswered">Responses as given (not reverse-scored) on the usable items, same order as <paramref name="Scored"/>.</param>
 /// <param name="RawSummary">Summary of the raw responses.</param>
 /// <param name="ExcludedItems">Items left out, with reasons.</param>
 /// <param name="Warnings">Plain-language warnings for the user and the appendix.</param>
-public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, DataSummary RawSummary,
+public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, ResponseMatrix AsAnswered, DataSummary RawSummary,
     IReadOnlyList<ExcludedItem> ExcludedItems, IReadOnlyList<string> Warnings)
 {
     /// <summary>Minimum respondents for the covariance matrix of <paramref name="items"/> items to be invertible: max(items + 1, 10).</summary>
@@ -25,9 +26,10 @@ public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, Dat
         var warnings = new List<string>();
         foreach (var e in excluded)
             warnings.Add($"Item {e.Item} was left out of the analysis: {e.Detail}.");
-        var scored = ReverseScoring.Apply(kept.Length == raw.ItemCount ? raw : raw.SelectItems(kept));
+        var asAnswered = kept.Length == raw.ItemCount ? raw : raw.SelectItems(kept);
+        var scored = ReverseScoring.Apply(asAnswered);
         if (summary.RespondentsWithNoAnswers > 0)
             warnings.Add($"{summary.RespondentsWithNoAnswers} respondent(s) answered none of the items.");
-        return new PreparedData(raw, scored, summary, excluded, warnings);
+        return new PreparedData(raw, scored, asAnswered, summary, excluded, warnings);
     }
 }

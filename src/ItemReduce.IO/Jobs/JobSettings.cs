@@ -1,3 +1,5 @@
+using ItemReduce.Core.Pipeline;
+
 namespace ItemReduce.IO.Jobs;
 
 /// <summary>
@@ -26,6 +28,15 @@ public sealed record JobSettings
 
     /// <summary>Seed for every random step (<c>--seed</c>); default 1.</summary>
     public ulong Seed { get; init; } = 1;
+
+    /// <summary>Stage settings (screening, dimensions, factoring, short form). Its seed is set from <see cref="Seed"/>.</summary>
+    public PipelineSettings Pipeline { get; init; } = new();
+
+    /// <summary>Skip the PDF appendix (<c>--no-pdf</c>); tables.md and tables.tex are still written.</summary>
+    public bool NoPdf { get; init; }
+
+    /// <summary>Time stamp of the run, printed in the appendix (UTC).</summary>
+    public DateTimeOffset StartedUtc { get; init; } = DateTimeOffset.UtcNow;
 
     /// <summary>The options as given (name → value text), for the reproducibility record.</summary>
     public IReadOnlyList<KeyValuePair<string, string>> EffectiveOptions { get; init; } = [];

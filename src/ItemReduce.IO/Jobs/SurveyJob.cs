@@ -1,62 +1,90 @@
-using System.Text.Json.Nodes;
-using ItemReduce.Core.Correlation;
-using MathNet.Numerics.LinearAlgebra;
+using ItemReduce.Core.Pipeline;
+using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.IO.Jobs;
 
 /// <summary>Runs the pipeline for a job and writes its outputs atomically into the output folder.</summary>
 public static class SurveyJob
 {
-    /// <summary>The whole pipeline; writes summary.json (and more as stages land) into <see cref="JobSettings.Out"/>.</summary>
-    public static void Run(JobSettings settings, TextWriter stdout, ProgressLog log)
+    /// <summary>Loads the data, runs the stages of <paramref name="scope"/> and writes their outputs into <see cref="JobSettings.Out"/>.</summary>
+    public static PipelineResult Run(JobSettings settings, PipelineScope scope, TextWriter stdout, ProgressLog log)
     {
         OutputStaging.CheckDestination(settings.Out, settings.Force);
         var survey = SurveyLoader.Load(settings, log);
-        var prepared = survey.Prepared;
-        log.Step("computing correlations and eigenvalues");
-        var r = PearsonCorrelation.Compute(prepared.Scored);
-        var eig = Matrix<double>.Build.DenseOfArray(r).Evd(Symmetricity.Symmetric).EigenValues.Select(c => c.Real).OrderDescending().ToArray();
-
-        var summary = new JsonObject
+        var pipelineSettings = settings.Pipeline with { Seed = settings.Seed, Scope = scope };
+        PipelineResult result;
+        try
         {
-            ["tool"] = new JsonObject { ["name"] = "itemreduce", ["version"] = Version },
-            ["inputs"] = new JsonObject
-            {
-                ["responses"] = Path.GetFileName(settings.Responses),
-                ["responsesSha256"] = survey.ResponsesSha256,
-                ["codebook"] = Path.GetFileName(settings.Codebook),
-                ["codebookSha256"] = survey.CodebookSha256,
-            },
-            ["seed"] = settings.Seed,
-            ["respondents"] = new JsonObject
-            {
-                ["total"] = prepared.Raw.RespondentCount,
-                ["flagged"] = 0,
-                ["analysed"] = prepared.Scored.RespondentCount,
-            },
-            ["items"] = new JsonObject
-            {
-                ["total"] = prepared.Raw.ItemCount,
-                ["analysed"] = prepared.Scored.ItemCount,
-                ["reverseKeyed"] = JsonOut.Strs(prepared.Raw.Items.Where(i => i.Reverse).Select(i => i.Name)),
-            },
-            ["excludedItems"] = new JsonArray(prepared.ExcludedItems.Select(e => (JsonNode?)new JsonObject
-            {
-                ["item"] = e.Item,
-                ["reason"] = e.Reason == Core.Data.ItemExclusionReason.AllMissing ? "all-missing" : "zero-variance",
-                ["detail"] = e.Detail,
-            }).ToArray()),
-            ["missingShare"] = JsonOut.Num(prepared.RawSummary.MissingShare),
-            ["factors"] = new JsonObject { ["retained"] = null },
-            ["eigenvalues"] = JsonOut.Nums(eig),
-            ["warnings"] = JsonOut.Strs(prepared.Warnings),
-        };
+            result = SurveyPipeline.Run(survey.Prepared, pipelineSettings, log.Step);
+        }
+        catch (AnalysisStoppedException e)
+        {
+            throw new SurveyInputException($"{Path.GetFileName(settings.Responses)}: {e.Message.TrimEnd('.')}. " +
+                "Fix: check the data with 'itemreduce check', or adjust the options of that stage (see --help).");
+        }
 
+        log.Step("writing results");
+        var files = new List<string>();
         using var staging = OutputStaging.Begin(settings.Out, settings.Force);
-        staging.WriteText("summary.json", JsonOut.Serialize(summary));
+        void Write(string name, string text)
+        {
+            staging.WriteText(name, text);
+            files.Add(name);
+        }
+        if (result.Screening is { } s)
+        {
+            Write("respondent-flags.csv", ScreeningTables.RespondentFlags(s));
+            Write("centre-share-by-items.csv", ScreeningTables.CentreShare(s));
+        }
+        if (result.Dimensions is { } d)
+        {
+            Write("eigenvalues.csv", DimensionTables.Eigenvalues(d));
+            Write("map.csv", DimensionTables.Map(d));
+            Write("item-factorability.csv", DimensionTables.Msa(result.Analysed.Items.Select(i => i.Name).ToList(), d));
+        }
+        if (result.ShortForm is { } sf)
+        {
+            var items = result.Analysed.Items;
+            Write("loadings.csv", ShortFormTables.Loadings(items, sf));
+            if (ShortFormTables.IsOblique(sf.FullSolution))
+            {
+                Write("structure-loadings.csv", ShortFormTables.StructureLoadings(items, sf.FullSolution));
+                Write("factor-correlations.csv", ShortFormTables.FactorCorrelations(sf.FullSolution));
+            }
+            Write("item-decisions.csv", ShortFormTables.ItemDecisions(sf));
+            Write("reliability.csv", ShortFormTables.Reliability(sf));
+            Write("short-form-codebook.csv", ShortFormTables.ShortFormCodebook(items, sf));
+        }
+        Write("summary.json", JsonOut.Serialize(SummaryJson.Build(settings, survey, result)));
+        if (scope == PipelineScope.All)
+        {
+            var doc = Appendix.AppendixBuilder.Build(settings, survey, result);
+            Write("tables.md", Report.Export.MarkdownTablesWriter.Write(doc));
+            Write("tables.tex", Report.Export.LatexTablesWriter.Write(doc));
+            if (!settings.NoPdf)
+            {
+                log.Step("drawing the appendix");
+                staging.WriteStream("appendix.pdf", stream => Report.Pdf.PdfAppendixWriter.Write(doc, stream));
+                files.Add("appendix.pdf");
+            }
+        }
         staging.Commit();
-        stdout.WriteLine($"Results written to {Path.GetFullPath(settings.Out)}");
-        stdout.WriteLine(Path.Combine(Path.GetFullPath(settings.Out), "summary.json"));
+
+        string outDir = Path.GetFullPath(settings.Out);
+        stdout.WriteLine(Headline(result));
+        stdout.WriteLine($"Results written to {outDir}:");
+        foreach (string f in files.Order(StringComparer.Ordinal)) stdout.WriteLine("  " + Path.Combine(outDir, f));
+        return result;
+    }
+
+    private static string Headline(PipelineResult r)
+    {
+        var parts = new List<string> { $"{r.Prepared.Raw.RespondentCount} respondents, {r.Prepared.Scored.ItemCount} items analysed" };
+        if (r.Screening is { } s) parts.Add($"{s.FlaggedRespondents} flagged for review");
+        if (r.FactorsUsed is int k) parts.Add($"{k} factor(s)");
+        else if (r.Dimensions is { } d) parts.Add($"{d.Retained} dimension(s) indicated");
+        if (r.ShortForm is { } sf) parts.Add($"short form of {sf.SelectedIndices.Count} items");
+        return string.Join("; ", parts) + ".";
     }
 
     /// <summary>Tool version (assembly informational version without build metadata).</summary>

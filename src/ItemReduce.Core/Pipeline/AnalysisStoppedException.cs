@@ -1,0 +1,13 @@
+namespace ItemReduce.Core.Pipeline;
+
+/// <summary>
+/// A stage cannot run on these data (for example too few respondents remain after screening, or a
+/// correlation is undefined). The message says which stage and why; it is a property of the data,
+/// not a program fault.
+/// </summary>
+public sealed class AnalysisStoppedException(string stage, string reason, Exception? inner = null)
+    : Exception($"the {stage} stage cannot run on these data: {reason}", inner)
+{
+    /// <summary>Stage name (screening, dimensions, factoring).</summary>
+    public string Stage { get; } = stage;
+}

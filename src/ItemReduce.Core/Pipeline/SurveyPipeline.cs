@@ -1,0 +1,106 @@
+using System.Globalization;
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Dimensions;
+using ItemReduce.Core.Screening;
+using ItemReduce.Core.ShortForm;
+
+namespace ItemReduce.Core.Pipeline;
+
+/// <summary>
+/// Runs the stages in order: screening → (set aside flagged respondents) → dimensions → factoring,
+/// reliability and short form. Pure computation; progress goes to an optional callback.
+/// </summary>
+public static class SurveyPipeline
+{
+    /// <summary>Runs the stages selected by <see cref="PipelineSettings.Scope"/>.</summary>
+    /// <exception cref="AnalysisStoppedException">A stage cannot run on these data.</exception>
+    public static PipelineResult Run(PreparedData prepared, PipelineSettings settings, Action<string>? progress = null)
+    {
+        ArgumentNullException.ThrowIfNull(prepared);
+        ArgumentNullException.ThrowIfNull(settings);
+        var warnings = new List<string>();
+        var ci = CultureInfo.InvariantCulture;
+
+        ScreeningResult? screening = null;
+        var analysed = prepared.Scored;
+        IReadOnlyList<ExcludedItem> lateExcluded = [];
+        if (settings.Scope is PipelineScope.Screen or PipelineScope.All)
+        {
+            progress?.Invoke($"screening {prepared.Scored.RespondentCount} respondents");
+            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered));
+            if (settings.Scope == PipelineScope.All)
+            {
+                var keep = new List<int>();
+                for (int i = 0; i < screening.Respondents.Count; i++)
+                {
+                    var row = screening.Respondents[i];
+                    if (row.ItemsAnswered == 0) continue; // nothing to analyse
+                    if (!settings.KeepFlagged && row.Flagged) continue;
+                    keep.Add(i);
+                }
+                if (keep.Count < prepared.Scored.RespondentCount) analysed = prepared.Scored.SelectRespondents(keep);
+                if (!settings.KeepFlagged && screening.FlaggedRespondents > 0)
+                    warnings.Add(string.Create(ci, $"{screening.FlaggedRespondents} flagged respondent(s) were set aside for the later stages; {analysed.RespondentCount} were analysed. Review the flags: they are prompts for human judgement, not proof of careless answering."));
+                var (kept, excluded) = ItemScreen.Find(analysed);
+                if (excluded.Count > 0)
+                {
+                    lateExcluded = excluded;
+                    foreach (var e in excluded) warnings.Add($"Item {e.Item} was left out after screening: among the retained respondents {e.Detail}.");
+                    analysed = analysed.SelectItems(kept);
+                }
+                int need = PreparedData.MinimumRespondents(analysed.ItemCount);
+                if (analysed.RespondentCount < need)
+                    throw new AnalysisStoppedException("dimensions", string.Create(ci,
+                        $"only {analysed.RespondentCount} respondents remain after screening but {analysed.ItemCount} items need at least {need}; consider --keep-flagged or a stricter --cutoff-p"));
+            }
+        }
+        if (settings.Scope == PipelineScope.Screen)
+            return new PipelineResult { Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, Warnings = warnings };
+
+        DimensionResult? dims = null;
+        var dimOptions = settings.Dimensions with { Seed = settings.Seed };
+        if (settings.Scope != PipelineScope.Shorten || dimOptions.FixedFactors is null)
+        {
+            progress?.Invoke($"dimensions: correlations, eigenvalues and parallel analysis ({dimOptions.Replicates} replicates)");
+            dims = Stage("dimensions", () => DimensionAnalysis.Run(analysed, dimOptions));
+        }
+        if (settings.Scope == PipelineScope.Dimensions)
+            return new PipelineResult { Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded, Dimensions = dims, Warnings = warnings };
+
+        int k = dimOptions.FixedFactors ?? dims!.Retained;
+        if (k < 1)
+        {
+            warnings.Add("No dimension stood out from random data; one factor was extracted so that items can still be judged. Treat the short form with particular caution.");
+            k = 1;
+        }
+        int maxK = Math.Max(1, analysed.ItemCount / 3);
+        if (k > maxK)
+        {
+            warnings.Add(string.Create(ci, $"{k} factors were indicated but {analysed.ItemCount} items support at most {maxK} with three items each; {maxK} were extracted."));
+            k = maxK;
+        }
+        progress?.Invoke(string.Create(ci, $"factoring {analysed.ItemCount} items into {k} factor(s) and building the short form"));
+        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, settings.ShortForm with { Seed = settings.Seed }));
+        return new PipelineResult
+        {
+            Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,
+            Dimensions = dims, FactorsUsed = k, ShortForm = shortForm, Warnings = warnings,
+        };
+    }
+
+    private static T Stage<T>(string name, Func<T> run)
+    {
+        try
+        {
+            return run();
+        }
+        catch (ArgumentException e)
+        {
+            throw new AnalysisStoppedException(name, e.Message.Split(" (Parameter")[0], e);
+        }
+        catch (Exception e) when (e.GetType().Name.Contains("Convergence", StringComparison.Ordinal))
+        {
+            throw new AnalysisStoppedException(name, e.Message, e);
+        }
+    }
+}

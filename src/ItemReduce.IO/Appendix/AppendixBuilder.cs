@@ -1,0 +1,407 @@
+using System.Globalization;
+using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Dimensions;
+using ItemReduce.Core.Factoring;
+using ItemReduce.Core.Pipeline;
+using ItemReduce.Core.Screening;
+using ItemReduce.Core.ShortForm;
+using ItemReduce.IO.Jobs;
+using ItemReduce.IO.Outputs;
+using ItemReduce.Report.Charts;
+using ItemReduce.Report.Model;
+using MathNet.Numerics.Distributions;
+using static ItemReduce.Report.Formatting.NumberFormat;
+
+namespace ItemReduce.IO.Appendix;
+
+/// <summary>
+/// Turns a run's results into the methods appendix document (sections, numbered tables and figures,
+/// cautions and references). Wording is ours; numbers follow common reporting conventions (two or three
+/// decimals, no leading zero for values bounded by 1).
+/// </summary>
+public static class AppendixBuilder
+{
+    /// <summary>Loadings with absolute value below this are left blank in the loading table.</summary>
+    public const double BlankBelow = 0.30;
+
+    public static AppendixDocument Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
+    {
+        var b = new Builder();
+        var refs = new SortedSet<string>(StringComparer.Ordinal);
+        DataSection(b, settings, survey, r, refs);
+        if (r.Screening is { } s) ScreeningSection(b, r, s, refs);
+        if (r.Dimensions is { } d)
+        {
+            FactorabilitySection(b, r, d, refs);
+            DimensionsSection(b, r, d, refs);
+        }
+        if (r.ShortForm is { } sf)
+        {
+            SolutionSection(b, r, sf, refs);
+            ReliabilitySection(b, r, sf, refs);
+        }
+        CautionsSection(b, r);
+        b.Heading(1, "References");
+        b.Add(new ReferenceListBlock(refs.ToList()));
+        string subtitle = $"{Path.GetFileName(settings.Responses)} · {r.Prepared.Raw.RespondentCount} respondents · {r.Prepared.Raw.ItemCount} items";
+        return new AppendixDocument("Methods appendix: respondent screening, dimensionality and short form", subtitle,
+            settings.StartedUtc, $"itemreduce {SurveyJob.Version}", b.Blocks)
+        {
+            RunningFooter = $"itemreduce {SurveyJob.Version} · seed {settings.Seed.ToString(CultureInfo.InvariantCulture)}",
+        };
+    }
+
+    private sealed class Builder
+    {
+        public List<Block> Blocks { get; } = [];
+        private int _tables, _figures;
+        public void Add(Block block) => Blocks.Add(block);
+        public void Heading(int level, string text) => Blocks.Add(new HeadingBlock(level, text));
+        public void Para(string text) => Blocks.Add(new ParagraphBlock(text));
+        public void Bullets(IEnumerable<string> items) => Blocks.Add(new BulletListBlock(items.ToList()));
+        public int Table(string title, IReadOnlyList<TableColumn> columns, IReadOnlyList<TableRow> rows, string? note = null)
+        {
+            Blocks.Add(new TableBlock(++_tables, title, columns, rows, note));
+            return _tables;
+        }
+        public int Figure(string caption, ChartSpec chart)
+        {
+            Blocks.Add(new FigureBlock(++_figures, caption, chart));
+            return _figures;
+        }
+        public int NextTable => _tables + 1;
+        public int NextFigure => _figures + 1;
+    }
+
+    private static string Inv(FormattableString s) => s.ToString(CultureInfo.InvariantCulture);
+
+    private static TableRow Row(params string[] cells) => new(cells);
+
+    // ---- 1. Data and reproducibility -------------------------------------------------------------
+
+    private static void DataSection(Builder b, JobSettings settings, LoadedSurvey survey, PipelineResult r, SortedSet<string> refs)
+    {
+        var p = r.Prepared;
+        b.Heading(1, "1. Data and reproducibility");
+        b.Para(Inv($"The responses of {p.Raw.RespondentCount} respondents to {p.Raw.ItemCount} items were read from the files below. ") +
+               Inv($"{Percent(p.RawSummary.MissingShare)} of all answers were missing. Reverse-keyed items were rescored as minimum + maximum − answer before any analysis. ") +
+               "Every number in this appendix can be reproduced by running the same version of the program on the same files with the options listed here.");
+        var reversed = p.Raw.Items.Where(i => i.Reverse).Select(i => i.Name).ToList();
+        var excluded = p.ExcludedItems.Concat(r.ExcludedAfterScreening).ToList();
+        var entries = new List<KeyValueEntry>
+        {
+            new("Responses file", Path.GetFileName(settings.Responses)),
+            new("SHA-256", survey.ResponsesSha256),
+            new("Codebook file", Path.GetFileName(settings.Codebook)),
+            new("SHA-256", survey.CodebookSha256),
+            new("Respondent id column", survey.Intake.IdColumn ?? "none (data line numbers)"),
+            new("Missing-data codes", "empty cell" + string.Concat(settings.Intake.EffectiveMissingCodes.Where(c => c.Length > 0).Select(c => ", " + c))),
+            new("Respondents", Integer(p.Raw.RespondentCount)),
+            new("Items in codebook / analysed", $"{Integer(p.Raw.ItemCount)} / {Integer(r.Analysed.ItemCount)}"),
+            new("Reverse-keyed items", reversed.Count == 0 ? "none" : string.Join(", ", reversed)),
+            new("Items left out", excluded.Count == 0 ? "none" : string.Join("; ", excluded.Select(e => $"{e.Item} ({e.Detail})"))),
+            new("Share of answers missing", Percent(p.RawSummary.MissingShare)),
+            new("Software", $"itemreduce {SurveyJob.Version} on .NET {Environment.Version}"),
+            new("Random seed", settings.Seed.ToString(CultureInfo.InvariantCulture)),
+            new("Run started (UTC)", settings.StartedUtc.ToUniversalTime().ToString("yyyy-MM-dd HH:mm:ss", CultureInfo.InvariantCulture)),
+            new("Options given", settings.EffectiveOptions.Count == 0 ? "none (all defaults)"
+                : string.Join("  ", settings.EffectiveOptions.Where(kv => kv.Key is not ("responses" or "codebook" or "out")).Select(kv => $"--{kv.Key}={kv.Value}"))),
+            new("Settings in effect", SettingsLine(r.Settings)),
+        };
+        b.Add(new KeyValueBlock(entries));
+        refs.Add(MethodReferences.BlackmanVigna2021);
+    }
+
+    private static string SettingsLine(PipelineSettings s)
+    {
+        var d = s.Dimensions;
+        var f = s.ShortForm;
+        return Inv($"cutoff p = {s.Screening.CutoffP}; distance = {(s.Screening.UseRobust ? "robust (FAST-MCD)" : "classical")}; flagged respondents {(s.KeepFlagged ? "kept" : "set aside")}; ") +
+               Inv($"correlation = {d.Correlation.ToString().ToLowerInvariant()}, {d.MissingData.ToString().ToLowerInvariant()}; reference = {d.Reference.ToString().ToLowerInvariant()}, {d.Replicates} replicates, {d.Percentile}th percentile; ") +
+               Inv($"factor rule = {(d.FixedFactors is int k ? $"fixed at {k}" : d.FactorsRule.ToString().ToLowerInvariant())}; extraction = {Outputs.SummaryJson.ExtractionName(f.Factoring.Extraction)}; rotation = {f.Factoring.Rotation.ToString().ToLowerInvariant()}; ") +
+               Inv($"items per scale = {f.ItemsPerScale}; holdout = {f.HoldoutFraction}");
+    }
+
+    // ---- 2. Screening ----------------------------------------------------------------------------
+
+    private static void ScreeningSection(Builder b, PipelineResult r, ScreeningResult s, SortedSet<string> refs)
+    {
+        int p = r.Prepared.Scored.ItemCount;
+        b.Heading(1, "2. Respondent screening");
+        b.Para(s.RuleDescription);
+        b.Para(Inv($"{s.FlaggedRespondents} of {s.TotalRespondents} respondents ({Percent(s.FlaggedRespondents / (double)Math.Max(1, s.TotalRespondents))}) were flagged for review. ") +
+               (r.Settings.Scope == PipelineScope.All
+                   ? r.Settings.KeepFlagged
+                       ? "At the analyst's request, flagged respondents were kept in the later stages."
+                       : Inv($"They were set aside for the later stages, which analysed {r.Analysed.RespondentCount} respondents. The flags are prompts for human review; the list below is not a verdict on any person.")
+                   : ""));
+        var rows = s.ReasonCounts.Select(c => Row(c.Code, c.Meaning, Integer(c.Count))).ToList();
+        b.Table("Respondents flagged, by reason", [new("Reason code"), new("Meaning"), new("Respondents", ColumnAlignment.Right)], rows,
+            "A respondent may have several reasons, so counts can add up to more than the number flagged.");
+
+        // Why a fixed radius fails.
+        var hp = s.HalfPeakRegion;
+        var xs = hp.Select(h => (double)h.Items).ToList();
+        var chart = new ChartSpec(ChartKind.Line, "Number of items answered (k)", "Share of respondents",
+        [
+            new ChartSeries("Inside the half-peak-density region (D² ≤ 2 ln 2)", xs, hp.Select(h => h.ShareInsideHalfPeak).ToList(), SeriesStyle.LineAndMarkers),
+            new ChartSeries(Inv($"Beyond the χ² cutoff (p = {s.Options.CutoffP})"), xs, hp.Select(h => h.ShareBeyondCutoff).ToList(), SeriesStyle.Dashed),
+        ]) { Marker = new VerticalMarker(p, Inv($"this survey: {p} items")) };
+        var k1 = hp.FirstOrDefault(h => h.Items == 1);
+        var k2 = hp.FirstOrDefault(h => h.Items == 2);
+        var k9 = hp.FirstOrDefault(h => h.Items == 9);
+        var kp = hp.FirstOrDefault(h => h.Items == p);
+        b.Figure(Inv($"Share of respondents from a multivariate normal population who lie in the region where the density is at least half its peak, by number of items. ") +
+                 (k1 is null || k2 is null || k9 is null ? "" : Inv($"The share falls from {Percent(k1.ShareInsideHalfPeak)} for one item and {Percent(k2.ShareInsideHalfPeak)} for two to {Percent(k9.ShareInsideHalfPeak)} for nine") +
+                 (kp is null ? "." : Inv($" and {(kp.ShareInsideHalfPeak < 1e-5 ? "less than 0.001%" : Percent(kp.ShareInsideHalfPeak, 3))} for this survey's {p} items."))) +
+                 " Any fixed distance radius therefore flags almost everyone once there are more than a handful of items; a χ² cutoff whose degrees of freedom equal the number of items answered flags the same small share at every k.",
+            chart);
+
+        // Q–Q plot of the distances used for flagging, for respondents who answered every item.
+        bool robust = s.Options.UseRobust && s.Robust.Available;
+        var complete = s.Respondents.Where(x => x.ItemsAnswered == p).Select(x => robust ? x.RobustD2 : x.D2).Where(double.IsFinite).Order().ToList();
+        if (complete.Count >= 10)
+        {
+            int n = complete.Count;
+            var q = Enumerable.Range(0, n).Select(i => ChiSquared.InvCDF(p, (i + 0.5) / n)).ToList();
+            b.Figure(Inv($"{(robust ? "Robust" : "Classical")} squared distances of the {n} respondents who answered all {p} items against χ²({p}) quantiles. ") +
+                     "Points on the diagonal behave as expected under multivariate normality; points far above it at the right are the atypical respondents.",
+                new ChartSpec(ChartKind.Scatter, Inv($"χ²({p}) quantile"), robust ? "Robust D²" : "D²",
+                    [new ChartSeries("Respondents", q, complete, SeriesStyle.Markers)]) { IdentityLine = true });
+        }
+
+        var flagged = s.Respondents.Where(x => x.Flagged).ToList();
+        if (flagged.Count > 0)
+        {
+            b.Table("Respondents flagged for review (ids only)", [new("Respondent"), new("Items answered", ColumnAlignment.Right), new("Reasons")],
+                flagged.Select(x => Row(x.RespondentId, Integer(x.ItemsAnswered), string.Join(", ", x.Reasons))).ToList(),
+                "Responses are not reproduced here. Look at each flagged respondent's answers before deciding anything; atypical is not the same as invalid.");
+        }
+        refs.Add(MethodReferences.Mahalanobis1936);
+        refs.Add(MethodReferences.RousseeuwVanDriessen1999);
+        refs.Add(MethodReferences.Johnson2005);
+        refs.Add(MethodReferences.Dunn2018);
+        refs.Add(MethodReferences.MeadeCraig2012);
+    }
+
+    // ---- 3. Factorability --------------------------------------------------------------------------
+
+    private static void FactorabilitySection(Builder b, PipelineResult r, DimensionResult d, SortedSet<string> refs)
+    {
+        b.Heading(1, "3. Factorability");
+        string corr = d.CorrelationKind == CorrelationKind.Polychoric ? "polychoric" : "Pearson";
+        b.Para(Inv($"Analyses use the {corr} correlation matrix of the {r.Analysed.ItemCount} items ") +
+               (r.Settings.Dimensions.MissingData == MissingDataHandling.Pairwise ? "computed from pairwise-complete answers" : "computed from respondents with complete answers") +
+               Inv($" (effective n = {d.EffectiveRespondents}). ") +
+               (d.SmoothingApplied
+                   ? Inv($"The matrix was not positive definite and was replaced by the nearest valid correlation matrix (largest change {Fixed(d.Smoothing.MaxAbsoluteChange, 3)}). ")
+                   : "The matrix was positive definite and was used as computed. ") +
+               Inv($"The Kaiser–Meyer–Olkin measure of sampling adequacy was {Bounded(d.Kmo)}; Bartlett's test of sphericity gave χ²({d.Bartlett.DegreesOfFreedom}) = {Fixed(d.Bartlett.ChiSquare, 2)}, {PStatement(d.Bartlett.P)}."));
+        var order = Enumerable.Range(0, d.Msa.Length).OrderBy(j => d.Msa[j]).ToList();
+        var show = order.Take(3).Concat(order.Skip(Math.Max(3, order.Count - 3))).Distinct().ToList();
+        b.Table("Items with the lowest and highest measure of sampling adequacy (MSA)", [new("Item"), new("MSA", ColumnAlignment.Right)],
+            show.Select(j => Row(r.Analysed.Items[j].Name, Bounded(d.Msa[j]))).ToList(),
+            "All items' MSA values are in item-factorability.csv. Values below about .50 suggest an item shares little with the others.");
+        refs.Add(MethodReferences.Kaiser1974);
+        refs.Add(MethodReferences.Bartlett1950);
+        if (d.CorrelationKind == CorrelationKind.Polychoric) refs.Add(MethodReferences.Olsson1979);
+        if (d.SmoothingApplied) refs.Add(MethodReferences.Higham2002);
+    }
+
+    // ---- 4. Number of factors ----------------------------------------------------------------------
+
+    private static void DimensionsSection(Builder b, PipelineResult r, DimensionResult d, SortedSet<string> refs)
+    {
+        b.Heading(1, "4. Number of dimensions");
+        var pa = d.Reference;
+        string refKind = pa.Kind == ReferenceKind.Permutation
+            ? "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)"
+            : Inv($"uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition");
+        b.Para(Inv($"Parallel analysis compared each eigenvalue of the correlation matrix with the mean and the {pa.PercentileLevel}th percentile of the same eigenvalue in {pa.Replicates} {refKind}. ") +
+               Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
+        int p = d.Eigenvalues.Length;
+        var comp = Enumerable.Range(1, p).Select(c => (double)c).ToList();
+        var series = new List<ChartSeries>
+        {
+            new("Observed eigenvalues", comp, d.Eigenvalues, SeriesStyle.LineAndMarkers),
+            new(Inv($"Random-data {pa.PercentileLevel}th percentile"), comp, d.ReferencePercentile, SeriesStyle.Line),
+            new("Random-data mean", comp, d.ReferenceMean, SeriesStyle.Dashed),
+        };
+        b.Figure(Inv($"Scree plot of the eigenvalues of the correlation matrix with the parallel-analysis references. Components above the percentile line are retained; here {d.ByRule.Parallel}."),
+            new ChartSpec(ChartKind.Line, "Component", "Eigenvalue", series));
+        int show = Math.Min(p, Math.Max(10, d.Retained + 3));
+        var rows = Enumerable.Range(0, show).Select(c => new TableRow(
+        [
+            Integer(c + 1), Fixed(d.Eigenvalues[c], 3), Fixed(d.ReferenceMean[c], 3), Fixed(d.ReferencePercentile[c], 3),
+            d.ReducedEigenvalues is null ? "—" : Fixed(d.ReducedEigenvalues[c], 3),
+            d.ReducedReferencePercentile is null ? "—" : Fixed(d.ReducedReferencePercentile[c], 3),
+            c < d.ByRule.Parallel ? "yes" : "no",
+        ], c < d.ByRule.Parallel ? RowMark.Highlighted : RowMark.None)).ToList();
+        b.Table("Eigenvalues and parallel-analysis references",
+            [new("Component", ColumnAlignment.Right), new("Observed", ColumnAlignment.Right), new("Random mean", ColumnAlignment.Right),
+             new(Inv($"Random P{pa.PercentileLevel}"), ColumnAlignment.Right), new("Reduced observed", ColumnAlignment.Right),
+             new(Inv($"Reduced P{pa.PercentileLevel}"), ColumnAlignment.Right), new("Above reference")],
+            rows, "Reduced: squared multiple correlations on the diagonal (common-factor variant). All eigenvalues are in eigenvalues.csv.");
+        var mapRows = new List<TableRow>
+        {
+            Row("Parallel analysis (principal components)", Integer(d.ByRule.Parallel)),
+            Row("Parallel analysis (reduced matrix)", d.ByRule.ParallelReduced is int pr ? Integer(pr) : "—"),
+            Row("MAP, squared partial correlations (1976)", Integer(d.ByRule.Map)),
+            Row("MAP, fourth-power partial correlations (2000)", Integer(d.ByRule.MapRevised)),
+            Row("Eigenvalue > 1 (reference only)", Integer(d.ByRule.Kaiser)),
+        };
+        b.Table("Number of dimensions indicated by each rule", [new("Rule"), new("Dimensions", ColumnAlignment.Right)], mapRows);
+        b.Para("**Decision.** " + d.Reason + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));
+        refs.Add(MethodReferences.Horn1965);
+        refs.Add(MethodReferences.Glorfeld1995);
+        refs.Add(MethodReferences.Velicer1976);
+        refs.Add(MethodReferences.VelicerEatonFava2000);
+        refs.Add(MethodReferences.Kaiser1960);
+        if (pa.Kind == ReferenceKind.Permutation) refs.Add(MethodReferences.BujaEyuboglu1992);
+        else
+        {
+            refs.Add(MethodReferences.Bartlett1933);
+            refs.Add(MethodReferences.MarsagliaTsang2000);
+        }
+    }
+
+    // ---- 5. Factor solution ------------------------------------------------------------------------
+
+    private static void SolutionSection(Builder b, PipelineResult r, ShortFormResult sf, SortedSet<string> refs)
+    {
+        var s = sf.FullSolution;
+        int k = s.Pattern.GetLength(1);
+        b.Heading(1, "5. Factor solution");
+        string extraction = s.Extraction switch
+        {
+            FactorExtraction.MinimumResidual => "minimum residual (unweighted least squares)",
+            FactorExtraction.PrincipalAxis => "principal axis factoring with iterated communalities",
+            _ => "maximum likelihood",
+        };
+        string rotation = s.Rotation switch
+        {
+            FactorRotation.Oblimin => "oblimin (quartimin, γ = 0) by gradient projection",
+            FactorRotation.Promax => "promax (power 4)",
+            FactorRotation.Varimax => "varimax with Kaiser normalisation",
+            _ => "no rotation",
+        };
+        string fit = s.Fit is { } mf
+            ? Inv($" Model fit: χ²({mf.Df}) = {Fixed(mf.ChiSquare, 2)}, {PStatement(mf.P)}, RMSEA = {Fixed(mf.Rmsea, 3)}, TLI = {Fixed(mf.Tli, 3)}.")
+            : "";
+        b.Para(Inv($"{k} factor(s) were extracted by {extraction} and rotated by {rotation}. ") +
+               (s.Converged ? Inv($"The extraction converged in {s.Iterations} iterations.") : "The extraction did NOT converge within the iteration limit; treat the loadings with caution.") +
+               (s.HeywoodItems.Count > 0 ? Inv($" Heywood case(s) (communality at or above 1): {string.Join(", ", s.HeywoodItems.Select(j => r.Analysed.Items[j].Name))}.") : "") + fit);
+
+        var judgement = sf.Judgements.ToDictionary(j => j.Index);
+        var order = Enumerable.Range(0, r.Analysed.ItemCount)
+            .OrderBy(j => judgement.TryGetValue(j, out var jd) ? jd.PrimaryFactor : 0)
+            .ThenByDescending(j => judgement.TryGetValue(j, out var jd) ? Math.Abs(jd.PrimaryLoading) : 0).ToList();
+        var columns = new List<TableColumn> { new("Item"), new("Subscale") };
+        for (int f = 0; f < k; f++) columns.Add(new TableColumn($"F{f + 1} {s.FactorLabels[f]}", ColumnAlignment.Right));
+        columns.Add(new TableColumn("h²", ColumnAlignment.Right));
+        columns.Add(new TableColumn("Decision"));
+        var rows = new List<TableRow>();
+        foreach (int j in order)
+        {
+            var cells = new List<string> { r.Analysed.Items[j].Name + (r.Analysed.Items[j].Reverse ? " (R)" : ""), r.Analysed.Items[j].Subscale ?? "" };
+            for (int f = 0; f < k; f++) cells.Add(Math.Abs(s.Pattern[j, f]) < BlankBelow ? "" : Loading(s.Pattern[j, f]));
+            cells.Add(Loading(s.Communalities[j]));
+            bool keep = judgement.TryGetValue(j, out var jd) && jd.Decision == ItemDecision.Keep;
+            cells.Add(keep ? "keep" : "drop");
+            rows.Add(new TableRow(cells, keep ? RowMark.Highlighted : RowMark.None));
+        }
+        b.Table(ShortFormTables.IsOblique(s) ? "Rotated pattern loadings" : "Rotated loadings", columns, rows,
+            Inv($"Loadings with absolute value below {Bounded(BlankBelow)} are left blank. h² = communality. (R) = reverse-keyed, rescored before analysis. Items kept in the short form are shaded. ") +
+            "Full loadings are in loadings.csv" + (ShortFormTables.IsOblique(s) ? ", structure loadings in structure-loadings.csv." : "."));
+        if (ShortFormTables.IsOblique(s) && k > 1)
+        {
+            var phi = new List<TableRow>();
+            for (int a = 0; a < k; a++)
+            {
+                var c = new List<string> { $"F{a + 1} {s.FactorLabels[a]}" };
+                for (int bb = 0; bb < k; bb++) c.Add(bb < a ? Loading(s.FactorCorrelations[a, bb]) : bb == a ? "—" : "");
+                phi.Add(new TableRow(c));
+            }
+            var cols = new List<TableColumn> { new("Factor") };
+            for (int f = 0; f < k; f++) cols.Add(new TableColumn($"F{f + 1}", ColumnAlignment.Right));
+            b.Table("Factor correlations", cols, phi);
+        }
+        var codes = sf.Judgements.SelectMany(j => j.Reasons).Distinct().Order(StringComparer.Ordinal).ToList();
+        if (codes.Count > 0)
+        {
+            b.Table("Item judgements: reason codes used", [new("Code"), new("Meaning"), new("Items", ColumnAlignment.Right)],
+                codes.Select(c => Row(c, ItemReasonCodes.Descriptions.TryGetValue(c, out var m) ? m : "", Integer(sf.Judgements.Count(j => j.Reasons.Contains(c))))).ToList(),
+                "Each item's codes and numbers are in item-decisions.csv. Thresholds: primary loading < .40, secondary ≥ .30 or gap < .20, communality < .20, corrected item–total r < .30.");
+        }
+        refs.Add(s.Extraction switch
+        {
+            FactorExtraction.MinimumResidual => MethodReferences.HarmanJones1966,
+            FactorExtraction.MaximumLikelihood => MethodReferences.Joreskog1967,
+            _ => MethodReferences.HarmanJones1966,
+        });
+        if (s.Rotation == FactorRotation.Oblimin) refs.Add(MethodReferences.Jennrich2002);
+        if (s.Rotation == FactorRotation.Promax) { refs.Add(MethodReferences.HendricksonWhite1964); refs.Add(MethodReferences.Kaiser1958); }
+        if (s.Rotation == FactorRotation.Varimax) refs.Add(MethodReferences.Kaiser1958);
+    }
+
+    private static string Loading(double v) => double.IsFinite(v) && Math.Abs(v) <= 1 ? Bounded(v) : Fixed(v, 2);
+
+    // ---- 6. Reliability and short form -------------------------------------------------------------
+
+    private static void ReliabilitySection(Builder b, PipelineResult r, ShortFormResult sf, SortedSet<string> refs)
+    {
+        b.Heading(1, "6. Reliability and short form");
+        int total = sf.SelectedIndices.Count;
+        b.Para(Inv($"For each scale, items were judged on their loadings, communality and corrected item–total correlation, and the strongest unflagged items were kept, up to {r.Settings.ShortForm.ItemsPerScale} per scale") +
+               (r.Settings.ShortForm.KeepReverseKeyedBalance ? ", keeping reverse-keyed items in roughly their original proportion" : "") +
+               Inv($". The short form has {total} items. Cronbach's alpha is reported with a {Percent(r.Settings.ShortForm.Confidence, 0)} confidence interval (Feldt's F-based interval), McDonald's omega total from a one-factor model of each scale, and the correlation between short and full scale scores corrected for the items they share (Levy's correction)."));
+        if (sf.HoldoutRespondents > 0)
+            b.Para(Inv($"Items were chosen on a random {sf.SelectionRespondents} respondents and evaluated again on the other {sf.HoldoutRespondents} (holdout rows), so the holdout figures are not inflated by the selection."));
+        var rows = sf.Reliability.Select(x => new TableRow(
+        [
+            x.Scale, x.FormLabel, Integer(x.Items), Integer(x.Respondents), Loading(x.Alpha),
+            double.IsFinite(x.AlphaCiLow) ? $"[{Loading(x.AlphaCiLow)}, {Loading(x.AlphaCiHigh)}]" : "—",
+            double.IsFinite(x.Omega) ? Loading(x.Omega) : "—",
+            double.IsFinite(x.ShortFullCorrelation) ? Loading(x.ShortFullCorrelation) : "—",
+        ], x.Form == ScaleForm.Short ? RowMark.Highlighted : RowMark.None)).ToList();
+        b.Table("Reliability of the full and short forms",
+            [new("Scale"), new("Form"), new("Items", ColumnAlignment.Right), new("n", ColumnAlignment.Right), new("α", ColumnAlignment.Right),
+             new("95% CI", ColumnAlignment.Center), new("ω", ColumnAlignment.Right), new("r short–full", ColumnAlignment.Right)],
+            rows, "r short–full is corrected for item overlap. ω is not computed for fewer than three items.");
+        var items = r.Analysed.Items;
+        b.Table("Items of the short form",
+            [new("Scale"), new("Item"), new("Wording"), new("Keying")],
+            sf.Scales.SelectMany(sc => sc.SelectedItems.Select(name =>
+            {
+                var it = items.First(i => i.Name == name);
+                return Row(sc.Scale, name, it.Text ?? "", it.Reverse ? "reverse" : "forward");
+            })).ToList(),
+            "short-form-codebook.csv holds these items as a codebook for the next data collection.");
+        refs.Add(MethodReferences.Cronbach1951);
+        refs.Add(MethodReferences.Feldt1965);
+        refs.Add(MethodReferences.McDonald1999);
+        refs.Add(MethodReferences.Levy1967);
+    }
+
+    // ---- 7. Cautions -------------------------------------------------------------------------------
+
+    private static void CautionsSection(Builder b, PipelineResult r)
+    {
+        b.Heading(1, "7. Cautions and limitations");
+        b.Bullets(
+        [
+            "Screening flags are for human review, not automatic exclusion. Check each flagged respondent's answers, and report how many were set aside and why.",
+            "Atypical is not invalid. Groups with a genuinely different response style (for example respondents answering in a second language, or a minority whose experience differs from the majority's) can be over-flagged by distance rules; look at who is flagged before excluding anyone.",
+            "Parallel analysis, MAP and the loading thresholds are aids to judgement. The number of dimensions and the items kept should also make sense in terms of content.",
+            "A short form chosen on these data must be validated in a new, independent sample before it is used for clinical, educational or employment decisions.",
+            "Follow the requirements of your ethics board and the professional standards of your field for data use, exclusions and test use.",
+        ]);
+        var warnings = r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
+            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w != ShortFormBuilder.ValidationCaution)).Distinct().ToList();
+        if (warnings.Count > 0)
+        {
+            b.Heading(2, "Warnings raised during this run");
+            b.Bullets(warnings);
+        }
+    }
+}

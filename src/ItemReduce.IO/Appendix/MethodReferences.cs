@@ -1,0 +1,37 @@
+namespace ItemReduce.IO.Appendix;
+
+/// <summary>
+/// Full citations of the published methods the appendix may cite (APA style). The same citations
+/// appear in the summary comments of the types implementing each method. Citations were written from
+/// memory by the developers; page ranges should be checked before a manuscript quotes them.
+/// </summary>
+public static class MethodReferences
+{
+    public const string Bartlett1933 = "Bartlett, M. S. (1933). On the theory of statistical regression. Proceedings of the Royal Society of Edinburgh, 53, 260–283.";
+    public const string Bartlett1950 = "Bartlett, M. S. (1950). Tests of significance in factor analysis. British Journal of Psychology (Statistical Section), 3(2), 77–85.";
+    public const string BlackmanVigna2021 = "Blackman, D., & Vigna, S. (2021). Scrambled linear pseudorandom number generators. ACM Transactions on Mathematical Software, 47(4), Article 36.";
+    public const string BujaEyuboglu1992 = "Buja, A., & Eyuboglu, N. (1992). Remarks on parallel analysis. Multivariate Behavioral Research, 27(4), 509–540.";
+    public const string Cronbach1951 = "Cronbach, L. J. (1951). Coefficient alpha and the internal structure of tests. Psychometrika, 16(3), 297–334.";
+    public const string Dunn2018 = "Dunn, A. M., Heggestad, E. D., Shanock, L. R., & Theilgan, N. (2018). Intra-individual response variability as an indicator of insufficient effort responding: Comparison to other indicators and relationships with individual differences. Journal of Business and Psychology, 33(1), 105–121.";
+    public const string Feldt1965 = "Feldt, L. S. (1965). The approximate sampling distribution of Kuder-Richardson reliability coefficient twenty. Psychometrika, 30(3), 357–370.";
+    public const string Glorfeld1995 = "Glorfeld, L. W. (1995). An improvement on Horn's parallel analysis methodology for selecting the correct number of factors to retain. Educational and Psychological Measurement, 55(3), 377–393.";
+    public const string HarmanJones1966 = "Harman, H. H., & Jones, W. H. (1966). Factor analysis by minimizing residuals (minres). Psychometrika, 31(3), 351–368.";
+    public const string HendricksonWhite1964 = "Hendrickson, A. E., & White, P. O. (1964). Promax: A quick method for rotation to oblique simple structure. British Journal of Statistical Psychology, 17(1), 65–70.";
+    public const string Higham2002 = "Higham, N. J. (2002). Computing the nearest correlation matrix—a problem from finance. IMA Journal of Numerical Analysis, 22(3), 329–343.";
+    public const string Horn1965 = "Horn, J. L. (1965). A rationale and test for the number of factors in factor analysis. Psychometrika, 30(2), 179–185.";
+    public const string Jennrich2002 = "Jennrich, R. I. (2002). A simple general method for oblique rotation. Psychometrika, 67(1), 7–19.";
+    public const string Johnson2005 = "Johnson, J. A. (2005). Ascertaining the validity of individual protocols from Web-based personality inventories. Journal of Research in Personality, 39(1), 103–129.";
+    public const string Joreskog1967 = "Jöreskog, K. G. (1967). Some contributions to maximum likelihood factor analysis. Psychometrika, 32(4), 443–482.";
+    public const string Kaiser1958 = "Kaiser, H. F. (1958). The varimax criterion for analytic rotation in factor analysis. Psychometrika, 23(3), 187–200.";
+    public const string Kaiser1960 = "Kaiser, H. F. (1960). The application of electronic computers to factor analysis. Educational and Psychological Measurement, 20(1), 141–151.";
+    public const string Kaiser1974 = "Kaiser, H. F. (1974). An index of factorial simplicity. Psychometrika, 39(1), 31–36.";
+    public const string Levy1967 = "Levy, P. (1967). The correction for spurious correlation in the evaluation of short-form tests. Journal of Clinical Psychology, 23(1), 84–86.";
+    public const string Mahalanobis1936 = "Mahalanobis, P. C. (1936). On the generalised distance in statistics. Proceedings of the National Institute of Sciences of India, 2(1), 49–55.";
+    public const string MarsagliaTsang2000 = "Marsaglia, G., & Tsang, W. W. (2000). A simple method for generating gamma variables. ACM Transactions on Mathematical Software, 26(3), 363–372.";
+    public const string McDonald1999 = "McDonald, R. P. (1999). Test theory: A unified treatment. Lawrence Erlbaum.";
+    public const string MeadeCraig2012 = "Meade, A. W., & Craig, S. B. (2012). Identifying careless responses in survey data. Psychological Methods, 17(3), 437–455.";
+    public const string Olsson1979 = "Olsson, U. (1979). Maximum likelihood estimation of the polychoric correlation coefficient. Psychometrika, 44(4), 443–460.";
+    public const string RousseeuwVanDriessen1999 = "Rousseeuw, P. J., & Van Driessen, K. (1999). A fast algorithm for the minimum covariance determinant estimator. Technometrics, 41(3), 212–223.";
+    public const string Velicer1976 = "Velicer, W. F. (1976). Determining the number of components from the matrix of partial correlations. Psychometrika, 41(3), 321–327.";
+    public const string VelicerEatonFava2000 = "Velicer, W. F., Eaton, C. A., & Fava, J. L. (2000). Construct explication through factor or component analysis: A review and evaluation of alternative procedures for determining the number of factors or components. In R. D. Goffin & E. Helmes (Eds.), Problems and solutions in human assessment (pp. 41–71). Kluwer.";
+}

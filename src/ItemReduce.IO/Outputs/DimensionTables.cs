@@ -1,0 +1,49 @@
+using ItemReduce.Core.Dimensions;
+using static ItemReduce.IO.SafeCsvWriter;
+
+namespace ItemReduce.IO.Outputs;
+
+/// <summary>CSV tables of the dimensions stage.</summary>
+public static class DimensionTables
+{
+    private const int Decimals = 6;
+
+    /// <summary>
+    /// <c>eigenvalues.csv</c>: component, observed, reference_mean, reference_percentile, retained; then the
+    /// reduced-matrix (SMC diagonal) eigenvalue and its references, and the share of variance.
+    /// </summary>
+    public static string Eigenvalues(DimensionResult d)
+    {
+        var w = new SafeCsvWriter(["component", "observed", "reference_mean", "reference_percentile", "retained",
+            "share_of_variance", "reduced_observed", "reduced_reference_mean", "reduced_reference_percentile"]);
+        int p = d.Eigenvalues.Length;
+        var share = d.ProportionOfVariance;
+        for (int c = 0; c < p; c++)
+        {
+            w.AppendRow([Integer(c + 1), Number(d.Eigenvalues[c], Decimals), Number(d.ReferenceMean[c], Decimals),
+                Number(d.ReferencePercentile[c], Decimals), Bool(c < d.Retained), Number(share[c], Decimals),
+                Number(At(d.ReducedEigenvalues, c), Decimals), Number(At(d.ReducedReferenceMean, c), Decimals),
+                Number(At(d.ReducedReferencePercentile, c), Decimals)]);
+        }
+        return w.ToString();
+    }
+
+    /// <summary><c>map.csv</c>: components removed, average squared partial correlation (1976) and average fourth power (2000).</summary>
+    public static string Map(DimensionResult d)
+    {
+        var w = new SafeCsvWriter(["components_removed", "average_squared_partial", "average_fourth_power_partial"]);
+        for (int m = 0; m < d.MapCurve.Length; m++)
+            w.AppendRow([Integer(m), Number(d.MapCurve[m]), Number(At(d.MapRevisedCurve, m))]);
+        return w.ToString();
+    }
+
+    /// <summary><c>item-factorability.csv</c>: item and its measure of sampling adequacy (MSA).</summary>
+    public static string Msa(IReadOnlyList<string> items, DimensionResult d)
+    {
+        var w = new SafeCsvWriter(["item", "msa"]);
+        for (int j = 0; j < items.Count; j++) w.AppendRow([Text(items[j]), Number(d.Msa[j], Decimals)]);
+        return w.ToString();
+    }
+
+    private static double At(double[]? a, int i) => a is not null && i < a.Length ? a[i] : double.NaN;
+}

@@ -1,0 +1,206 @@
+using System.Text.Json.Nodes;
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Dimensions;
+using ItemReduce.Core.Factoring;
+using ItemReduce.Core.Pipeline;
+using ItemReduce.Core.Screening;
+using ItemReduce.Core.ShortForm;
+using ItemReduce.IO.Jobs;
+using static ItemReduce.IO.JsonOut;
+
+namespace ItemReduce.IO.Outputs;
+
+/// <summary>Builds <c>summary.json</c>: every count, decision and rule of the run, in a fixed key order.</summary>
+public static class SummaryJson
+{
+    public static JsonObject Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
+    {
+        var prepared = r.Prepared;
+        var root = new JsonObject
+        {
+            ["tool"] = new JsonObject { ["name"] = "itemreduce", ["version"] = SurveyJob.Version },
+            ["scope"] = r.Settings.Scope.ToString().ToLowerInvariant(),
+            ["inputs"] = new JsonObject
+            {
+                ["responses"] = Path.GetFileName(settings.Responses),
+                ["responsesSha256"] = survey.ResponsesSha256,
+                ["codebook"] = Path.GetFileName(settings.Codebook),
+                ["codebookSha256"] = survey.CodebookSha256,
+                ["idColumn"] = survey.Intake.IdColumn,
+                ["missingCodes"] = Strs(settings.Intake.EffectiveMissingCodes),
+            },
+            ["options"] = new JsonObject(settings.EffectiveOptions.Select(kv => KeyValuePair.Create(kv.Key, (JsonNode?)JsonValue.Create(kv.Value)))),
+            ["seed"] = settings.Seed,
+            ["respondents"] = Respondents(r),
+            ["items"] = new JsonObject
+            {
+                ["total"] = prepared.Raw.ItemCount,
+                ["analysed"] = r.Analysed.ItemCount,
+                ["reverseKeyed"] = Strs(prepared.Raw.Items.Where(i => i.Reverse).Select(i => i.Name)),
+            },
+            ["excludedItems"] = new JsonArray(prepared.ExcludedItems.Concat(r.ExcludedAfterScreening).Select(Excluded).ToArray()),
+            ["missingShare"] = Num(prepared.RawSummary.MissingShare),
+        };
+        if (r.Screening is { } s) root["screening"] = Screening(s);
+        root["factors"] = Factors(r);
+        if (r.Dimensions is { } d)
+        {
+            root["correlation"] = new JsonObject
+            {
+                ["kind"] = d.CorrelationKind.ToString().ToLowerInvariant(),
+                ["missingData"] = r.Settings.Dimensions.MissingData.ToString().ToLowerInvariant(),
+                ["effectiveRespondents"] = d.EffectiveRespondents,
+                ["smoothed"] = d.SmoothingApplied,
+                ["smoothingMaxChange"] = Num(d.Smoothing.MaxAbsoluteChange),
+            };
+            root["eigenvalues"] = Nums(d.Eigenvalues);
+            root["parallelThresholds"] = Nums(d.ReferencePercentile);
+            root["parallelMeans"] = Nums(d.ReferenceMean);
+            root["parallelAnalysis"] = new JsonObject
+            {
+                ["reference"] = d.Reference.Kind.ToString().ToLowerInvariant(),
+                ["replicates"] = d.Reference.Replicates,
+                ["percentile"] = Num(d.Reference.PercentileLevel),
+            };
+            root["kmo"] = Num(d.Kmo);
+            root["msa"] = new JsonObject(r.Analysed.Items.Select((it, j) => KeyValuePair.Create(it.Name, Num(d.Msa[j]))));
+            root["bartlett"] = new JsonObject { ["chi2"] = Num(d.Bartlett.ChiSquare), ["df"] = d.Bartlett.DegreesOfFreedom, ["p"] = Num(d.Bartlett.P) };
+        }
+        if (r.ShortForm is { } sf) AddShortForm(root, r, sf);
+        var warnings = prepared.Warnings.Concat(r.Warnings)
+            .Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? []).Concat(r.ShortForm?.Warnings ?? []);
+        root["warnings"] = Strs(warnings);
+        return root;
+    }
+
+    private static JsonObject Respondents(PipelineResult r)
+    {
+        var o = new JsonObject
+        {
+            ["total"] = r.Prepared.Raw.RespondentCount,
+            ["flagged"] = r.Screening?.FlaggedRespondents ?? 0,
+            ["analysed"] = r.Analysed.RespondentCount,
+            ["keptFlagged"] = r.Settings.KeepFlagged,
+        };
+        if (r.Screening is { } s)
+            o["reasons"] = new JsonObject(s.ReasonCounts.Select(c => KeyValuePair.Create(c.Code, (JsonNode?)c.Count)));
+        return o;
+    }
+
+    private static JsonNode Excluded(ExcludedItem e) => new JsonObject
+    {
+        ["item"] = e.Item,
+        ["reason"] = e.Reason == ItemExclusionReason.AllMissing ? "all-missing" : "zero-variance",
+        ["detail"] = e.Detail,
+    };
+
+    private static JsonObject Screening(ScreeningResult s) => new()
+    {
+        ["distance"] = s.Options.UseRobust ? "robust" : "classical",
+        ["cutoffP"] = Num(s.Options.CutoffP),
+        ["rule"] = s.DistanceRule,
+        ["ruleDescription"] = s.RuleDescription,
+        ["reasonMeanings"] = new JsonObject(s.ReasonCounts.Select(c => KeyValuePair.Create(c.Code, (JsonNode?)c.Meaning))),
+        ["robustEstimator"] = new JsonObject
+        {
+            ["available"] = s.Robust.Available,
+            ["completeRows"] = s.Robust.CompleteRows,
+            ["subsampled"] = s.Robust.Subsampled,
+            ["rowsUsed"] = s.Robust.RowsUsed,
+            ["supportSize"] = s.Robust.SupportSize,
+            ["consistencyFactor"] = Num(s.Robust.ConsistencyFactor),
+            ["reweightingFactor"] = Num(s.Robust.ReweightingFactor),
+            ["nestedExtension"] = s.Robust.NestedExtension,
+            ["converged"] = s.Robust.Converged,
+            ["note"] = s.Robust.Note,
+        },
+    };
+
+    private static JsonObject Factors(PipelineResult r)
+    {
+        var o = new JsonObject { ["retained"] = r.FactorsUsed ?? r.Dimensions?.Retained };
+        if (r.Dimensions is { } d)
+        {
+            o["byRule"] = new JsonObject
+            {
+                ["parallel"] = d.ByRule.Parallel,
+                ["parallelReduced"] = d.ByRule.ParallelReduced,
+                ["map"] = d.ByRule.Map,
+                ["mapRevised"] = d.ByRule.MapRevised,
+                ["kaiser"] = d.ByRule.Kaiser,
+            };
+            o["indicated"] = d.Retained;
+            o["rule"] = RuleName(d.RuleUsed);
+            o["reason"] = d.Reason;
+        }
+        else if (r.Settings.Dimensions.FixedFactors is int k)
+        {
+            o["rule"] = "fixed";
+            o["reason"] = $"The number of factors was set to {k} in the settings.";
+        }
+        return o;
+    }
+
+    internal static string RuleName(RetentionRule rule) => rule switch
+    {
+        RetentionRule.Parallel => "parallel",
+        RetentionRule.Map => "map",
+        RetentionRule.Kaiser => "kaiser",
+        _ => "fixed",
+    };
+
+    private static void AddShortForm(JsonObject root, PipelineResult r, ShortFormResult sf)
+    {
+        var s = sf.FullSolution;
+        root["extraction"] = ExtractionName(s.Extraction);
+        root["rotation"] = s.Rotation.ToString().ToLowerInvariant();
+        root["solution"] = new JsonObject
+        {
+            ["factors"] = s.Pattern.GetLength(1),
+            ["factorLabels"] = Strs(s.FactorLabels),
+            ["converged"] = s.Converged,
+            ["iterations"] = s.Iterations,
+            ["varianceExplained"] = Nums(s.VarianceExplained),
+            ["heywoodItems"] = Strs(s.HeywoodItems.Select(j => r.Analysed.Items[j].Name)),
+        };
+        root["fit"] = s.Fit is { } f
+            ? new JsonObject { ["chi2"] = Num(f.ChiSquare), ["df"] = f.Df, ["p"] = Num(f.P), ["rmsea"] = Num(f.Rmsea), ["tli"] = Num(f.Tli) }
+            : null;
+        root["shortForm"] = new JsonObject
+        {
+            ["items"] = Strs(sf.SelectedIndices.Order().Select(j => r.Analysed.Items[j].Name)),
+            ["scales"] = new JsonArray(sf.Scales.Select(sc => (JsonNode?)new JsonObject
+            {
+                ["scale"] = sc.Scale,
+                ["factor"] = $"F{sc.HomeFactor + 1}",
+                ["target"] = sc.Target,
+                ["items"] = Strs(sc.SelectedItems),
+            }).ToArray()),
+            ["holdout"] = new JsonObject
+            {
+                ["fraction"] = Num(r.Settings.ShortForm.HoldoutFraction),
+                ["selectionRespondents"] = sf.SelectionRespondents,
+                ["holdoutRespondents"] = sf.HoldoutRespondents,
+            },
+            ["reliability"] = new JsonArray(sf.Reliability.Select(x => (JsonNode?)new JsonObject
+            {
+                ["scale"] = x.Scale,
+                ["form"] = x.FormLabel,
+                ["items"] = x.Items,
+                ["respondents"] = x.Respondents,
+                ["alpha"] = Num(x.Alpha),
+                ["alphaCi"] = Nums([x.AlphaCiLow, x.AlphaCiHigh]),
+                ["omega"] = Num(x.Omega),
+                ["shortFullR"] = Num(x.ShortFullCorrelation),
+            }).ToArray()),
+            ["caution"] = ShortFormBuilder.ValidationCaution,
+        };
+    }
+
+    internal static string ExtractionName(FactorExtraction e) => e switch
+    {
+        FactorExtraction.MinimumResidual => "minres",
+        FactorExtraction.PrincipalAxis => "paf",
+        _ => "ml",
+    };
+}
