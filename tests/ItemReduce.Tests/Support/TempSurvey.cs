@@ -5,7 +5,7 @@ using ItemReduce.Cli;
 namespace ItemReduce.Tests.Support;
 
 /// <summary>A throw-away folder holding a small responses file and codebook, and a way to run the CLI on it.</summary>
-internal sealed class TempSurvey : IDisposable
+public sealed class TempSurvey : IDisposable
 {
     public TempSurvey()
     {

@@ -1,0 +1,169 @@
+using System.Text.Json;
+using ItemReduce.Simulation;
+using ItemReduce.Tests.Support;
+using UglyToad.PdfPig;
+
+namespace ItemReduce.Tests.Cli;
+
+/// <summary>
+/// End-to-end checks of the output contracts (file names, columns, summary.json keys) and of known truth
+/// planted by the simulator (three factors; straight-line and random responders).
+/// </summary>
+public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce>
+{
+    public sealed class RunOnce : IDisposable
+    {
+        public RunOnce()
+        {
+            Truth = SimulatedFiles.ThreeFactorSurvey();
+            Survey = SimulatedFiles.Write(Truth);
+            Result = Survey.Run("--replicates", "200", "--seed", "5", "--holdout", "0.5", "--items-per-factor", "3");
+        }
+        public SimulatedSurvey Truth { get; }
+        public TempSurvey Survey { get; }
+        public (int Code, string Out, string Err) Result { get; }
+        public void Dispose() => Survey.Dispose();
+    }
+
+    private readonly RunOnce _run;
+    public PipelineContractTests(RunOnce run) => _run = run;
+
+    private string File(string name) => Path.Combine(_run.Survey.Out, name);
+    private string[] Lines(string name) => System.IO.File.ReadAllLines(File(name));
+    private JsonElement Summary => JsonDocument.Parse(System.IO.File.ReadAllText(File("summary.json"))).RootElement;
+
+    [Fact]
+    public void Run_succeeds_and_writes_every_contract_file()
+    {
+        Assert.True(_run.Result.Code == 0, _run.Result.Err);
+        foreach (string f in new[] { "summary.json", "respondent-flags.csv", "eigenvalues.csv", "loadings.csv", "structure-loadings.csv",
+                     "factor-correlations.csv", "item-decisions.csv", "reliability.csv", "short-form-codebook.csv", "appendix.pdf", "tables.md", "tables.tex" })
+            Assert.True(System.IO.File.Exists(File(f)), f);
+    }
+
+    [Fact]
+    public void Csv_headers_follow_the_contracts()
+    {
+        Assert.StartsWith("component,observed,reference_mean,reference_percentile,retained", Lines("eigenvalues.csv")[0]);
+        Assert.StartsWith("respondent,items_answered,d2,robust_d2,cutoff,p_value,long_string,irv,missing_share,flagged,reasons", Lines("respondent-flags.csv")[0]);
+        Assert.Equal("item,subscale,F1,F2,F3,communality,decision", Lines("loadings.csv")[0]);
+        Assert.StartsWith("item,subscale,decision,reasons,primary_factor,primary_loading,secondary_loading,item_total_r,alpha_if_deleted", Lines("item-decisions.csv")[0]);
+        Assert.StartsWith("scale,form,items,alpha,alpha_ci_low,alpha_ci_high,omega", Lines("reliability.csv")[0]);
+        Assert.Equal("item,subscale,reverse,min,max,text", Lines("short-form-codebook.csv")[0]);
+    }
+
+    [Fact]
+    public void Respondent_flags_are_in_input_order_with_one_row_each()
+    {
+        var ids = Lines("respondent-flags.csv").Skip(1).Select(l => l.Split(',')[0]).ToList();
+        Assert.Equal(_run.Truth.Responses.RespondentIds, ids);
+    }
+
+    [Fact]
+    public void Summary_json_has_the_contract_keys()
+    {
+        var s = Summary;
+        var resp = s.GetProperty("respondents");
+        Assert.Equal(500, resp.GetProperty("total").GetInt32());
+        Assert.Equal(resp.GetProperty("total").GetInt32() - resp.GetProperty("flagged").GetInt32(), resp.GetProperty("analysed").GetInt32());
+        var by = s.GetProperty("factors").GetProperty("byRule");
+        foreach (string rule in new[] { "parallel", "map", "mapRevised", "kaiser" }) Assert.Equal(JsonValueKind.Number, by.GetProperty(rule).ValueKind);
+        Assert.Equal(15, s.GetProperty("eigenvalues").GetArrayLength());
+        Assert.Equal(15, s.GetProperty("parallelThresholds").GetArrayLength());
+        Assert.InRange(s.GetProperty("kmo").GetDouble(), 0, 1);
+        Assert.Equal(105, s.GetProperty("bartlett").GetProperty("df").GetInt32()); // p(p−1)/2 for p = 15 (Bartlett 1950)
+        Assert.Equal("minres", s.GetProperty("extraction").GetString());
+        Assert.Equal("oblimin", s.GetProperty("rotation").GetString());
+        Assert.Equal(9, s.GetProperty("shortForm").GetProperty("items").GetArrayLength());
+    }
+
+    [Fact]
+    public void Planted_three_factor_structure_is_recovered()
+    {
+        // Known truth: FactorModelSpec.Simple(3 factors × 5 items, loading .7, factor correlation .3).
+        Assert.Equal(3, Summary.GetProperty("factors").GetProperty("retained").GetInt32());
+        Assert.Equal(3, Summary.GetProperty("factors").GetProperty("byRule").GetProperty("parallel").GetInt32());
+    }
+
+    [Fact]
+    public void Planted_careless_respondents_are_flagged()
+    {
+        var flags = Lines("respondent-flags.csv").Skip(1).Select(l => l.Split(',')).ToDictionary(c => c[0], c => c[9] == "true");
+        var careless = Enumerable.Range(0, 500).Where(i => _run.Truth.Careless[i] != CarelessKind.None).Select(i => _run.Truth.Responses.RespondentIds[i]).ToList();
+        int caught = careless.Count(id => flags[id]);
+        Assert.True(caught >= careless.Count - 2, $"{caught} of {careless.Count} planted careless respondents flagged");
+        int attentiveFlagged = flags.Count(kv => kv.Value) - caught;
+        Assert.True(attentiveFlagged < 0.05 * 488, $"{attentiveFlagged} attentive respondents flagged");
+    }
+
+    [Fact]
+    public void Short_form_codebook_is_a_valid_codebook_for_the_same_responses()
+    {
+        var r = TempSurvey.Cli("check", "--responses", _run.Survey.Responses, "--codebook", File("short-form-codebook.csv"));
+        Assert.True(r.Code == 0, r.Err);
+        Assert.Contains("9 in codebook", r.Out);
+    }
+
+    [Fact]
+    public void Reliability_has_full_short_and_holdout_rows()
+    {
+        var forms = Lines("reliability.csv").Skip(1).Select(l => l.Split(',')[1]).Distinct().ToHashSet();
+        Assert.Contains("full", forms);
+        Assert.Contains("short", forms);
+        Assert.Contains(forms, f => f.Contains("holdout"));
+    }
+
+    [Fact]
+    public void Appendix_pdf_has_every_section_and_the_cautions()
+    {
+        using var pdf = PdfDocument.Open(File("appendix.pdf"));
+        string text = string.Join("\n", pdf.GetPages().Select(p => p.Text));
+        foreach (string h in new[] { "Data and reproducibility", "Respondent screening", "Factorability", "Number of dimensions",
+                     "Factor solution", "Reliability and short form", "Cautions and limitations", "References" })
+            Assert.Contains(h, text);
+        Assert.Contains("validated in a new", text);
+        Assert.Contains("not automatic exclusion", text);
+        Assert.Contains("Horn, J. L. (1965)", text);
+    }
+
+    [Fact]
+    public void Markdown_and_latex_tables_are_written()
+    {
+        string md = System.IO.File.ReadAllText(File("tables.md"));
+        Assert.Contains("Table 1", md);
+        Assert.Contains("|", md);
+        string tex = System.IO.File.ReadAllText(File("tables.tex"));
+        Assert.Contains("\\begin{tabular}", tex);
+    }
+
+    [Fact]
+    public void Stage_commands_write_their_own_outputs()
+    {
+        var s = _run.Survey;
+        string outDir = Path.Combine(s.Folder, "stage-dims");
+        var r = TempSurvey.Cli("dimensions", "--responses", s.Responses, "--codebook", s.Codebook, "--out", outDir, "--replicates", "100");
+        Assert.True(r.Code == 0, r.Err);
+        Assert.True(System.IO.File.Exists(Path.Combine(outDir, "eigenvalues.csv")));
+        Assert.False(System.IO.File.Exists(Path.Combine(outDir, "respondent-flags.csv")));
+        string screenDir = Path.Combine(s.Folder, "stage-screen");
+        r = TempSurvey.Cli("screen", "--responses", s.Responses, "--codebook", s.Codebook, "--out", screenDir);
+        Assert.True(r.Code == 0, r.Err);
+        Assert.True(System.IO.File.Exists(Path.Combine(screenDir, "respondent-flags.csv")));
+        Assert.False(System.IO.File.Exists(Path.Combine(screenDir, "eigenvalues.csv")));
+        string shortDir = Path.Combine(s.Folder, "stage-short");
+        r = TempSurvey.Cli("shorten", "--responses", s.Responses, "--codebook", s.Codebook, "--out", shortDir, "--factors", "3", "--rotation", "varimax");
+        Assert.True(r.Code == 0, r.Err);
+        Assert.True(System.IO.File.Exists(Path.Combine(shortDir, "loadings.csv")));
+        Assert.False(System.IO.File.Exists(Path.Combine(shortDir, "structure-loadings.csv"))); // orthogonal rotation
+    }
+
+    [Fact]
+    public void Bad_option_value_is_exit_2_naming_the_option()
+    {
+        var s = _run.Survey;
+        var r = TempSurvey.Cli("run", "--responses", s.Responses, "--codebook", s.Codebook, "--out", Path.Combine(s.Folder, "x"), "--rotation", "sideways");
+        Assert.Equal(2, r.Code);
+        Assert.Contains("--rotation", r.Err);
+        Assert.Contains("oblimin", r.Err);
+    }
+}
