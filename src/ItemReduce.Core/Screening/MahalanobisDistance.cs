@@ -57,23 +57,25 @@ internal sealed class MahalanobisDistance
             var diff = new double[_p];
             int end = Math.Min(n, (b + 1) * block);
             for (int i = b * block; i < end; i++)
-                d2[i] = Row(new ReadOnlySpan<double>(v, i * _p, _p), diff, work, out answered[i]);
+                d2[i] = Row(v, i * _p, diff, work, out answered[i]);
         });
         return (d2, answered);
     }
 
-    /// <summary>D² of one row (NaN = missing).</summary>
-    public double Row(ReadOnlySpan<double> x, Span<double> diff, Span<double> work, out int answered)
+    /// <summary>D² of the row starting at <paramref name="offset"/> of <paramref name="v"/> (NaN = missing);
+    /// <paramref name="diff"/> and <paramref name="work"/> are scratch arrays of length p.</summary>
+    public double Row(double[] v, int offset, double[] diff, double[] work, out int answered)
     {
         answered = 0;
-        for (int j = 0; j < _p; j++) if (!double.IsNaN(x[j])) answered++;
+        for (int j = 0; j < _p; j++) if (!double.IsNaN(v[offset + j])) answered++;
         if (answered == 0) return double.NaN;
         if (answered == _p)
         {
             if (_full is null) return double.NaN;
-            for (int j = 0; j < _p; j++) diff[j] = x[j] - _location[j];
+            for (int j = 0; j < _p; j++) diff[j] = v[offset + j] - _location[j];
             return _full.QuadraticForm(diff, work);
         }
+        var x = new ReadOnlySpan<double>(v, offset, _p);
         string key = PatternKey(x);
         if (!_cache.TryGetValue(key, out var factor))
         {
@@ -82,8 +84,8 @@ internal sealed class MahalanobisDistance
         }
         if (factor is null) return double.NaN;
         var idx = factor.Answered;
-        for (int t = 0; t < idx.Length; t++) diff[t] = x[idx[t]] - _location[idx[t]];
-        return factor.Factor.QuadraticForm(diff[..idx.Length], work);
+        for (int t = 0; t < idx.Length; t++) diff[t] = v[offset + idx[t]] - _location[idx[t]];
+        return factor.Factor.QuadraticForm(diff, work);
     }
 
     private PatternFactor? FactorPattern(ReadOnlySpan<double> x)

@@ -99,7 +99,7 @@ public static class RespondentScreening
         double robustP = answered > 0 ? ChiSquareTail.UpperTail(robustD2, answered) : double.NaN;
         int longString = LongString.Compute(rawRow);
         double irv = IntraIndividualResponseVariability.Compute(rawRow);
-        double eo = evenOdd.Compute(x);
+        double eo = evenOdd.Compute(x, out int eoSubscales);
         double missing = (p - answered) / (double)p;
 
         var reasons = new List<string>(2);
@@ -107,7 +107,7 @@ public static class RespondentScreening
         if (!useRobust && d2 > cutoff) reasons.Add(ScreeningReasons.ClassicalDistance);
         if (longString >= runLimit) reasons.Add(ScreeningReasons.RepeatedAnswerRun);
         if (irv < o.FlatVariabilityLimit) reasons.Add(ScreeningReasons.FlatProfile);
-        if (eo < o.EvenOddMinimum) reasons.Add(ScreeningReasons.HalvesDisagree);
+        if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons.Add(ScreeningReasons.HalvesDisagree);
         if (missing > o.MissingShareLimit) reasons.Add(ScreeningReasons.MostlyUnanswered);
         return new RespondentScreeningRow(id, answered, d2, robustD2, cutoff, pValue, robustP, longString, irv, eo, missing,
             reasons.Count > 0, reasons);
@@ -195,7 +195,8 @@ public static class RespondentScreening
         if (o.FlatVariabilityLimit > 0)
             parts.Add(string.Format(c, "(3) The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit));
         if (evenOdd)
-            parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between odd- and even-numbered halves of the subscales is below {0}.", o.EvenOddMinimum));
+            parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between the odd- and even-numbered halves of the subscales is below {0}, " +
+                "judged only when it rests on at least {1} subscales.", o.EvenOddMinimum, o.EvenOddFlagSubscales));
         parts.Add(string.Format(c, "(5) More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit));
         parts.Add("Even with no careless respondents, about " + o.CutoffP.ToString(c) + " of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
                   "Flags are for human review, not automatic deletion: inspect each flagged respondent, report how many were set aside and why, " +
