@@ -7,7 +7,9 @@ namespace ItemReduce.Core.Screening;
 /// generalised distance in statistics", Proceedings of the National Institute of Sciences of India 2(1), 49–55),
 /// for respondents who may have skipped items: D² uses only the items respondent i answered, with the matching
 /// sub-vector of μ and sub-matrix of Σ, so under multivariate normality it follows χ² with
-/// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached.
+/// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached, up to
+/// <see cref="CacheBudgetDoubles"/> stored factor entries (about 256 MB); patterns met after the budget is spent are
+/// factorised for each respondent without being stored, so memory stays bounded when nearly every row is unique.
 /// A respondent with no answers gets NaN; so does one whose sub-matrix cannot be factorised.
 /// </summary>
 internal sealed class MahalanobisDistance
@@ -19,6 +21,11 @@ internal sealed class MahalanobisDistance
     private readonly ConcurrentDictionary<string, PatternFactor?> _cache = new(StringComparer.Ordinal);
 
     private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
+
+    /// <summary>Most factor entries (doubles) kept in the pattern cache.</summary>
+    internal const long CacheBudgetDoubles = 32L << 20;
+
+    private long _cachedDoubles;
 
     /// <param name="location">μ, length p.</param>
     /// <param name="scatter">Σ, p × p symmetric.</param>
@@ -80,7 +87,9 @@ internal sealed class MahalanobisDistance
         if (!_cache.TryGetValue(key, out var factor))
         {
             factor = FactorPattern(x);
-            factor = _cache.GetOrAdd(key, factor);
+            long size = (long)answered * answered;
+            if (Interlocked.Read(ref _cachedDoubles) + size <= CacheBudgetDoubles && _cache.TryAdd(key, factor))
+                Interlocked.Add(ref _cachedDoubles, size);
         }
         if (factor is null) return double.NaN;
         var idx = factor.Answered;

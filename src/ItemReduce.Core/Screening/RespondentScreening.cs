@@ -79,13 +79,17 @@ public static class RespondentScreening
         for (int i = 0; i < n; i++) if (answered[i] > 0 && double.IsNaN(d2[i])) nanDistance++;
         if (nanDistance > 0)
             warnings.Add($"{nanDistance} respondent(s) got no classical distance because the covariance sub-matrix of their answered items could not be factorised.");
+        int nanRobust = 0;
+        for (int i = 0; i < n; i++) if (robust.Available && answered[i] > 0 && double.IsNaN(robustD2[i])) nanRobust++;
+        if (nanRobust > 0)
+            warnings.Add($"{nanRobust} respondent(s) got no robust distance because the robust scatter sub-matrix of their answered items could not be factorised.");
         int noAnswers = answered.Count(a => a == 0);
         if (noAnswers > 0) warnings.Add($"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
 
         var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
             rows.Count(r => r.Reasons.Contains(code)))).ToList();
         int flagged = rows.Count(r => r.Flagged);
-        string rule = Describe(options, useRobust, runLimit, p, evenOdd.Applicable);
+        string rule = Describe(options, useRobust, runLimit, p, evenOdd);
         var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options);
     }
@@ -181,7 +185,7 @@ public static class RespondentScreening
         _ => code,
     };
 
-    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int p, bool evenOdd)
+    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int p, EvenOddConsistency evenOdd)
     {
         var c = CultureInfo.InvariantCulture;
         var parts = new List<string>
@@ -194,11 +198,14 @@ public static class RespondentScreening
         };
         if (o.FlatVariabilityLimit > 0)
             parts.Add(string.Format(c, "(3) The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit));
-        if (evenOdd)
+        if (evenOdd.SplittableSubscales >= o.EvenOddFlagSubscales)
             parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between the odd- and even-numbered halves of the subscales is below {0}, " +
                 "judged only when it rests on at least {1} subscales.", o.EvenOddMinimum, o.EvenOddFlagSubscales));
+        else if (evenOdd.Applicable)
+            parts.Add(string.Format(c, "Even-odd consistency is reported but raises no flag: with {0} subscales it is too noisy (at least {1} are required).",
+                evenOdd.SplittableSubscales, o.EvenOddFlagSubscales));
         parts.Add(string.Format(c, "(5) More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit));
-        parts.Add("Even with no careless respondents, about " + o.CutoffP.ToString(c) + " of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
+        parts.Add("Even with no careless respondents, about " + (100 * o.CutoffP).ToString("0.###", c) + " % of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
                   "Flags are for human review, not automatic deletion: inspect each flagged respondent, report how many were set aside and why, " +
                   "and follow your ethics board and professional standards.");
         return string.Join(" ", parts);

@@ -80,6 +80,23 @@ public class FastMcdTests
     }
 
     [Fact]
+    public void Reweighting_factor_matches_numerical_integration_in_scipy()
+    {
+        // Expected: p · 0.975 / ∫₀^q x f_χ²p(x) dx with q = χ²_p(0.975), by scipy.integrate.quad
+        // (reweighting_factor_reference.py) — an independent check of the closed form 0.975 / F_χ²(p+2)(q).
+        var (_, rows) = ScreeningFixtures.Read("reweighting_factor.csv");
+        foreach (var r in rows)
+        {
+            int p = (int)r[0];
+            double q = ChiSquareTail.UpperQuantile(0.025, p);
+            Assert.Equal(r[1], 0.975 / ChiSquareTail.Cdf(q, p + 2), 1e-9);
+        }
+        var (x, n, pp, _) = Load("mcd_small.csv");
+        var fit = FastMcd.Fit(x, n, pp, new FastMcdSettings(Seed: 1));
+        Assert.Equal(rows.Single(r => r[0] == pp)[1], fit.ReweightingFactor, 1e-9);
+    }
+
+    [Fact]
     public void More_than_h_identical_rows_are_an_exact_fit()
     {
         // 60 of 100 rows identical: any h-subset (h = 52) can be chosen inside them, det = 0.
