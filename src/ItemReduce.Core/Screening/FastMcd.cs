@@ -56,7 +56,7 @@ internal sealed record FastMcdEstimate(
 /// robust scatter is singular (the "exact fit" situation of the paper, Section 3). Typical for ordinal data in
 /// which more than half the respondents give the same answer to some item.
 /// </summary>
-public sealed class FastMcdExactFitException(string message) : Exception(message);
+internal sealed class FastMcdExactFitException(string message) : Exception(message);
 
 /// <summary>
 /// FAST-MCD: the minimum covariance determinant estimator of location and scatter computed with the algorithm of

@@ -9,6 +9,14 @@ namespace ItemReduce.Core.Screening;
 /// compared with χ² cutoffs whose degrees of freedom equal the items answered, plus careless-response indices
 /// (long-string, IRV, even-odd consistency, share missing). The result is a list of respondents to look at;
 /// flags are for human review, not for automatic deletion.
+/// <para>Missing answers: the classical distance uses item means over the answered values and the pairwise-complete
+/// covariance (see <see cref="PairwiseCovariance"/>; repaired to be positive definite when it is not, with a warning).
+/// FAST-MCD is fitted to the respondents who answered every item (a seeded random subsample when there are more than
+/// <see cref="ScreeningOptions.RobustMaxRows"/>); every respondent's robust distance then uses the sub-vector and
+/// sub-matrix of the robust location and scatter for the items he or she answered. Both distances therefore have
+/// df = items answered. With too few complete respondents (fewer than 2 (p + 1)) or an exact fit, robust distances
+/// are NaN and the classical distance drives the distance flags, with a warning. A respondent who answered nothing
+/// has NaN distances and is flagged as mostly unanswered.</para>
 /// </summary>
 public static class RespondentScreening
 {
@@ -28,6 +36,7 @@ public static class RespondentScreening
         options.Validate();
         int n = data.RespondentCount, p = data.ItemCount;
         if (p < 1) throw new ArgumentException("Screening needs at least 1 item; got 0.", nameof(data));
+        if (n < 2) throw new ArgumentException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new List<string>();

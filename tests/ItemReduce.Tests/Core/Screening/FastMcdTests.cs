@@ -48,7 +48,7 @@ public class FastMcdTests
     }
 
     [Fact]
-    public void Planted_outliers_mask_the_classical_but_not_the_robust_distance()
+    public void Planted_outliers_lie_far_out_on_the_robust_scale_and_clean_rows_are_chi_square_calibrated()
     {
         // Known truth from mcd_reference.py: 90 planted outliers (3 %) in the large set; the planted block
         // should sit far out on the robust scale and have no influence on the robust location.

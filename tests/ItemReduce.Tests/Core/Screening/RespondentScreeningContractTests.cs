@@ -102,6 +102,25 @@ public class RespondentScreeningContractTests
         Assert.True(r.Robust.Available); // still reported
     }
 
+    [Fact]
+    public void Degenerate_inputs_do_not_crash()
+    {
+        // Respondents 2 and 4 answered nothing; item 3 is answered by one respondent only (no pairwise covariance).
+        double n = double.NaN;
+        var rows = new[]
+        {
+            new[] { 1.0, 2, n }, [n, n, n], [2.0, 2, n], [n, n, n], [3.0, 1, 4], [4.0, 5, n], [2.0, 4, n],
+        };
+        var r = RespondentScreening.Run(MahalanobisDistanceTests.Matrix(rows, 3), new ScreeningOptions());
+        Assert.Equal(7, r.TotalRespondents);
+        Assert.True(double.IsNaN(r.Respondents[1].D2) && double.IsNaN(r.Respondents[3].D2));
+        Assert.Equal([ScreeningReasons.MostlyUnanswered], r.Respondents[1].Reasons);
+        Assert.False(double.IsNaN(r.Respondents[0].D2));
+        Assert.False(r.Robust.Available);
+        Assert.Contains(r.Warnings, w => w.Contains("fewer than 2 respondents answering both"));
+        Assert.Throws<ArgumentException>(() => RespondentScreening.Run(MahalanobisDistanceTests.Matrix([[1.0, 2]], 2), new ScreeningOptions()));
+    }
+
     [Theory]
     [InlineData(nameof(ScreeningOptions.CutoffP))]
     [InlineData(nameof(ScreeningOptions.RobustMaxRows))]
