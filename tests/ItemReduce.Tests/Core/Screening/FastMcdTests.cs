@@ -64,6 +64,26 @@ public class FastMcdTests
     }
 
     [Fact]
+    public void Classical_distances_are_masked_by_a_planted_cluster_where_robust_ones_are_not()
+    {
+        // Known truth (mcd_reference.py): 20 of 400 rows (5 %) form a tight cluster against the correlation
+        // structure. Such a cluster pulls the sample mean and inflates the sample covariance in its own direction
+        // (masking, Rousseeuw & Van Driessen 1999, Section 1), so few of its rows pass the classical cutoff, while
+        // robust distances (ours and sklearn's, previous test) find all of them.
+        var (x, n, p, rows) = Load("mcd_small.csv");
+        var all = Enumerable.Range(0, n).ToArray();
+        var (mean, flat) = RowMoments.MeanCovariance(x, p, all, n - 1);
+        var cov = new double[p, p];
+        for (int j = 0; j < p; j++) for (int k = 0; k < p; k++) cov[j, k] = flat[j * p + k];
+        var classical = new MahalanobisDistance(mean, cov).Compute(x, n).D2;
+        var robust = RobustD2(x, n, p, FastMcd.Fit(x, n, p, new FastMcdSettings(Seed: 2)));
+        double cut = ChiSquareTail.UpperQuantile(0.001, p);
+        var planted = all.Where(i => rows[i][p] == 1).ToArray();
+        Assert.True(planted.Count(i => classical[i] > cut) < planted.Length / 2);
+        Assert.Equal(planted.Length, planted.Count(i => robust[i] > cut));
+    }
+
+    [Fact]
     public void Same_seed_gives_identical_fits_and_affine_rescaling_leaves_distances_unchanged()
     {
         var (x, n, p, _) = Load("mcd_small.csv");
