@@ -44,8 +44,12 @@ internal sealed class EvenOddConsistency
     public bool Applicable => SplittableSubscales >= _minSubscales;
 
     /// <summary>The Spearman–Brown corrected even-odd coefficient of one respondent, or NaN.</summary>
-    public double Compute(ReadOnlySpan<double> answers)
+    public double Compute(ReadOnlySpan<double> answers) => Compute(answers, out _);
+
+    /// <summary>The coefficient and the number of subscales it rests on (both halves answered).</summary>
+    public double Compute(ReadOnlySpan<double> answers, out int usedSubscales)
     {
+        usedSubscales = 0;
         if (!Applicable) return double.NaN;
         Span<double> odd = _odd.Length <= 128 ? stackalloc double[_odd.Length] : new double[_odd.Length];
         Span<double> even = _odd.Length <= 128 ? stackalloc double[_odd.Length] : new double[_odd.Length];
@@ -56,6 +60,7 @@ internal sealed class EvenOddConsistency
             if (double.IsNaN(a) || double.IsNaN(b)) continue;
             odd[m] = a; even[m] = b; m++;
         }
+        usedSubscales = m;
         if (m < _minSubscales) return double.NaN;
         double r = Pearson(odd[..m], even[..m]);
         if (double.IsNaN(r)) return double.NaN;

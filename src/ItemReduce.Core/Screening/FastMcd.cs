@@ -56,7 +56,7 @@ internal sealed record FastMcdEstimate(
 /// robust scatter is singular (the "exact fit" situation of the paper, Section 3). Typical for ordinal data in
 /// which more than half the respondents give the same answer to some item.
 /// </summary>
-public sealed class FastMcdExactFitException(string message) : Exception(message);
+internal sealed class FastMcdExactFitException(string message) : Exception(message);
 
 /// <summary>
 /// FAST-MCD: the minimum covariance determinant estimator of location and scatter computed with the algorithm of
@@ -66,7 +66,7 @@ public sealed class FastMcdExactFitException(string message) : Exception(message
 /// C-steps (Theorem 1: the determinant never increases); two C-steps per start, keep the 10 best, iterate them to
 /// convergence (selective iteration); for n &gt; 2 × 300 the nested extension (Section 3.3): up to 5 disjoint random
 /// subsets of 300 rows, their union as the merged set (≤ 1,500 rows), the 10 best per subset refined on the merged
-/// set, the 10 best of those refined on the full data. Then the consistency factor median(D²) / χ²_p(0.5)
+/// set, the 10 best of those given two C-steps on the full data and the best of them iterated to convergence. Then the consistency factor median(D²) / χ²_p(0.5)
 /// (the small-sample correction factor of Pison, Van Aelst &amp; Willems, 2002, is NOT applied) and one-step
 /// reweighting with weights 1{D² ≤ χ²_p(0.975)}; the reweighted covariance is scaled by the normal-theory factor
 /// 0.975 / F_χ²(p+2)(χ²_p(0.975)) (Croux, C., &amp; Haesbroeck, G., 1999, "Influence function and efficiency of
@@ -115,7 +115,7 @@ internal static class FastMcd
         {
             trials = settings.InitialSubsets;
             var starts = Starts(x, p, all, h, trials, 0, settings.Seed);
-            best = Refine(x, p, all, h, KeepBest(starts, settings.BestPerStage), settings.MaxCSteps, ref converged);
+            best = Refine(x, p, all, h, KeepBest(starts, settings.BestPerStage), settings.MaxCSteps, true, ref converged);
         }
         else
         {
@@ -167,7 +167,7 @@ internal static class FastMcd
         int hMerged = Math.Clamp((int)Math.Ceiling(merged * (double)h / n), p + 1, merged);
         var onMerged = pooled.Select(c => CSteps(x, p, mergedRows, hMerged, c, 2)).ToList();
         var bestMerged = KeepBest(onMerged, s.BestPerStage);
-        var best = Refine(x, p, all, h, bestMerged, s.MaxCSteps, ref converged);
+        var best = Refine(x, p, all, h, bestMerged, s.MaxCSteps, merged == n, ref converged);
         return (best, k, merged, perSubset * k);
     }
 
@@ -212,16 +212,25 @@ internal static class FastMcd
     }
 
     /// <summary>
-    /// Selective iteration on <paramref name="rows"/>: every candidate is iterated with C-steps until the determinant
-    /// stops decreasing (Theorem 1) or the support repeats; the one with the lowest determinant wins.
+    /// Selective iteration on <paramref name="rows"/>. With <paramref name="iterateAll"/> every candidate is iterated
+    /// with C-steps until the determinant stops decreasing (Theorem 1) or the support repeats, and the lowest
+    /// determinant wins (paper, small n). Otherwise (full data after the nested stages, where one C-step costs a pass
+    /// over all rows) each candidate gets two C-steps and only the best is iterated to convergence.
     /// </summary>
-    private static Candidate Refine(double[] x, int p, int[] rows, int h, List<Candidate> candidates, int maxSteps, ref bool converged)
+    private static Candidate Refine(double[] x, int p, int[] rows, int h, List<Candidate> candidates, int maxSteps, bool iterateAll, ref bool converged)
     {
         var done = new Candidate[candidates.Count];
         var ok = new bool[candidates.Count];
-        ParallelFor(candidates.Count, i => (done[i], ok[i]) = Converge(x, p, rows, h, candidates[i], maxSteps));
-        if (ok.Contains(false)) converged = false;
-        return KeepBest(done.ToList(), 1)[0];
+        if (iterateAll)
+        {
+            ParallelFor(candidates.Count, i => (done[i], ok[i]) = Converge(x, p, rows, h, candidates[i], maxSteps));
+            if (ok.Contains(false)) converged = false;
+            return KeepBest(done.ToList(), 1)[0];
+        }
+        ParallelFor(candidates.Count, i => done[i] = CSteps(x, p, rows, h, candidates[i], 2));
+        var (best, fine) = Converge(x, p, rows, h, KeepBest(done.ToList(), 1)[0], maxSteps);
+        if (!fine) converged = false;
+        return best;
     }
 
     private static (Candidate Best, bool Converged) Converge(double[] x, int p, int[] rows, int h, Candidate c, int maxSteps)
@@ -273,11 +282,13 @@ internal static class FastMcd
         var d = new double[rows.Length];
         var diff = new double[p];
         var work = new double[p];
+        var mean = c.Mean;
+        var factor = c.Factor;
         for (int i = 0; i < rows.Length; i++)
         {
             int o = rows[i] * p;
-            for (int j = 0; j < p; j++) diff[j] = x[o + j] - c.Mean[j];
-            d[i] = c.Factor.QuadraticForm(diff, work);
+            for (int j = 0; j < p; j++) diff[j] = x[o + j] - mean[j];
+            d[i] = factor.QuadraticForm(diff, work);
         }
         return d;
     }

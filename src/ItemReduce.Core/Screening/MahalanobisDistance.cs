@@ -7,7 +7,9 @@ namespace ItemReduce.Core.Screening;
 /// generalised distance in statistics", Proceedings of the National Institute of Sciences of India 2(1), 49–55),
 /// for respondents who may have skipped items: D² uses only the items respondent i answered, with the matching
 /// sub-vector of μ and sub-matrix of Σ, so under multivariate normality it follows χ² with
-/// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached.
+/// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached, up to
+/// <see cref="CacheBudgetDoubles"/> stored factor entries (about 256 MB); patterns met after the budget is spent are
+/// factorised for each respondent without being stored, so memory stays bounded when nearly every row is unique.
 /// A respondent with no answers gets NaN; so does one whose sub-matrix cannot be factorised.
 /// </summary>
 internal sealed class MahalanobisDistance
@@ -19,6 +21,11 @@ internal sealed class MahalanobisDistance
     private readonly ConcurrentDictionary<string, PatternFactor?> _cache = new(StringComparer.Ordinal);
 
     private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
+
+    /// <summary>Most factor entries (doubles) kept in the pattern cache.</summary>
+    internal const long CacheBudgetDoubles = 32L << 20;
+
+    private long _cachedDoubles;
 
     /// <param name="location">μ, length p.</param>
     /// <param name="scatter">Σ, p × p symmetric.</param>
@@ -57,33 +64,37 @@ internal sealed class MahalanobisDistance
             var diff = new double[_p];
             int end = Math.Min(n, (b + 1) * block);
             for (int i = b * block; i < end; i++)
-                d2[i] = Row(new ReadOnlySpan<double>(v, i * _p, _p), diff, work, out answered[i]);
+                d2[i] = Row(v, i * _p, diff, work, out answered[i]);
         });
         return (d2, answered);
     }
 
-    /// <summary>D² of one row (NaN = missing).</summary>
-    public double Row(ReadOnlySpan<double> x, Span<double> diff, Span<double> work, out int answered)
+    /// <summary>D² of the row starting at <paramref name="offset"/> of <paramref name="v"/> (NaN = missing);
+    /// <paramref name="diff"/> and <paramref name="work"/> are scratch arrays of length p.</summary>
+    public double Row(double[] v, int offset, double[] diff, double[] work, out int answered)
     {
         answered = 0;
-        for (int j = 0; j < _p; j++) if (!double.IsNaN(x[j])) answered++;
+        for (int j = 0; j < _p; j++) if (!double.IsNaN(v[offset + j])) answered++;
         if (answered == 0) return double.NaN;
         if (answered == _p)
         {
             if (_full is null) return double.NaN;
-            for (int j = 0; j < _p; j++) diff[j] = x[j] - _location[j];
+            for (int j = 0; j < _p; j++) diff[j] = v[offset + j] - _location[j];
             return _full.QuadraticForm(diff, work);
         }
+        var x = new ReadOnlySpan<double>(v, offset, _p);
         string key = PatternKey(x);
         if (!_cache.TryGetValue(key, out var factor))
         {
             factor = FactorPattern(x);
-            factor = _cache.GetOrAdd(key, factor);
+            long size = (long)answered * answered;
+            if (Interlocked.Read(ref _cachedDoubles) + size <= CacheBudgetDoubles && _cache.TryAdd(key, factor))
+                Interlocked.Add(ref _cachedDoubles, size);
         }
         if (factor is null) return double.NaN;
         var idx = factor.Answered;
-        for (int t = 0; t < idx.Length; t++) diff[t] = x[idx[t]] - _location[idx[t]];
-        return factor.Factor.QuadraticForm(diff[..idx.Length], work);
+        for (int t = 0; t < idx.Length; t++) diff[t] = v[offset + idx[t]] - _location[idx[t]];
+        return factor.Factor.QuadraticForm(diff, work);
     }
 
     private PatternFactor? FactorPattern(ReadOnlySpan<double> x)

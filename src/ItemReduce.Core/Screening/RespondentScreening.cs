@@ -9,6 +9,14 @@ namespace ItemReduce.Core.Screening;
 /// compared with χ² cutoffs whose degrees of freedom equal the items answered, plus careless-response indices
 /// (long-string, IRV, even-odd consistency, share missing). The result is a list of respondents to look at;
 /// flags are for human review, not for automatic deletion.
+/// <para>Missing answers: the classical distance uses item means over the answered values and the pairwise-complete
+/// covariance (see <see cref="PairwiseCovariance"/>; repaired to be positive definite when it is not, with a warning).
+/// FAST-MCD is fitted to the respondents who answered every item (a seeded random subsample when there are more than
+/// <see cref="ScreeningOptions.RobustMaxRows"/>); every respondent's robust distance then uses the sub-vector and
+/// sub-matrix of the robust location and scatter for the items he or she answered. Both distances therefore have
+/// df = items answered. With too few complete respondents (fewer than 2 (p + 1)) or an exact fit, robust distances
+/// are NaN and the classical distance drives the distance flags, with a warning. A respondent who answered nothing
+/// has NaN distances and is flagged as mostly unanswered.</para>
 /// </summary>
 public static class RespondentScreening
 {
@@ -28,6 +36,7 @@ public static class RespondentScreening
         options.Validate();
         int n = data.RespondentCount, p = data.ItemCount;
         if (p < 1) throw new ArgumentException("Screening needs at least 1 item; got 0.", nameof(data));
+        if (n < 2) throw new ArgumentException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new List<string>();
@@ -79,13 +88,17 @@ public static class RespondentScreening
         for (int i = 0; i < n; i++) if (answered[i] > 0 && double.IsNaN(d2[i])) nanDistance++;
         if (nanDistance > 0)
             warnings.Add($"{nanDistance} respondent(s) got no classical distance because the covariance sub-matrix of their answered items could not be factorised.");
+        int nanRobust = 0;
+        for (int i = 0; i < n; i++) if (robust.Available && answered[i] > 0 && double.IsNaN(robustD2[i])) nanRobust++;
+        if (nanRobust > 0)
+            warnings.Add($"{nanRobust} respondent(s) got no robust distance because the robust scatter sub-matrix of their answered items could not be factorised.");
         int noAnswers = answered.Count(a => a == 0);
         if (noAnswers > 0) warnings.Add($"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
 
         var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
             rows.Count(r => r.Reasons.Contains(code)))).ToList();
         int flagged = rows.Count(r => r.Flagged);
-        string rule = Describe(options, useRobust, runLimit, p, evenOdd.Applicable);
+        string rule = Describe(options, useRobust, runLimit, p, evenOdd);
         var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options);
     }
@@ -99,7 +112,7 @@ public static class RespondentScreening
         double robustP = answered > 0 ? ChiSquareTail.UpperTail(robustD2, answered) : double.NaN;
         int longString = LongString.Compute(rawRow);
         double irv = IntraIndividualResponseVariability.Compute(rawRow);
-        double eo = evenOdd.Compute(x);
+        double eo = evenOdd.Compute(x, out int eoSubscales);
         double missing = (p - answered) / (double)p;
 
         var reasons = new List<string>(2);
@@ -107,7 +120,7 @@ public static class RespondentScreening
         if (!useRobust && d2 > cutoff) reasons.Add(ScreeningReasons.ClassicalDistance);
         if (longString >= runLimit) reasons.Add(ScreeningReasons.RepeatedAnswerRun);
         if (irv < o.FlatVariabilityLimit) reasons.Add(ScreeningReasons.FlatProfile);
-        if (eo < o.EvenOddMinimum) reasons.Add(ScreeningReasons.HalvesDisagree);
+        if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons.Add(ScreeningReasons.HalvesDisagree);
         if (missing > o.MissingShareLimit) reasons.Add(ScreeningReasons.MostlyUnanswered);
         return new RespondentScreeningRow(id, answered, d2, robustD2, cutoff, pValue, robustP, longString, irv, eo, missing,
             reasons.Count > 0, reasons);
@@ -181,7 +194,7 @@ public static class RespondentScreening
         _ => code,
     };
 
-    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int p, bool evenOdd)
+    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int p, EvenOddConsistency evenOdd)
     {
         var c = CultureInfo.InvariantCulture;
         var parts = new List<string>
@@ -194,10 +207,14 @@ public static class RespondentScreening
         };
         if (o.FlatVariabilityLimit > 0)
             parts.Add(string.Format(c, "(3) The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit));
-        if (evenOdd)
-            parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between odd- and even-numbered halves of the subscales is below {0}.", o.EvenOddMinimum));
+        if (evenOdd.SplittableSubscales >= o.EvenOddFlagSubscales)
+            parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between the odd- and even-numbered halves of the subscales is below {0}, " +
+                "judged only when it rests on at least {1} subscales.", o.EvenOddMinimum, o.EvenOddFlagSubscales));
+        else if (evenOdd.Applicable)
+            parts.Add(string.Format(c, "Even-odd consistency is reported but raises no flag: with {0} subscales it is too noisy (at least {1} are required).",
+                evenOdd.SplittableSubscales, o.EvenOddFlagSubscales));
         parts.Add(string.Format(c, "(5) More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit));
-        parts.Add("Even with no careless respondents, about " + o.CutoffP.ToString(c) + " of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
+        parts.Add("Even with no careless respondents, about " + (100 * o.CutoffP).ToString("0.###", c) + " % of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
                   "Flags are for human review, not automatic deletion: inspect each flagged respondent, report how many were set aside and why, " +
                   "and follow your ethics board and professional standards.");
         return string.Join(" ", parts);

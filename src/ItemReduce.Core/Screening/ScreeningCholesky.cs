@@ -12,10 +12,12 @@ internal sealed class ScreeningCholesky
     internal const double RelativePivotTolerance = 1e-12;
 
     private readonly double[] _l;
+    private readonly int _order;
 
     private ScreeningCholesky(double[] l, int order, double logDeterminant)
     {
         _l = l;
+        _order = order;
         Order = order;
         LogDeterminant = logDeterminant;
     }
@@ -27,7 +29,7 @@ internal sealed class ScreeningCholesky
     public double LogDeterminant { get; }
 
     /// <summary>Factorises the row-major <paramref name="a"/> (q × q); null when not positive definite.</summary>
-    public static ScreeningCholesky? TryFactor(ReadOnlySpan<double> a, int q)
+    public static ScreeningCholesky? TryFactor(double[] a, int q)
     {
         var l = new double[q * q];
         double logDet = 0;
@@ -64,18 +66,28 @@ internal sealed class ScreeningCholesky
     }
 
     /// <summary>
-    /// Quadratic form <c>dᵀ A⁻¹ d = ‖L⁻¹ d‖²</c> by forward substitution; <paramref name="work"/> has length ≥ q.
+    /// Quadratic form <c>dᵀ A⁻¹ d = ‖L⁻¹ d‖²</c> by forward substitution; <paramref name="d"/> and
+    /// <paramref name="work"/> have length ≥ q (arrays, not spans: this is the hot loop of every distance).
     /// </summary>
-    public double QuadraticForm(ReadOnlySpan<double> d, Span<double> work)
+    public double QuadraticForm(double[] d, double[] work)
     {
-        int q = Order;
+        int q = _order;
         var l = _l;
         double sum = 0;
         for (int i = 0; i < q; i++)
         {
             int oi = i * q;
             double s = d[i];
-            for (int t = 0; t < i; t++) s -= l[oi + t] * work[t];
+            int t = 0;
+            // Two accumulators: fewer dependent additions (helps unoptimised builds most).
+            double s2 = 0;
+            for (; t + 1 < i; t += 2)
+            {
+                s -= l[oi + t] * work[t];
+                s2 -= l[oi + t + 1] * work[t + 1];
+            }
+            if (t < i) s -= l[oi + t] * work[t];
+            s += s2;
             double z = s / l[oi + i];
             work[i] = z;
             sum += z * z;

@@ -48,7 +48,7 @@ public class FastMcdTests
     }
 
     [Fact]
-    public void Planted_outliers_mask_the_classical_but_not_the_robust_distance()
+    public void Planted_outliers_lie_far_out_on_the_robust_scale_and_clean_rows_are_chi_square_calibrated()
     {
         // Known truth from mcd_reference.py: 90 planted outliers (3 %) in the large set; the planted block
         // should sit far out on the robust scale and have no influence on the robust location.
@@ -61,6 +61,26 @@ public class FastMcdTests
         // Under normality reweighted distances of clean rows are ≈ χ²_p: the median near χ²_p(0.5) (4.35 for p = 5).
         double median = clean.OrderBy(v => v).ElementAt(clean.Length / 2);
         Assert.Equal(ChiSquareTail.UpperQuantile(0.5, p), median, 0.4);
+    }
+
+    [Fact]
+    public void Classical_distances_are_masked_by_a_planted_cluster_where_robust_ones_are_not()
+    {
+        // Known truth (mcd_reference.py): 20 of 400 rows (5 %) form a tight cluster against the correlation
+        // structure. Such a cluster pulls the sample mean and inflates the sample covariance in its own direction
+        // (masking, Rousseeuw & Van Driessen 1999, Section 1), so few of its rows pass the classical cutoff, while
+        // robust distances (ours and sklearn's, previous test) find all of them.
+        var (x, n, p, rows) = Load("mcd_small.csv");
+        var all = Enumerable.Range(0, n).ToArray();
+        var (mean, flat) = RowMoments.MeanCovariance(x, p, all, n - 1);
+        var cov = new double[p, p];
+        for (int j = 0; j < p; j++) for (int k = 0; k < p; k++) cov[j, k] = flat[j * p + k];
+        var classical = new MahalanobisDistance(mean, cov).Compute(x, n).D2;
+        var robust = RobustD2(x, n, p, FastMcd.Fit(x, n, p, new FastMcdSettings(Seed: 2)));
+        double cut = ChiSquareTail.UpperQuantile(0.001, p);
+        var planted = all.Where(i => rows[i][p] == 1).ToArray();
+        Assert.True(planted.Count(i => classical[i] > cut) < planted.Length / 2);
+        Assert.Equal(planted.Length, planted.Count(i => robust[i] > cut));
     }
 
     [Fact]
@@ -77,6 +97,23 @@ public class FastMcdTests
         var da = RobustD2(x, n, p, a);
         var dc = RobustD2(y, n, p, c);
         for (int i = 0; i < n; i++) Assert.Equal(da[i], dc[i], 1e-6 * Math.Max(1, da[i]));
+    }
+
+    [Fact]
+    public void Reweighting_factor_matches_numerical_integration_in_scipy()
+    {
+        // Expected: p · 0.975 / ∫₀^q x f_χ²p(x) dx with q = χ²_p(0.975), by scipy.integrate.quad
+        // (reweighting_factor_reference.py) — an independent check of the closed form 0.975 / F_χ²(p+2)(q).
+        var (_, rows) = ScreeningFixtures.Read("reweighting_factor.csv");
+        foreach (var r in rows)
+        {
+            int p = (int)r[0];
+            double q = ChiSquareTail.UpperQuantile(0.025, p);
+            Assert.Equal(r[1], 0.975 / ChiSquareTail.Cdf(q, p + 2), 1e-9);
+        }
+        var (x, n, pp, _) = Load("mcd_small.csv");
+        var fit = FastMcd.Fit(x, n, pp, new FastMcdSettings(Seed: 1));
+        Assert.Equal(rows.Single(r => r[0] == pp)[1], fit.ReweightingFactor, 1e-9);
     }
 
     [Fact]
