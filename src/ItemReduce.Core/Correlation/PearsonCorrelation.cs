@@ -1,5 +1,8 @@
 using System.Numerics;
+using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
+using System.Runtime.Intrinsics;
+using System.Runtime.Intrinsics.X86;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Correlation;
@@ -116,53 +119,97 @@ public static class PearsonCorrelation
     }
 
     /// <summary>Transposes rows t0..t0+rows−1 into variable-major tile rows, centred; pads with zeros.</summary>
-    private static void FillCentredTile(double[] v, int p, double[] mean, int t0, int rows, double[] tile)
+    internal static void FillCentredTile(double[] v, int p, double[] mean, int t0, int rows, double[] tile)
     {
         if (rows < TileRows) Array.Clear(tile);
-        for (int t = 0; t < rows; t++)
+        // Variable-outer order: contiguous writes; the strided reads revisit the same 64-byte lines
+        // for 8 consecutive variables, which stay in L1.
+        for (int j = 0; j < p; j++)
         {
-            int o = (t0 + t) * p;
-            for (int j = 0; j < p; j++) tile[j * TileRows + t] = v[o + j] - mean[j];
+            var dst = tile.AsSpan(j * TileRows, rows);
+            double m = mean[j];
+            int o = t0 * p + j;
+            for (int t = 0; t < dst.Length; t++, o += p) dst[t] = v[o] - m;
         }
     }
 
     /// <summary>acc[j, k] += Σ_t tile[j, t] tile[k, t] for the 4 × 2 blocks on or below the diagonal.</summary>
-    private static void AccumulateTile(double[] tile, int padded, double[] acc)
+    internal static void AccumulateTile(double[] tile, int padded, double[] acc)
     {
+        if (Fma.IsSupported && Vector256.IsHardwareAccelerated)
+        {
+            AccumulateTileFma(tile, padded, acc);
+            return;
+        }
         var vt = MemoryMarshal.Cast<double, Vector<double>>(tile.AsSpan());
         int w = TileRows / Vector<double>.Count; // vectors per variable
         for (int j = 0; j < padded; j += 4)
         {
             for (int k = 0; k < j + 4; k += 2)
             {
-                var a0 = vt.Slice(j * w, w);
-                var a1 = vt.Slice((j + 1) * w, w);
-                var a2 = vt.Slice((j + 2) * w, w);
-                var a3 = vt.Slice((j + 3) * w, w);
-                var b0 = vt.Slice(k * w, w);
-                var b1 = vt.Slice((k + 1) * w, w);
                 Vector<double> s00 = default, s01 = default, s10 = default, s11 = default,
                                s20 = default, s21 = default, s30 = default, s31 = default;
                 for (int t = 0; t < w; t++)
                 {
-                    var x0 = b0[t];
-                    var x1 = b1[t];
-                    var y = a0[t];
-                    s00 = Vector.FusedMultiplyAdd(y, x0, s00); s01 = Vector.FusedMultiplyAdd(y, x1, s01);
-                    y = a1[t];
-                    s10 = Vector.FusedMultiplyAdd(y, x0, s10); s11 = Vector.FusedMultiplyAdd(y, x1, s11);
-                    y = a2[t];
-                    s20 = Vector.FusedMultiplyAdd(y, x0, s20); s21 = Vector.FusedMultiplyAdd(y, x1, s21);
-                    y = a3[t];
-                    s30 = Vector.FusedMultiplyAdd(y, x0, s30); s31 = Vector.FusedMultiplyAdd(y, x1, s31);
+                    var x0 = vt[k * w + t];
+                    var x1 = vt[(k + 1) * w + t];
+                    var y = vt[j * w + t];
+                    s00 += y * x0; s01 += y * x1;
+                    y = vt[(j + 1) * w + t];
+                    s10 += y * x0; s11 += y * x1;
+                    y = vt[(j + 2) * w + t];
+                    s20 += y * x0; s21 += y * x1;
+                    y = vt[(j + 3) * w + t];
+                    s30 += y * x0; s31 += y * x1;
                 }
-                int o = j * padded + k;
-                acc[o] += Vector.Sum(s00); acc[o + 1] += Vector.Sum(s01); o += padded;
-                acc[o] += Vector.Sum(s10); acc[o + 1] += Vector.Sum(s11); o += padded;
-                acc[o] += Vector.Sum(s20); acc[o + 1] += Vector.Sum(s21); o += padded;
-                acc[o] += Vector.Sum(s30); acc[o + 1] += Vector.Sum(s31);
+                Store(acc, j * padded + k, padded, Vector.Sum(s00), Vector.Sum(s01), Vector.Sum(s10), Vector.Sum(s11),
+                    Vector.Sum(s20), Vector.Sum(s21), Vector.Sum(s30), Vector.Sum(s31));
             }
         }
+    }
+
+    /// <summary>The same kernel with 256-bit fused multiply-add intrinsics (x86 FMA3).</summary>
+    private static void AccumulateTileFma(double[] tile, int padded, double[] acc)
+    {
+        ref double t0 = ref MemoryMarshal.GetArrayDataReference(tile);
+        for (int j = 0; j < padded; j += 4)
+        {
+            ref double a0 = ref Unsafe.Add(ref t0, j * TileRows);
+            ref double a1 = ref Unsafe.Add(ref a0, TileRows);
+            ref double a2 = ref Unsafe.Add(ref a1, TileRows);
+            ref double a3 = ref Unsafe.Add(ref a2, TileRows);
+            for (int k = 0; k < j + 4; k += 2)
+            {
+                ref double b0 = ref Unsafe.Add(ref t0, k * TileRows);
+                ref double b1 = ref Unsafe.Add(ref b0, TileRows);
+                Vector256<double> s00 = default, s01 = default, s10 = default, s11 = default,
+                                  s20 = default, s21 = default, s30 = default, s31 = default;
+                for (nuint t = 0; t < TileRows; t += 4)
+                {
+                    var x0 = Vector256.LoadUnsafe(ref b0, t);
+                    var x1 = Vector256.LoadUnsafe(ref b1, t);
+                    var y = Vector256.LoadUnsafe(ref a0, t);
+                    s00 = Fma.MultiplyAdd(y, x0, s00); s01 = Fma.MultiplyAdd(y, x1, s01);
+                    y = Vector256.LoadUnsafe(ref a1, t);
+                    s10 = Fma.MultiplyAdd(y, x0, s10); s11 = Fma.MultiplyAdd(y, x1, s11);
+                    y = Vector256.LoadUnsafe(ref a2, t);
+                    s20 = Fma.MultiplyAdd(y, x0, s20); s21 = Fma.MultiplyAdd(y, x1, s21);
+                    y = Vector256.LoadUnsafe(ref a3, t);
+                    s30 = Fma.MultiplyAdd(y, x0, s30); s31 = Fma.MultiplyAdd(y, x1, s31);
+                }
+                Store(acc, j * padded + k, padded, Vector256.Sum(s00), Vector256.Sum(s01), Vector256.Sum(s10), Vector256.Sum(s11),
+                    Vector256.Sum(s20), Vector256.Sum(s21), Vector256.Sum(s30), Vector256.Sum(s31));
+            }
+        }
+    }
+
+    private static void Store(double[] acc, int o, int padded, double s00, double s01, double s10, double s11,
+        double s20, double s21, double s30, double s31)
+    {
+        acc[o] += s00; acc[o + 1] += s01; o += padded;
+        acc[o] += s10; acc[o + 1] += s11; o += padded;
+        acc[o] += s20; acc[o + 1] += s21; o += padded;
+        acc[o] += s30; acc[o + 1] += s31;
     }
 
     /// <summary>Pairwise-complete correlations; columns are first copied to contiguous arrays, then each

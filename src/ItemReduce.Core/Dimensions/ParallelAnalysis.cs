@@ -170,7 +170,7 @@ public static class ParallelAnalysis
             draw(rng, b.Scratch, b.R);
             if (eigReduced is not null)
             {
-                var smc = ReferenceSmc(b.R, b.Work, p);
+                var smc = ReferenceSmc(b, p);
                 Array.Copy(b.R, b.Reduced, b.R.Length);
                 for (int j = 0; j < p; j++) b.Reduced[j * p + j] = smc[j];
                 eigReduced[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.Reduced, p, b.D, b.E, b.Tri).Clone();
@@ -186,16 +186,16 @@ public static class ParallelAnalysis
 
     /// <summary>SMCs of a reference matrix; a matrix that is not positive definite (possible with pairwise
     /// deletion in permuted data) is first replaced by its nearest correlation matrix.</summary>
-    private static double[] ReferenceSmc(double[] r, double[] work, int p)
+    private static double[] ReferenceSmc(ReplicateBuffers b, int p)
     {
-        Array.Copy(r, work, r.Length);
+        Array.Copy(b.R, b.Work, b.R.Length);
         try
         {
-            return SquaredMultipleCorrelation.FromRowMajor(work, p);
+            return SquaredMultipleCorrelation.FromRowMajor(b.Work, p, b.Reduced, b.Smc);
         }
         catch (MatrixNotPositiveDefiniteException)
         {
-            var smoothed = NearestCorrelationMatrix.Find(MatrixChecks.FromRowMajor(r, p)).Matrix;
+            var smoothed = NearestCorrelationMatrix.Find(MatrixChecks.FromRowMajor(b.R, p)).Matrix;
             return SquaredMultipleCorrelation.Compute(smoothed);
         }
     }
@@ -206,6 +206,7 @@ public static class ParallelAnalysis
         public double[] R { get; } = new double[p * p];
         public double[] Work { get; } = new double[p * p];
         public double[] Reduced { get; } = new double[p * p];
+        public double[] Smc { get; } = new double[p];
         public double[] D { get; } = new double[p];
         public double[] E { get; } = new double[p];
         public double[] Tri { get; } = new double[2 * p];

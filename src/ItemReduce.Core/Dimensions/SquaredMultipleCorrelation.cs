@@ -30,10 +30,14 @@ public static class SquaredMultipleCorrelation
     }
 
     /// <summary>Unchecked kernel: <paramref name="scratch"/> (row-major p × p) is destroyed.</summary>
-    internal static double[] FromRowMajor(double[] scratch, int p)
+    internal static double[] FromRowMajor(double[] scratch, int p) => FromRowMajor(scratch, p, new double[p * p], new double[p]);
+
+    /// <summary>Allocation-free kernel: <paramref name="scratch"/> and <paramref name="work"/> (p × p) are destroyed;
+    /// the SMCs are written to and returned in <paramref name="result"/> (length p).</summary>
+    internal static double[] FromRowMajor(double[] scratch, int p, double[] work, double[] result)
     {
         CholeskyDecomposition.FactorInPlace(scratch, p);
-        var diag = CholeskyDecomposition.InverseDiagonalFromFactor(scratch, p);
+        var diag = CholeskyDecomposition.InverseDiagonalFromFactor(scratch, p, work, result);
         for (int j = 0; j < p; j++) diag[j] = 1 - 1 / diag[j];
         return diag;
     }

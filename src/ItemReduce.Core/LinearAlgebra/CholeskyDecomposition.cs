@@ -57,12 +57,15 @@ public static class CholeskyDecomposition
     }
 
     /// <summary>X = L⁻¹ (row-major, lower triangular) from the factor left by <see cref="FactorInPlace"/>.</summary>
-    internal static double[] LowerInverse(double[] l, int n)
+    internal static double[] LowerInverse(double[] l, int n) => LowerInverse(l, n, new double[n * n]);
+
+    /// <summary>As <see cref="LowerInverse(double[], int)"/>, writing into <paramref name="x"/> (n × n, overwritten).</summary>
+    internal static double[] LowerInverse(double[] l, int n, double[] x)
     {
-        var x = new double[n * n];
         for (int i = 0; i < n; i++)
         {
             var xi = x.AsSpan(i * n, n);
+            xi.Clear();
             // L[i,i] X[i,:] = e_i − Σ_{k<i} L[i,k] X[k,:], with X[k,:] non-zero in columns 0..k.
             for (int k = 0; k < i; k++) VectorKernels.Axpy(-l[i * n + k], x.AsSpan(k * n, k + 1), xi);
             xi[i] += 1;
@@ -87,12 +90,18 @@ public static class CholeskyDecomposition
     }
 
     /// <summary>Diagonal of A⁻¹ (Σ_i X[i,j]² with X = L⁻¹) from the factor.</summary>
-    internal static double[] InverseDiagonalFromFactor(double[] l, int n)
+    internal static double[] InverseDiagonalFromFactor(double[] l, int n) => InverseDiagonalFromFactor(l, n, new double[n * n], new double[n]);
+
+    /// <summary>As above with caller-provided scratch <paramref name="x"/> (n × n) and output <paramref name="diag"/> (n).</summary>
+    internal static double[] InverseDiagonalFromFactor(double[] l, int n, double[] x, double[] diag)
     {
-        var x = LowerInverse(l, n);
-        var diag = new double[n];
+        LowerInverse(l, n, x);
+        Array.Clear(diag, 0, n);
         for (int i = 0; i < n; i++)
-            for (int j = 0; j <= i; j++) diag[j] += x[i * n + j] * x[i * n + j];
+        {
+            var xi = x.AsSpan(i * n, i + 1);
+            for (int j = 0; j < xi.Length; j++) diag[j] += xi[j] * xi[j];
+        }
         return diag;
     }
 }

@@ -166,7 +166,7 @@ public static class SymmetricEigensolver
                     // Implicit shift from the leading 2×2 block.
                     double g = d[l];
                     double p = (d[l + 1] - g) / (2 * e[l]);
-                    double r = Hypot(p, 1);
+                    double r = FastHypot(p, 1);
                     if (p < 0) r = -r;
                     d[l] = e[l] / (p + r);
                     d[l + 1] = e[l] * (p + r);
@@ -182,7 +182,7 @@ public static class SymmetricEigensolver
                         c3 = c2; c2 = c; s2 = s;
                         g = c * e[i];
                         double hq = c * p;
-                        r = Hypot(p, e[i]);
+                        r = FastHypot(p, e[i]);
                         e[i + 1] = s * r;
                         s = e[i] / r;
                         c = p / r;
@@ -210,6 +210,13 @@ public static class SymmetricEigensolver
             zi1[k] = s * zi[k] + c * t;
             zi[k] = c * zi[k] - s * t;
         }
+    }
+
+    /// <summary>sqrt(a² + b²): plain formula when a² + b² is safely inside the normal range, else <see cref="Hypot"/>.</summary>
+    private static double FastHypot(double a, double b)
+    {
+        double s = a * a + b * b;
+        return s > 1e-290 && s < 1e290 ? Math.Sqrt(s) : Hypot(a, b);
     }
 
     /// <summary>sqrt(a² + b²) without destructive overflow or underflow.</summary>
