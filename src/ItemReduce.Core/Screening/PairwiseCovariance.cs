@@ -40,33 +40,103 @@ internal static class PairwiseCovariance
         }
 
         var mean = ItemMoments.Compute(data).Means;
+        var (cov, without) = PairwiseCrossProducts(v, n, p);
+        return (mean, cov, without);
+    }
+
+    /// <summary>Preferred rows per block of the pairwise passes.</summary>
+    private const int PreferredBlockRows = 16_384;
+
+    /// <summary>Bound on blocks × p² (doubles per accumulator array), about 32 MB per array.</summary>
+    private const long BlockMemoryDoubles = 4L << 20;
+
+    /// <summary>
+    /// Pairwise-complete covariances in two row-major passes (cache-friendly for long data): pass 1 counts joint
+    /// answers m_jk and sums x_j over the rows answering both j and k (the pair's own mean of j); pass 2 adds the
+    /// centred cross-products. Blocks of rows are processed in parallel and combined in block order.
+    /// </summary>
+    private static (double[,] Cov, int PairsWithoutOverlap) PairwiseCrossProducts(double[] v, int n, int p)
+    {
+        // The block layout depends only on n and p (never on the thread count), so the sums are reproducible.
+        long byMemory = Math.Max(1, BlockMemoryDoubles / ((long)p * p));
+        int blocks = (int)Math.Max(1, Math.Min((n + PreferredBlockRows - 1) / PreferredBlockRows, byMemory));
+        int blockRows = (n + blocks - 1) / blocks;
+        // Pass 1: counts (lower triangle) and sums S[j, k] = Σ x_j over rows answering j and k (full square).
+        var (counts, sums) = Accumulate(v, n, p, blocks, blockRows, null);
+        var count = new long[p * p];
+        var pairMean = new double[p * p];
+        for (int b = 0; b < blocks; b++)
+            for (int k = 0; k < p * p; k++) { count[k] += counts[b][k]; pairMean[k] += sums[b][k]; }
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k < p; k++)
+            {
+                long m = j >= k ? count[j * p + k] : count[k * p + j];
+                pairMean[j * p + k] = m > 0 ? pairMean[j * p + k] / m : 0;
+            }
+
+        // Pass 2: Σ (x_j − mean_j|jk)(x_k − mean_k|jk) over rows answering both (lower triangle).
+        var (_, products) = Accumulate(v, n, p, blocks, blockRows, pairMean);
         var cov = new double[p, p];
         int without = 0;
-        // Rows of the lower triangle in parallel: each task writes its own cells only.
-        Parallel.For(0, p, j =>
-        {
+        for (int j = 0; j < p; j++)
             for (int k = 0; k <= j; k++)
             {
-                int m = 0;
-                double sj = 0, sk = 0;
-                for (int i = 0; i < n; i++)
-                {
-                    double a = v[i * p + j], b = v[i * p + k];
-                    if (double.IsNaN(a) || double.IsNaN(b)) continue;
-                    m++; sj += a; sk += b;
-                }
-                if (m < 2) { cov[j, k] = cov[k, j] = 0; Interlocked.Increment(ref without); continue; }
-                double mj = sj / m, mk = sk / m, c = 0;
-                for (int i = 0; i < n; i++)
-                {
-                    double a = v[i * p + j], b = v[i * p + k];
-                    if (double.IsNaN(a) || double.IsNaN(b)) continue;
-                    c += (a - mj) * (b - mk);
-                }
-                cov[j, k] = cov[k, j] = c / (m - 1);
+                long m = count[j * p + k];
+                double sum = 0;
+                for (int b = 0; b < blocks; b++) sum += products[b][j * p + k];
+                if (m < 2) { without++; sum = 0; }
+                else sum /= m - 1;
+                cov[j, k] = cov[k, j] = sum;
             }
+        return (cov, without);
+    }
+
+    /// <summary>
+    /// One pass over the row blocks in parallel. Without <paramref name="pairMean"/>: joint counts (lower triangle)
+    /// and pair-restricted sums (full square). With it: centred cross-products (lower triangle) in the second array.
+    /// </summary>
+    private static (long[][] Counts, double[][] Sums) Accumulate(double[] v, int n, int p, int blocks, int blockRows, double[]? pairMean)
+    {
+        var counts = new long[blocks][];
+        var sums = new double[blocks][];
+        Parallel.For(0, blocks, b =>
+        {
+            var c = new long[pairMean is null ? p * p : 0];
+            var s = new double[p * p];
+            var idx = new int[p];
+            int end = Math.Min(n, (b + 1) * blockRows);
+            for (int i = b * blockRows; i < end; i++)
+            {
+                int o = i * p, q = Answered(v, o, p, idx);
+                for (int a = 0; a < q; a++)
+                {
+                    int ja = idx[a];
+                    double xa = v[o + ja];
+                    for (int t = 0; t <= a; t++)
+                    {
+                        int jb = idx[t];
+                        if (pairMean is null)
+                        {
+                            c[ja * p + jb]++;
+                            s[ja * p + jb] += xa;
+                            if (jb != ja) s[jb * p + ja] += v[o + jb];
+                        }
+                        else s[ja * p + jb] += (xa - pairMean[ja * p + jb]) * (v[o + jb] - pairMean[jb * p + ja]);
+                    }
+                }
+            }
+            counts[b] = c;
+            sums[b] = s;
         });
-        return (mean, cov, without);
+        return (counts, sums);
+    }
+
+    /// <summary>Writes the answered item indices of the row at <paramref name="offset"/> into <paramref name="idx"/>; returns their count.</summary>
+    private static int Answered(double[] v, int offset, int p, int[] idx)
+    {
+        int q = 0;
+        for (int j = 0; j < p; j++) if (!double.IsNaN(v[offset + j])) idx[q++] = j;
+        return q;
     }
 
     private static double[,] Nan(int p)

@@ -75,6 +75,28 @@ public class MahalanobisDistanceTests
     }
 
     [Fact]
+    public void Pairwise_covariance_of_replicated_data_follows_the_replication_identity()
+    {
+        // The iris-with-gaps data (validated against numpy above) stacked 200 times (30,000 rows, several row blocks):
+        // each pair keeps its means and its cross-product sum grows 200-fold, so
+        // cov'_jk = cov_jk · 200 (m_jk − 1) / (200 m_jk − 1), with m_jk the joint answer count of one copy.
+        var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
+        var once = Matrix(rows, 4);
+        var many = Matrix(Enumerable.Repeat(rows, 200).SelectMany(r => r).ToArray(), 4);
+        var (m1, c1, _) = PairwiseCovariance.Compute(once);
+        var (m2, c2, _) = PairwiseCovariance.Compute(many);
+        for (int j = 0; j < 4; j++)
+        {
+            Assert.Equal(m1[j], m2[j], 1e-12);
+            for (int k = 0; k < 4; k++)
+            {
+                int m = rows.Count(r => !double.IsNaN(r[j]) && !double.IsNaN(r[k]));
+                Assert.Equal(c1[j, k] * 200.0 * (m - 1) / (200.0 * m - 1), c2[j, k], 1e-11);
+            }
+        }
+    }
+
+    [Fact]
     public void Non_positive_definite_pairwise_matrix_is_repaired_with_a_warning()
     {
         // Three items where x3 = x1 + x2 exactly: the covariance is singular (property, no outside value needed).
