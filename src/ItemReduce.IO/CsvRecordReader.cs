@@ -15,6 +15,9 @@ internal sealed class CsvRecordReader : IDisposable
     private readonly StreamReader _reader;
     private readonly CsvParser _parser;
     private long _linesConsumed;
+    private bool _reading;
+
+    private long CurrentRecordLine => _reading ? _linesConsumed + 1 : Line;
 
     public CsvRecordReader(string path, char delimiter)
     {
@@ -28,7 +31,9 @@ internal sealed class CsvRecordReader : IDisposable
             IgnoreBlankLines = false,
             DetectColumnCountChanges = false,
             TrimOptions = TrimOptions.None,
-            BadDataFound = args => throw InputErrors.At(_path, _linesConsumed + 1, null,
+            // CsvHelper may report bad data while reading the record or later, when its fields are
+            // accessed; either way it belongs to the record that starts on CurrentRecordLine.
+            BadDataFound = args => throw InputErrors.At(_path, CurrentRecordLine, null,
                 $"a double quote appears inside an unquoted field ({InputErrors.Show(args.Field)})",
                 "quote the whole field and double any quote inside it (\"\"), as in RFC 4180"),
         };
@@ -51,6 +56,7 @@ internal sealed class CsvRecordReader : IDisposable
             bool ok;
             try
             {
+                _reading = true;
                 ok = _parser.Read();
             }
             catch (DecoderFallbackException)
@@ -62,6 +68,10 @@ internal sealed class CsvRecordReader : IDisposable
             {
                 throw InputErrors.At(_path, _linesConsumed + 1, null, "the text is not valid UTF-8",
                     "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
+            }
+            finally
+            {
+                _reading = false;
             }
             if (!ok) return false;
             Line = _linesConsumed + 1;
