@@ -55,7 +55,7 @@ public static class SymmetricEigensolver
     }
 
     /// <summary>
-    /// Unchecked eigenvalues-only kernel for hot loops: <paramref name="a"/> is a full symmetric row-major
+    /// Unchecked eigenvalues-only kernel for hot loops: <paramref name="a"/> is a symmetric row-major (lower triangle read)
     /// n × n matrix and is destroyed; <paramref name="d"/>, <paramref name="e"/> (length n) and
     /// <paramref name="work"/> (length 2n) are scratch. Returns <paramref name="d"/> sorted descending.
     /// </summary>
@@ -69,7 +69,7 @@ public static class SymmetricEigensolver
     }
 
     /// <summary>
-    /// Step 1 (tred1/tred2): reduce the full symmetric row-major matrix <paramref name="a"/> to tridiagonal
+    /// Step 1 (tred1/tred2): reduce the symmetric row-major matrix (lower triangle read and updated) <paramref name="a"/> to tridiagonal
     /// form T = Qᵀ A Q by Householder reflections P_i = I − u uᵀ / H applied for i = n−1, …, 1 to the leading
     /// i × i block. On return <paramref name="d"/> holds the diagonal of T, <paramref name="e"/>[i] the
     /// sub-diagonal element T[i, i−1] (e[0] = 0). When <paramref name="h"/> is given, the Householder vector
@@ -101,13 +101,20 @@ public static class SymmetricEigensolver
             hh -= f * g;
             row[l] = f - g;
             ReadOnlySpan<double> u = row;
-            // p = A u / H on the leading block.
-            for (int j = 0; j < m; j++) p[j] = VectorKernels.Dot(a.AsSpan(j * n, m), u) / hh;
+            // p = A u / H on the leading block, from the lower triangle only: row j gives
+            // Σ_{k<j} A_jk u_k + A_jj u_j to p_j and u_j A_jk to p_k (k < j).
+            p[..m].Clear();
+            for (int j = 0; j < m; j++)
+            {
+                var rowJ = a.AsSpan(j * n, j);
+                p[j] += VectorKernels.DotAndAxpy(rowJ, u, u[j], p) + a[j * n + j] * u[j];
+            }
+            for (int j = 0; j < m; j++) p[j] /= hh;
             // q = p − K u with K = uᵀp / (2H).
             double kk = VectorKernels.Dot(u, p[..m]) / (2 * hh);
             for (int j = 0; j < m; j++) q[j] = p[j] - kk * u[j];
-            // A ← A − u qᵀ − q uᵀ on the leading block (both triangles).
-            for (int j = 0; j < m; j++) VectorKernels.Rank2Row(u[j], q[..m], q[j], u, a.AsSpan(j * n, m));
+            // A ← A − u qᵀ − q uᵀ on the lower triangle of the leading block.
+            for (int j = 0; j < m; j++) VectorKernels.Rank2Row(u[j], q[..(j + 1)], q[j], u[..(j + 1)], a.AsSpan(j * n, j + 1));
             if (h is not null) h[i] = hh;
             d[i] = a[i * n + i];
         }

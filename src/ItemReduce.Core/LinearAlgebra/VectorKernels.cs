@@ -50,6 +50,35 @@ internal static class VectorKernels
         for (; k < n; k++) y[k] += alpha * x[k];
     }
 
+    /// <summary>Returns Σ x_k u_k and does y ← y + α x in the same pass over <paramref name="x"/>
+    /// (one row of a symmetric matrix–vector product from the lower triangle).</summary>
+    public static double DotAndAxpy(ReadOnlySpan<double> x, ReadOnlySpan<double> u, double alpha, Span<double> y)
+    {
+        int n = x.Length, k = 0;
+        double s = 0;
+        if (Vector.IsHardwareAccelerated && n >= Vector<double>.Count)
+        {
+            var vx = MemoryMarshal.Cast<double, Vector<double>>(x);
+            var vu = MemoryMarshal.Cast<double, Vector<double>>(u[..n]);
+            var vy = MemoryMarshal.Cast<double, Vector<double>>(y[..n]);
+            var va = new Vector<double>(alpha);
+            var acc = Vector<double>.Zero;
+            for (int v = 0; v < vx.Length; v++)
+            {
+                acc += vx[v] * vu[v];
+                vy[v] += va * vx[v];
+            }
+            s = Vector.Sum(acc);
+            k = vx.Length * Vector<double>.Count;
+        }
+        for (; k < n; k++)
+        {
+            s += x[k] * u[k];
+            y[k] += alpha * x[k];
+        }
+        return s;
+    }
+
     /// <summary>y ← y − a·q − b·u (one row of a symmetric rank-2 update).</summary>
     public static void Rank2Row(double a, ReadOnlySpan<double> q, double b, ReadOnlySpan<double> u, Span<double> y)
     {

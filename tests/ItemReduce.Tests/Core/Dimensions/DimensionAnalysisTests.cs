@@ -87,6 +87,7 @@ public class DimensionAnalysisTests
     [Fact]
     public void Fixed_count_overrides_the_rules_and_says_so()
     {
+        // Property: a fixed count wins over the rules, which are still reported (planted truth k = 2).
         var res = DimensionAnalysis.Run(Planted(2, 5, 300, 5), new DimensionOptions { Replicates = 50, FixedFactors = 3 });
         Assert.Equal(3, res.Retained);
         Assert.Equal(RetentionRule.Fixed, res.RuleUsed);

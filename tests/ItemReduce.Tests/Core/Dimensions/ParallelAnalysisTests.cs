@@ -60,7 +60,17 @@ public class ParallelAnalysisTests
             double se = Math.Sqrt(Variance(xa) / reps + Variance(xb) / reps);
             Assert.True(Math.Abs(xa.Average() - xb.Average()) < 4.5 * se, $"component {c + 1}: {xa.Average()} vs {xb.Average()} (SE {se})");
             if (c == 0 || c == p - 1)
+            {
                 Assert.True(KolmogorovSmirnov(xa, xb) < 1.95 * Math.Sqrt(2.0 / reps), $"KS for component {c + 1}");
+                // 95th percentiles: asymptotic SE of a sample quantile sqrt(q(1 − q)/N) / f(x_q) (e.g. Serfling 1980,
+                // Approximation Theorems of Mathematical Statistics, Section 2.3.3), with the density f estimated
+                // from the pooled sample as 0.04 / (x_0.97 − x_0.93); tolerance 4.5 combined SEs.
+                var pooled = xa.Concat(xb).Order().ToArray();
+                double f = 0.04 / (ParallelAnalysis.Quantile(pooled, 0.97) - ParallelAnalysis.Quantile(pooled, 0.93));
+                double seQ = Math.Sqrt(0.95 * 0.05 / reps) / f;
+                double qa = ParallelAnalysis.Quantile(xa.Order().ToArray(), 0.95), qb = ParallelAnalysis.Quantile(xb.Order().ToArray(), 0.95);
+                Assert.True(Math.Abs(qa - qb) < 4.5 * Math.Sqrt(2) * seQ, $"95th percentile of component {c + 1}: {qa} vs {qb}");
+            }
         }
     }
 
