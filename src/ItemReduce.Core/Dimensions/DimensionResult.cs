@@ -6,7 +6,7 @@ namespace ItemReduce.Core.Dimensions;
 /// <param name="Parallel">Parallel analysis on the full correlation matrix (components).</param>
 /// <param name="ParallelReduced">Parallel analysis on the reduced (SMC-diagonal) matrix (factors), or null when not computed.</param>
 /// <param name="Map">Velicer's MAP (squared partial correlations).</param>
-/// <param name="MapRevised">O'Connor's revised MAP (fourth powers).</param>
+/// <param name="MapRevised">Revised MAP with fourth powers (Velicer, Eaton &amp; Fava, 2000).</param>
 /// <param name="Kaiser">Eigenvalues above 1 (for comparison only).</param>
 public sealed record RuleCounts(int Parallel, int? ParallelReduced, int Map, int MapRevised, int Kaiser);
 

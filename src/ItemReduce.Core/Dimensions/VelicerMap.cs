@@ -5,7 +5,7 @@ namespace ItemReduce.Core.Dimensions;
 /// <summary>Result of <see cref="VelicerMap.Compute"/>.</summary>
 /// <param name="Curve">Average squared partial correlation after removing the first m components,
 /// index m = 0..M (m = 0 is the average squared off-diagonal correlation of R).</param>
-/// <param name="RevisedCurve">Same with fourth powers (O'Connor's revision), same indices.</param>
+/// <param name="RevisedCurve">Same with fourth powers (the 2000 revision), same indices.</param>
 /// <param name="Count">argmin of <paramref name="Curve"/> (first minimum; 0 allowed).</param>
 /// <param name="RevisedCount">argmin of <paramref name="RevisedCurve"/>.</param>
 public sealed record VelicerMapResult(double[] Curve, double[] RevisedCurve, int Count, int RevisedCount);
@@ -15,9 +15,10 @@ public sealed record VelicerMapResult(double[] Curve, double[] RevisedCurve, int
 /// of partial correlations", Psychometrika 41(3), 321–327, eq. 5–9: for m = 0, 1, …, remove the first m
 /// principal components, C*_m = R − A_m A_mᵀ with A_m = V_m Λ_m^{1/2}, form partial correlations
 /// r*_ij = c*_ij / sqrt(c*_ii c*_jj) and f_m = Σ_{i≠j} (r*_ij)² / (p(p − 1)); the number of components is
-/// the m that minimises f_m. Revised MAP with fourth powers: O'Connor (2000), "SPSS and SAS programs for
-/// determining the number of components using parallel analysis and Velicer's MAP test", Behavior
-/// Research Methods, Instruments, &amp; Computers 32(3), 396–402.
+/// the m that minimises f_m. Revised MAP with fourth powers: Velicer, Eaton &amp; Fava (2000), "Construct explication
+/// through factor or component analysis: A review and evaluation of alternative procedures for determining
+/// the number of factors or components", in Goffin &amp; Helmes (Eds.), Problems and Solutions in Human
+/// Assessment, Kluwer, 41–71 (citation from memory).
 /// <para>m runs from 0 to p − 1, stopping earlier if a residual variance c*_ii falls below 1e-12
 /// (the partial correlations are then undefined).</para>
 /// </summary>

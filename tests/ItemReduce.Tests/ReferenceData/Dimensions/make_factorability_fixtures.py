@@ -13,7 +13,7 @@ Every quantity is computed straight from its published formula with numpy:
   SMC_j = 1 - 1 / inv(R)_jj;  reduced-matrix eigenvalues = eigvalsh(R with SMC diagonal), descending.
   MAP (Velicer 1976): for m = 0..p-1, C = R - A_m A_m^T with A_m = V_m sqrt(L_m) (first m components of
       eigh(R)), r*_ij = C_ij / sqrt(C_ii C_jj); f2_m = mean over i != j of r*^2, f4_m = mean of r*^4
-      (O'Connor 2000 revision).
+      (fourth-power revision, Velicer, Eaton & Fava 2000).
 Also a hand-written 4 x 4 correlation matrix ("small", n = 120) for the same KMO/Bartlett quantities.
 """
 import numpy as np
