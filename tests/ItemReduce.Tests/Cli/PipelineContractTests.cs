@@ -179,3 +179,30 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         Assert.Contains("oblimin", r.Err);
     }
 }
+
+public class ReadmeTests
+{
+    private static string Root()
+    {
+        string d = AppContext.BaseDirectory;
+        while (!File.Exists(Path.Combine(d, "ItemReduce.sln"))) d = Path.GetDirectoryName(d) ?? throw new DirectoryNotFoundException("repository root");
+        return d;
+    }
+
+    [Fact]
+    public void Readme_lists_every_citation_the_appendix_can_print()
+    {
+        string readme = File.ReadAllText(Path.Combine(Root(), "README.md"));
+        var fields = typeof(ItemReduce.IO.Appendix.MethodReferences).GetFields().Where(f => f.IsLiteral).ToList();
+        Assert.NotEmpty(fields);
+        foreach (var f in fields) Assert.Contains((string)f.GetRawConstantValue()!, readme);
+    }
+
+    [Fact]
+    public void Readme_names_the_test_command_that_ci_runs()
+    {
+        string root = Root();
+        Assert.Contains("dotnet test", File.ReadAllText(Path.Combine(root, "README.md")));
+        Assert.Contains("dotnet test", File.ReadAllText(Path.Combine(root, ".ci", "run")));
+    }
+}
