@@ -138,6 +138,57 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         Assert.Contains("Horn, J. L. (1965)", text);
     }
 
+    private static string PdfText(string path)
+    {
+        using var pdf = PdfDocument.Open(path);
+        return string.Concat(pdf.GetPages().Select(p => p.Text));
+    }
+
+    private static string Squeeze(string s) => new(s.Where(c => !char.IsWhiteSpace(c)).ToArray());
+
+    [Fact]
+    public void Appendix_numbers_equal_summary_json()
+    {
+        string text = Squeeze(PdfText(File("appendix.pdf")));
+        var s = Summary;
+        var resp = s.GetProperty("respondents");
+        Assert.Contains(Squeeze($"{resp.GetProperty("flagged").GetInt32()} of {resp.GetProperty("total").GetInt32()} respondents"), text);
+        Assert.Contains(Squeeze($"analysed {resp.GetProperty("analysed").GetInt32()} respondents"), text);
+        Assert.Contains(ItemReduce.Report.Formatting.NumberFormat.Bounded(s.GetProperty("kmo").GetDouble()), text);
+        var b = s.GetProperty("bartlett");
+        Assert.Contains(Squeeze($"χ²({b.GetProperty("df").GetInt32()}) = {ItemReduce.Report.Formatting.NumberFormat.Fixed(b.GetProperty("chi2").GetDouble(), 2)}"), text);
+        Assert.Contains(Squeeze(s.GetProperty("factors").GetProperty("reason").GetString()!), text);
+        foreach (var item in s.GetProperty("shortForm").GetProperty("items").EnumerateArray()) Assert.Contains(item.GetString()!, text);
+    }
+
+    [Fact]
+    public void Every_figure_has_a_number_and_a_caption()
+    {
+        using var pdf = PdfDocument.Open(File("appendix.pdf"));
+        string text = string.Join("\n", pdf.GetPages().Select(p => p.Text));
+        for (int f = 1; f <= 3; f++)
+        {
+            int at = text.IndexOf($"Figure {f}", StringComparison.Ordinal);
+            Assert.True(at >= 0, $"Figure {f} missing");
+            Assert.True(text.Length > at + 60 && text.Substring(at + 8, 50).Any(char.IsLetter), $"Figure {f} has no caption");
+        }
+        Assert.True(pdf.NumberOfPages is >= 4 and <= 40, $"{pdf.NumberOfPages} pages");
+    }
+
+    [Fact]
+    public void Rendering_twice_with_the_same_seed_gives_the_same_text()
+    {
+        var s = _run.Survey;
+        string again = Path.Combine(s.Folder, "again");
+        var r = TempSurvey.Cli("run", "--responses", s.Responses, "--codebook", s.Codebook, "--out", again,
+            "--replicates", "200", "--seed", "5", "--holdout", "0.5", "--items-per-factor", "3");
+        Assert.True(r.Code == 0, r.Err);
+        static string WithoutTimes(string t) => System.Text.RegularExpressions.Regex.Replace(t, @"\d{4}-\d{2}-\d{2} ?\d{2}:\d{2}(:\d{2})?", "<time>");
+        Assert.Equal(WithoutTimes(PdfText(File("appendix.pdf"))), WithoutTimes(PdfText(Path.Combine(again, "appendix.pdf"))));
+        foreach (string f in new[] { "respondent-flags.csv", "eigenvalues.csv", "loadings.csv", "reliability.csv", "item-decisions.csv" })
+            Assert.Equal(System.IO.File.ReadAllBytes(File(f)), System.IO.File.ReadAllBytes(Path.Combine(again, f)));
+    }
+
     [Fact]
     public void Markdown_and_latex_tables_are_written()
     {
@@ -196,6 +247,17 @@ public class ReadmeTests
         var fields = typeof(ItemReduce.IO.Appendix.MethodReferences).GetFields().Where(f => f.IsLiteral).ToList();
         Assert.NotEmpty(fields);
         foreach (var f in fields) Assert.Contains((string)f.GetRawConstantValue()!, readme);
+    }
+
+    [Fact]
+    public void Readme_carries_the_cautions_about_flags_and_short_forms()
+    {
+        // Cautions required where results affect people (common practice in psychometric reporting, no source).
+        string readme = File.ReadAllText(Path.Combine(Root(), "README.md"));
+        Assert.Contains("Flags are for human review, not automatic deletion", readme);
+        Assert.Contains("atypical is not invalid", readme);
+        Assert.Contains("report how many respondents were set aside and why", readme);
+        Assert.Contains("validated in a new sample", readme);
     }
 
     [Fact]
