@@ -238,7 +238,7 @@ public static class AppendixBuilder
             c < d.ByRule.Parallel ? "yes" : "no",
         ], c < d.ByRule.Parallel ? RowMark.Highlighted : RowMark.None)).ToList();
         b.Table("Eigenvalues and parallel-analysis references",
-            [new("Component", ColumnAlignment.Right), new("Observed", ColumnAlignment.Right), new("Random mean", ColumnAlignment.Right),
+            [new("No.", ColumnAlignment.Right), new("Observed", ColumnAlignment.Right), new("Random mean", ColumnAlignment.Right),
              new(Inv($"Random P{pa.PercentileLevel}"), ColumnAlignment.Right), new("Reduced observed", ColumnAlignment.Right),
              new(Inv($"Reduced P{pa.PercentileLevel}"), ColumnAlignment.Right), new("Above reference")],
             rows, "Reduced: squared multiple correlations on the diagonal (common-factor variant). All eigenvalues are in eigenvalues.csv.");
@@ -297,7 +297,7 @@ public static class AppendixBuilder
             .OrderBy(j => judgement.TryGetValue(j, out var jd) ? jd.PrimaryFactor : 0)
             .ThenByDescending(j => judgement.TryGetValue(j, out var jd) ? Math.Abs(jd.PrimaryLoading) : 0).ToList();
         var columns = new List<TableColumn> { new("Item"), new("Subscale") };
-        for (int f = 0; f < k; f++) columns.Add(new TableColumn($"F{f + 1} {s.FactorLabels[f]}", ColumnAlignment.Right));
+        for (int f = 0; f < k; f++) columns.Add(new TableColumn($"F{f + 1}", ColumnAlignment.Right));
         columns.Add(new TableColumn("h²", ColumnAlignment.Right));
         columns.Add(new TableColumn("Decision"));
         var rows = new List<TableRow>();
@@ -311,6 +311,7 @@ public static class AppendixBuilder
             rows.Add(new TableRow(cells, keep ? RowMark.Highlighted : RowMark.None));
         }
         b.Table(ShortFormTables.IsOblique(s) ? "Rotated pattern loadings" : "Rotated loadings", columns, rows,
+            "Factors: " + string.Join(", ", Enumerable.Range(0, k).Select(f => $"F{f + 1} = {s.FactorLabels[f]}")) + ". " +
             Inv($"Loadings with absolute value below {Bounded(BlankBelow)} are left blank. h² = communality. (R) = reverse-keyed, rescored before analysis. Items kept in the short form are shaded. ") +
             "Full loadings are in loadings.csv" + (ShortFormTables.IsOblique(s) ? ", structure loadings in structure-loadings.csv." : "."));
         if (ShortFormTables.IsOblique(s) && k > 1)

@@ -61,6 +61,12 @@ internal static class ChartPainter
             v.LabelFontSize = TickSize;
             v.LabelBackgroundColor = Colors.White;
             v.LabelFontColor = Color.FromHex("#1F1F1F");
+            // Leave room on the right so a marker at the last data point keeps its label on the page.
+            plot.Axes.AutoScale();
+            var limits = plot.Axes.GetLimits();
+            double span = limits.Right - limits.Left;
+            if (span > 0 && marker.X > limits.Right - 0.15 * span)
+                plot.Axes.SetLimitsX(limits.Left, marker.X + 0.15 * span);
         }
 
         plot.XLabel(spec.XLabel, LabelSize);
