@@ -52,8 +52,7 @@ public static class ResponseReader
         var ignored = header.Where((h, c) => c != idCol && codebook.IndexOf(h) < 0).ToList();
 
         var missing = new HashSet<string>(options.EffectiveMissingCodes.Select(m => m.Trim()), StringComparer.Ordinal) { "" };
-        var values = new List<double>(1024 * p);
-        var ids = new List<string>(1024);
+        var builder = new ResponseMatrixBuilder(codebook.Items);
         var idLines = new Dictionary<string, long>(StringComparer.Ordinal);
         var row = new double[p];
         while (csv.Read())
@@ -79,11 +78,10 @@ public static class ResponseReader
                 if (!item.InRange(v)) throw InputErrors.OutOfRange(path, csv.Line, header[itemCol[j]], raw, item.Min, item.Max);
                 row[j] = v;
             }
-            values.AddRange(row);
-            ids.Add(id);
+            builder.Add(id, row);
         }
-        if (ids.Count == 0) throw InputErrors.HeaderOnly(path);
-        var matrix = new ResponseMatrix(ids, codebook.Items, values.ToArray());
+        if (builder.Count == 0) throw InputErrors.HeaderOnly(path);
+        var matrix = builder.Build();
         return new ResponseIntake(matrix, idCol >= 0 ? header[idCol] : null, delimiter, ignored);
     }
 

@@ -1,4 +1,5 @@
 using System.Collections.Concurrent;
+using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Screening;
 
@@ -49,11 +50,13 @@ internal sealed class MahalanobisDistance
     public bool FullFactorAvailable => _full is not null;
 
     /// <summary>
-    /// D² of every row of the row-major <paramref name="v"/> (n × p) and the number of items each row answered.
-    /// Rows are processed in parallel blocks; the result does not depend on the thread count.
+    /// D² of every row of <paramref name="data"/> (n × p) and the number of items each row answered.
+    /// Rows are decoded and processed in parallel blocks; the result does not depend on the thread count.
     /// </summary>
-    public (double[] D2, int[] Answered) Compute(double[] v, int n)
+    public (double[] D2, int[] Answered) Compute(ResponseMatrix data)
     {
+        int n = data.RespondentCount;
+        if (data.ItemCount != _p) throw new ArgumentException($"data has {data.ItemCount} items, the distance {_p}.", nameof(data));
         var d2 = new double[n];
         var answered = new int[n];
         const int block = 4096;
@@ -62,9 +65,13 @@ internal sealed class MahalanobisDistance
         {
             var work = new double[_p];
             var diff = new double[_p];
+            var row = new double[_p];
             int end = Math.Min(n, (b + 1) * block);
             for (int i = b * block; i < end; i++)
-                d2[i] = Row(v, i * _p, diff, work, out answered[i]);
+            {
+                data.CopyRow(i, row);
+                d2[i] = Row(row, 0, diff, work, out answered[i]);
+            }
         });
         return (d2, answered);
     }

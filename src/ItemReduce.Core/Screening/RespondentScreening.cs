@@ -40,7 +40,6 @@ public static class RespondentScreening
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new List<string>();
-        var v = data.Storage;
 
         // 1. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
         var (mean, rawCov, noOverlap) = PairwiseCovariance.Compute(data);
@@ -53,7 +52,7 @@ public static class RespondentScreening
                          "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
         var classical = new MahalanobisDistance(mean, cov);
-        var (d2, answered) = classical.Compute(v, n);
+        var (d2, answered) = classical.Compute(data);
 
         // 2. Robust distances from FAST-MCD on complete rows.
         var (robust, robustD2) = RobustDistances(data, options, warnings);
@@ -75,13 +74,19 @@ public static class RespondentScreening
             warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
 
         var rows = new RespondentScreeningRow[n];
-        var raw = asAnswered?.Storage ?? v;
+        var raw = asAnswered ?? data;
         Parallel.For(0, (n + 4095) / 4096, b =>
         {
+            var x = new double[p];
+            var rawRow = new double[p];
             int end = Math.Min(n, (b + 1) * 4096);
             for (int i = b * 4096; i < end; i++)
-                rows[i] = ScreenOne(i, data.RespondentIds[i], new ReadOnlySpan<double>(v, i * p, p), new ReadOnlySpan<double>(raw, i * p, p),
+            {
+                data.CopyRow(i, x);
+                raw.CopyRow(i, rawRow);
+                rows[i] = ScreenOne(i, data.RespondentIds[i], x, rawRow,
                     d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
+            }
         });
 
         int nanDistance = 0;
@@ -130,14 +135,9 @@ public static class RespondentScreening
     private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings)
     {
         int n = data.RespondentCount, p = data.ItemCount;
-        var v = data.Storage;
         var complete = new List<int>();
         for (int i = 0; i < n; i++)
-        {
-            bool ok = true;
-            for (int j = 0; j < p; j++) if (double.IsNaN(v[i * p + j])) { ok = false; break; }
-            if (ok) complete.Add(i);
-        }
+            if (data.IsComplete(i)) complete.Add(i);
         var nan = new double[n];
         Array.Fill(nan, double.NaN);
         RobustEstimatorDetails Unavailable(string note, int used = 0, bool sub = false)
@@ -160,7 +160,7 @@ public static class RespondentScreening
         }
         int m = rowsUsed.Count;
         var x = new double[(long)m * p];
-        for (int r = 0; r < m; r++) Array.Copy(v, (long)rowsUsed[r] * p, x, (long)r * p, p);
+        for (int r = 0; r < m; r++) data.CopyRow(rowsUsed[r], x.AsSpan(r * p, p));
         int? h = o.RobustSupportFraction is double f ? Math.Clamp((int)Math.Ceiling(f * m), p + 1, m) : null;
         FastMcdEstimate fit;
         try
@@ -175,7 +175,7 @@ public static class RespondentScreening
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         if (!dist.FullFactorAvailable)
             return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), nan);
-        var (robustD2, _) = dist.Compute(v, n);
+        var (robustD2, _) = dist.Compute(data);
         string note = subsampled
             ? $"FAST-MCD fitted to a seeded random subsample of {m} of the {complete.Count} complete respondents; robust distances computed for everyone."
             : $"FAST-MCD fitted to the {m} complete respondents; robust distances of respondents with missing answers use the matching parts of the robust location and scatter.";
