@@ -73,7 +73,7 @@ public static class RespondentScreening
         if (options.UseRobust && !robust.Available)
             warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
 
-        var rows = new RespondentScreeningRow[n];
+        var rows = new ScreeningRowStore(data.RespondentIds, p, answered, d2, robustD2, cutoffByDf);
         var raw = asAnswered ?? data;
         Parallel.For(0, (n + 4095) / 4096, b =>
         {
@@ -84,8 +84,7 @@ public static class RespondentScreening
             {
                 data.CopyRow(i, x);
                 raw.CopyRow(i, rawRow);
-                rows[i] = ScreenOne(i, data.RespondentIds[i], x, rawRow,
-                    d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
+                ScreenOne(i, rows, x, rawRow, d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
             }
         });
 
@@ -101,14 +100,15 @@ public static class RespondentScreening
         if (noAnswers > 0) warnings.Add($"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
 
         var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
-            rows.Count(r => r.Reasons.Contains(code)))).ToList();
-        int flagged = rows.Count(r => r.Flagged);
+            rows.CountWith(ScreeningRowStore.Bit(code)))).ToList();
+        int flagged = rows.Flagged();
         string rule = Describe(options, useRobust, runLimit, p, evenOdd);
         var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options);
     }
 
-    private static RespondentScreeningRow ScreenOne(int i, string id, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
+    /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
+    private static void ScreenOne(int i, ScreeningRowStore rows, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
         double d2, double robustD2, int answered, double[] cutoffByDf, EvenOddConsistency evenOdd, int runLimit, bool useRobust, ScreeningOptions o)
     {
         int p = x.Length;
@@ -120,16 +120,27 @@ public static class RespondentScreening
         double eo = evenOdd.Compute(x, out int eoSubscales);
         double missing = (p - answered) / (double)p;
 
-        var reasons = new List<string>(2);
-        if (useRobust && robustD2 > cutoff) reasons.Add(ScreeningReasons.RobustDistance);
-        if (!useRobust && d2 > cutoff) reasons.Add(ScreeningReasons.ClassicalDistance);
-        if (longString >= runLimit) reasons.Add(ScreeningReasons.RepeatedAnswerRun);
-        if (irv < o.FlatVariabilityLimit) reasons.Add(ScreeningReasons.FlatProfile);
-        if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons.Add(ScreeningReasons.HalvesDisagree);
-        if (missing > o.MissingShareLimit) reasons.Add(ScreeningReasons.MostlyUnanswered);
-        return new RespondentScreeningRow(id, answered, d2, robustD2, cutoff, pValue, robustP, longString, irv, eo, missing,
-            reasons.Count > 0, reasons);
+        int reasons = 0;
+        if (useRobust && robustD2 > cutoff) reasons |= RobustBit;
+        if (!useRobust && d2 > cutoff) reasons |= ClassicalBit;
+        if (longString >= runLimit) reasons |= RunBit;
+        if (irv < o.FlatVariabilityLimit) reasons |= FlatBit;
+        if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons |= HalvesBit;
+        if (missing > o.MissingShareLimit) reasons |= UnansweredBit;
+        rows.PValue[i] = pValue;
+        rows.RobustPValue[i] = robustP;
+        rows.LongString[i] = longString;
+        rows.Irv[i] = irv;
+        rows.EvenOdd[i] = eo;
+        rows.ReasonMask[i] = (byte)reasons;
     }
+
+    private static readonly int RobustBit = ScreeningRowStore.Bit(ScreeningReasons.RobustDistance);
+    private static readonly int ClassicalBit = ScreeningRowStore.Bit(ScreeningReasons.ClassicalDistance);
+    private static readonly int RunBit = ScreeningRowStore.Bit(ScreeningReasons.RepeatedAnswerRun);
+    private static readonly int FlatBit = ScreeningRowStore.Bit(ScreeningReasons.FlatProfile);
+    private static readonly int HalvesBit = ScreeningRowStore.Bit(ScreeningReasons.HalvesDisagree);
+    private static readonly int UnansweredBit = ScreeningRowStore.Bit(ScreeningReasons.MostlyUnanswered);
 
     /// <summary>FAST-MCD on the complete rows (subsampled above the cap), then robust D² on each respondent's answered items.</summary>
     private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings)

@@ -14,15 +14,25 @@ public static class ScreeningTables
     /// </summary>
     public static string RespondentFlags(ScreeningResult r)
     {
+        using var text = new StringWriter(System.Globalization.CultureInfo.InvariantCulture) { NewLine = "\n" };
+        WriteRespondentFlags(r, text);
+        return text.ToString();
+    }
+
+    /// <summary>Streams <c>respondent-flags.csv</c> (same bytes as <see cref="RespondentFlags"/>) to
+    /// <paramref name="sink"/> row by row, so a large panel never becomes one string in memory.</summary>
+    public static void WriteRespondentFlags(ScreeningResult r, TextWriter sink)
+    {
+        ArgumentNullException.ThrowIfNull(r);
+        ArgumentNullException.ThrowIfNull(sink);
         var w = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
-            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"]);
+            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"], sink);
         foreach (var x in r.Respondents)
         {
             w.AppendRow([Text(x.RespondentId), Integer(x.ItemsAnswered), Number(x.D2, Decimals), Number(x.RobustD2, Decimals),
                 Number(x.Cutoff, Decimals), Number(x.PValue), Integer(x.LongString), Number(x.Irv, Decimals), Number(x.MissingShare, Decimals),
                 Bool(x.Flagged), Text(string.Join(';', x.Reasons)), Number(x.RobustPValue), Number(x.EvenOdd, Decimals)]);
         }
-        return w.ToString();
     }
 
     /// <summary>
