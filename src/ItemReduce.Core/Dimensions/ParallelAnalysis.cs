@@ -38,12 +38,20 @@ public sealed record ParallelAnalysisOptions
     /// <summary>Thread cap (−1 = all cores). Results do not depend on it.</summary>
     public int MaxDegreeOfParallelism { get; init; } = -1;
 
+    /// <summary>Permutation reference only: with more respondents than this, the replicates shuffle a seeded random
+    /// subsample of this many respondents (<c>RandomStream.ForTask(Seed, 0, subsample purpose)</c>), so the cost per
+    /// replicate does not grow with n; default 50,000, range [100, 10,000,000]. The reference eigenvalues then describe
+    /// random data of the subsample's size, which is conservative (their spread is larger than at the full n).</summary>
+    public int PermutationMaxRows { get; init; } = 50_000;
+
     internal void Validate()
     {
         if (Replicates is < 10 or > 100_000)
             throw new ArgumentException($"Replicates must lie in [10, 100000], got {Replicates}.", nameof(Replicates));
         if (!(Percentile > 0 && Percentile < 100))
             throw new ArgumentException($"Percentile must lie in (0, 100), got {Percentile}.", nameof(Percentile));
+        if (PermutationMaxRows is < 100 or > 10_000_000)
+            throw new ArgumentException($"PermutationMaxRows must lie in [100, 10000000], got {PermutationMaxRows}.", nameof(PermutationMaxRows));
         if (MaxDegreeOfParallelism == 0 || MaxDegreeOfParallelism < -1)
             throw new ArgumentException($"MaxDegreeOfParallelism must be −1 or ≥ 1, got {MaxDegreeOfParallelism}.", nameof(MaxDegreeOfParallelism));
     }
@@ -59,7 +67,16 @@ public sealed record ParallelAnalysisOptions
 /// <param name="Kind">Reference kind.</param>
 public sealed record ParallelAnalysisReference(
     double[] Mean, double[] Percentile, double[]? ReducedMean, double[]? ReducedPercentile,
-    int Replicates, double PercentileLevel, ReferenceKind Kind);
+    int Replicates, double PercentileLevel, ReferenceKind Kind)
+{
+    /// <summary>Permutation reference: respondents shuffled in every replicate (all of them, or the seeded
+    /// subsample when there were more than <see cref="ParallelAnalysisOptions.PermutationMaxRows"/>); null for the
+    /// normal reference.</summary>
+    public int? PermutedRespondents { get; init; }
+
+    /// <summary>True when the permutation reference used a seeded random subsample of the respondents.</summary>
+    public bool Subsampled { get; init; }
+}
 
 /// <summary>
 /// Parallel analysis: Horn (1965), "A rationale and test for the number of factors in factor analysis",
@@ -82,6 +99,7 @@ public static class ParallelAnalysis
     internal const ulong NormalPurpose = 0x4E4F524D;      // "NORM"
     internal const ulong PermutationPurpose = 0x5045524D; // "PERM"
     internal const ulong BruteForcePurpose = 0x42525554;  // "BRUT"
+    internal const ulong SubsamplePurpose = 0x50535542;   // "PSUB"
 
     /// <summary>Normal-reference eigenvalues for <paramref name="respondents"/> × <paramref name="items"/> data.</summary>
     /// <exception cref="ArgumentException">items &lt; 1, respondents ≤ items, or invalid options.</exception>
@@ -104,6 +122,9 @@ public static class ParallelAnalysis
         ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
     {
         options.Validate();
+        int all = data.RespondentCount;
+        bool subsampled = all > options.PermutationMaxRows;
+        if (subsampled) data = data.SelectRespondents(SubsampleRows(all, options.PermutationMaxRows, options.Seed));
         int n = data.RespondentCount, p = data.ItemCount;
         var columns = new double[p][];
         for (int j = 0; j < p; j++) columns[j] = data.Column(j);
@@ -119,7 +140,18 @@ public static class ParallelAnalysis
                 }
                 var c = correlate(data.WithValues(buffer));
                 Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
-            });
+            }) with { PermutedRespondents = n, Subsampled = subsampled };
+    }
+
+    /// <summary>A seeded random subset of <paramref name="count"/> of the rows 0 .. n − 1, in ascending order.</summary>
+    internal static int[] SubsampleRows(int n, int count, ulong seed)
+    {
+        var rows = new int[n];
+        for (int i = 0; i < n; i++) rows[i] = i;
+        RandomStream.ForTask(seed, 0, SubsamplePurpose).Shuffle(rows.AsSpan());
+        var chosen = rows[..count];
+        Array.Sort(chosen);
+        return chosen;
     }
 
     /// <summary>

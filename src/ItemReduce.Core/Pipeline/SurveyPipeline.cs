@@ -27,7 +27,7 @@ public static class SurveyPipeline
         if (settings.Scope is PipelineScope.Screen or PipelineScope.All)
         {
             progress?.Invoke($"screening {prepared.Scored.RespondentCount} respondents");
-            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered));
+            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered, progress));
             if (settings.Scope == PipelineScope.All)
             {
                 var keep = new List<int>();

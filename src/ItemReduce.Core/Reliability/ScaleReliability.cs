@@ -52,30 +52,44 @@ public static class ScaleReliability
     /// <summary>Sample covariance (n − 1, two-pass) of the given columns over rows complete on them.</summary>
     internal static (double[,] Covariance, int N) ListwiseCovariance(ResponseMatrix data, IReadOnlyList<int> columns)
     {
-        int k = columns.Count, rows = data.RespondentCount;
-        var complete = new List<int>();
-        for (int i = 0; i < rows; i++)
-        {
-            bool ok = true;
-            foreach (int c in columns) if (double.IsNaN(data[i, c])) { ok = false; break; }
-            if (ok) complete.Add(i);
-        }
-        int n = complete.Count;
+        int k = columns.Count, p = data.ItemCount;
+        var cols = columns.ToArray();
+        // Rows are decoded in blocks and visited in order, so the sums run in the same order as a row loop.
+        const int blockRows = 1024;
+        int n = 0;
         var mean = new double[k];
-        foreach (int i in complete) for (int a = 0; a < k; a++) mean[a] += data[i, columns[a]];
+        data.ForEachBlock(blockRows, (v, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+            {
+                if (!CompleteOn(v, o, cols)) continue;
+                n++;
+                for (int a = 0; a < k; a++) mean[a] += v[o + cols[a]];
+            }
+        });
         for (int a = 0; a < k; a++) mean[a] = n > 0 ? mean[a] / n : double.NaN;
         var cov = new double[k, k];
         var d = new double[k];
-        foreach (int i in complete)
+        data.ForEachBlock(blockRows, (v, rows) =>
         {
-            for (int a = 0; a < k; a++) d[a] = data[i, columns[a]] - mean[a];
-            for (int a = 0; a < k; a++)
-                for (int b = 0; b <= a; b++) cov[a, b] += d[a] * d[b];
-        }
+            for (int o = 0; o < rows * p; o += p)
+            {
+                if (!CompleteOn(v, o, cols)) continue;
+                for (int a = 0; a < k; a++) d[a] = v[o + cols[a]] - mean[a];
+                for (int a = 0; a < k; a++)
+                    for (int b = 0; b <= a; b++) cov[a, b] += d[a] * d[b];
+            }
+        });
         for (int a = 0; a < k; a++)
             for (int b = 0; b <= a; b++)
                 cov[a, b] = cov[b, a] = n > 1 ? cov[a, b] / (n - 1) : double.NaN;
         return (cov, n);
+    }
+
+    private static bool CompleteOn(ReadOnlySpan<double> v, int offset, int[] cols)
+    {
+        foreach (int c in cols) if (double.IsNaN(v[offset + c])) return false;
+        return true;
     }
 
     internal static double[,] ToCorrelation(double[,] cov)

@@ -9,7 +9,7 @@ namespace ItemReduce.Core.Screening;
 /// for respondents who may have skipped items: D² uses only the items respondent i answered, with the matching
 /// sub-vector of μ and sub-matrix of Σ, so under multivariate normality it follows χ² with
 /// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached, up to
-/// <see cref="CacheBudgetDoubles"/> stored factor entries (about 256 MB); patterns met after the budget is spent are
+/// <see cref="CacheBudgetDoubles"/> stored factor entries (about 32 MB); patterns met after the budget is spent are
 /// factorised for each respondent without being stored, so memory stays bounded when nearly every row is unique.
 /// A respondent with no answers gets NaN; so does one whose sub-matrix cannot be factorised.
 /// </summary>
@@ -24,7 +24,7 @@ internal sealed class MahalanobisDistance
     private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
 
     /// <summary>Most factor entries (doubles) kept in the pattern cache.</summary>
-    internal const long CacheBudgetDoubles = 32L << 20;
+    internal const long CacheBudgetDoubles = 4L << 20;
 
     private long _cachedDoubles;
 

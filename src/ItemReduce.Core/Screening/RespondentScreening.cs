@@ -29,7 +29,8 @@ public static class RespondentScreening
     /// <param name="asAnswered">Optional responses as given (before reverse scoring), same respondents and items in the
     /// same order. When given, long-string and IRV use them (a respondent who ticks the same box throughout shows a
     /// flat profile only before reverse scoring); otherwise they use <paramref name="data"/>.</param>
-    public static ScreeningResult Run(ResponseMatrix data, ScreeningOptions options, ResponseMatrix? asAnswered = null)
+    /// <param name="progress">Optional callback told when each step starts (for progress reports on large data).</param>
+    public static ScreeningResult Run(ResponseMatrix data, ScreeningOptions options, ResponseMatrix? asAnswered = null, Action<string>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(options);
@@ -42,6 +43,7 @@ public static class RespondentScreening
         var warnings = new List<string>();
 
         // 1. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
+        progress?.Invoke("screening: item means and covariances");
         var (mean, rawCov, noOverlap) = PairwiseCovariance.Compute(data);
         if (noOverlap > 0)
             warnings.Add($"{noOverlap} item pair(s) had fewer than 2 respondents answering both; their covariance was set to 0.");
@@ -52,10 +54,11 @@ public static class RespondentScreening
                          "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
         var classical = new MahalanobisDistance(mean, cov);
+        progress?.Invoke("screening: classical distances");
         var (d2, answered) = classical.Compute(data);
 
         // 2. Robust distances from FAST-MCD on complete rows.
-        var (robust, robustD2) = RobustDistances(data, options, warnings);
+        var (robust, robustD2) = RobustDistances(data, options, warnings, progress);
 
         // 3. Cutoffs and p-values, df = items answered.
         var cutoffByDf = new double[p + 1];
@@ -73,6 +76,7 @@ public static class RespondentScreening
         if (options.UseRobust && !robust.Available)
             warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
 
+        progress?.Invoke("screening: careless-response indices");
         var rows = new ScreeningRowStore(data.RespondentIds, p, answered, d2, robustD2, cutoffByDf);
         var raw = asAnswered ?? data;
         Parallel.For(0, (n + 4095) / 4096, b =>
@@ -143,7 +147,8 @@ public static class RespondentScreening
     private static readonly int UnansweredBit = ScreeningRowStore.Bit(ScreeningReasons.MostlyUnanswered);
 
     /// <summary>FAST-MCD on the complete rows (subsampled above the cap), then robust D² on each respondent's answered items.</summary>
-    private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings)
+    private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings,
+        Action<string>? progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
         var complete = new List<int>();
@@ -173,6 +178,7 @@ public static class RespondentScreening
         var x = new double[(long)m * p];
         for (int r = 0; r < m; r++) data.CopyRow(rowsUsed[r], x.AsSpan(r * p, p));
         int? h = o.RobustSupportFraction is double f ? Math.Clamp((int)Math.Ceiling(f * m), p + 1, m) : null;
+        progress?.Invoke(string.Create(CultureInfo.InvariantCulture, $"screening: FAST-MCD on {m} complete respondents"));
         FastMcdEstimate fit;
         try
         {
@@ -186,6 +192,7 @@ public static class RespondentScreening
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         if (!dist.FullFactorAvailable)
             return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), nan);
+        progress?.Invoke("screening: robust distances");
         var (robustD2, _) = dist.Compute(data);
         string note = subsampled
             ? $"FAST-MCD fitted to a seeded random subsample of {m} of the {complete.Count} complete respondents; robust distances computed for everyone."

@@ -223,7 +223,8 @@ public static class AppendixBuilder
         b.Heading(1, "4. Number of dimensions");
         var pa = d.Reference;
         string refKind = pa.Kind == ReferenceKind.Permutation
-            ? "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)"
+            ? "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)" +
+              (pa.Subsampled ? Inv($"; to keep the cost independent of the sample size, every shuffled data set was built from the same seeded random subsample of {pa.PermutedRespondents} of the {r.Analysed.RespondentCount} respondents, which makes the reference somewhat conservative") : "")
             : Inv($"uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition");
         b.Para(Inv($"Parallel analysis compared each eigenvalue of the correlation matrix with the mean and the {pa.PercentileLevel}th percentile of the same eigenvalue in {pa.Replicates} {refKind}. ") +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
