@@ -16,8 +16,18 @@ public sealed record ResponseIntake(ResponseMatrix Responses, string? IdColumn, 
 /// </summary>
 public static class ResponseReader
 {
+    /// <summary>Rows between calls of the progress callback.</summary>
+    private const int ProgressEveryRows = 1 << 16;
+
     /// <summary>Reads and validates; throws <see cref="SurveyInputException"/> naming line and column on any problem.</summary>
-    public static ResponseIntake Read(string path, Codebook codebook, IReadOnlyList<long> codebookLines, string codebookPath, IntakeOptions options)
+    /// <param name="path">Responses CSV.</param>
+    /// <param name="codebook">Items to read, in codebook order.</param>
+    /// <param name="codebookLines">1-based codebook line of each item (for messages).</param>
+    /// <param name="codebookPath">Codebook file (for messages).</param>
+    /// <param name="options">Delimiter, missing codes and id column.</param>
+    /// <param name="progress">Optional callback given the number of rows read so far, every 65,536 rows.</param>
+    public static ResponseIntake Read(string path, Codebook codebook, IReadOnlyList<long> codebookLines, string codebookPath, IntakeOptions options,
+        Action<int>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(codebook);
         ArgumentNullException.ThrowIfNull(options);
@@ -79,6 +89,7 @@ public static class ResponseReader
                 row[j] = v;
             }
             builder.Add(id, row);
+            if (progress is not null && builder.Count % ProgressEveryRows == 0) progress(builder.Count);
         }
         if (builder.Count == 0) throw InputErrors.HeaderOnly(path);
         var matrix = builder.Build();

@@ -14,7 +14,15 @@ public static class SurveyLoader
         log.Step($"reading codebook {settings.Codebook}");
         var (codebook, lines) = CodebookReader.Read(settings.Codebook);
         log.Step($"reading responses {settings.Responses}");
-        var intake = ResponseReader.Read(settings.Responses, codebook, lines, settings.Codebook, settings.Intake);
+        var clock = System.Diagnostics.Stopwatch.StartNew();
+        long lastReport = 0;
+        var intake = ResponseReader.Read(settings.Responses, codebook, lines, settings.Codebook, settings.Intake, rows =>
+        {
+            // At most about one message per second.
+            if (clock.ElapsedMilliseconds - lastReport < 1000) return;
+            lastReport = clock.ElapsedMilliseconds;
+            log.Step(string.Create(System.Globalization.CultureInfo.InvariantCulture, $"read {rows:N0} rows ({rows / clock.Elapsed.TotalSeconds:N0} rows/s)"));
+        });
         log.Step($"read {intake.Responses.RespondentCount} respondents × {intake.Responses.ItemCount} items");
         var prepared = PreparedData.From(intake.Responses);
         int usable = prepared.Scored.ItemCount;
