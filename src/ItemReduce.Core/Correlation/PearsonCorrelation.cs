@@ -24,7 +24,7 @@ namespace ItemReduce.Core.Correlation;
 public static class PearsonCorrelation
 {
     /// <summary>Observations per tile of the complete-data kernel (tile = p × 256 doubles, fits in L2).</summary>
-    private const int TileRows = 256;
+    internal const int TileRows = 256;
 
     /// <summary>Correlation matrix of the columns of <paramref name="data"/>.</summary>
     public static double[,] Compute(ResponseMatrix data, MissingDataHandling handling = MissingDataHandling.Pairwise)
@@ -221,13 +221,15 @@ public static class PearsonCorrelation
     /// <summary>Rows per block of the pairwise passes (a p × 4096 column-major block of doubles).</summary>
     private const int PairwiseBlockRows = 4096;
 
-    /// <summary>Pairwise-complete correlations in two passes over blocks of rows taken in order (pass 1: joint
+    /// <summary>Pairwise-complete correlations (compact integer data: exact sums, see <see cref="PairwiseExact"/>; otherwise
+    /// two passes over blocks of rows taken in order (pass 1: joint
     /// counts and sums; pass 2: centred cross-products at the pair's own means). Each block is transposed to
     /// columns and the rows j of the matrix are processed in parallel; every pair's sums run over the respondents
     /// in input order, so the result equals a plain column loop bit for bit and does not depend on the thread count.
     /// Memory is O(p × block), never n × p.</summary>
     private static double[,] Pairwise(ResponseMatrix data, int maxDegreeOfParallelism)
     {
+        if (PairwiseSums.Applies(data)) return PairwiseExact(PairwiseSums.Compute(data, maxDegreeOfParallelism), data.ItemCount);
         int n = data.RespondentCount, p = data.ItemCount;
         var count = new int[p * p];
         var sumJ = new double[p * p];   // [j, k]: Σ x_j over rows answering j and k (k < j)
@@ -307,10 +309,42 @@ public static class PearsonCorrelation
         return r;
     }
 
+    /// <summary>Pairwise-complete correlations of integer-valued data from exact sums (<see cref="PairwiseSums"/>):
+    /// r = m·C_jk / √(m·C_jj · m·C_kk) with every m·C exact, rounded once; the same definition as the two-pass path
+    /// (pair's own means, at least 3 joint answers, NaN for zero variance), computed more accurately.</summary>
+    private static double[,] PairwiseExact(PairwiseSums sums, int p)
+    {
+        var r = new double[p, p];
+        for (int j = 0; j < p; j++)
+        {
+            r[j, j] = 1.0;
+            for (int k = 0; k < j; k++)
+            {
+                double value = double.NaN;
+                if (sums.Count(j, k) >= 3)
+                {
+                    double den = Math.Sqrt((double)sums.ScaledCentredSquares(j, k) * (double)sums.ScaledCentredSquares(k, j));
+                    if (den > 0) value = (double)sums.ScaledCentredProduct(j, k) / den;
+                }
+                r[j, k] = value;
+                r[k, j] = value;
+            }
+        }
+        return r;
+    }
+
     /// <summary>Number of respondents who answered both items, for every pair (diagonal: answers per item).</summary>
     internal static int[,] PairwiseCounts(ResponseMatrix data)
     {
         int n = data.RespondentCount, p = data.ItemCount;
+        if (PairwiseSums.Applies(data))
+        {
+            var sums = PairwiseSums.Compute(data, -1);
+            var c = new int[p, p];
+            for (int j = 0; j < p; j++)
+                for (int k = 0; k < p; k++) c[j, k] = (int)sums.Count(j, k);
+            return c;
+        }
         var counts = new int[p, p];
         var present = new bool[p];
         data.ForEachBlock(PairwiseBlockRows, (v, rows) =>

@@ -94,6 +94,29 @@ public sealed class ResponseMatrix
     /// <summary>Bytes held by the cell storage this matrix refers to (shared with views), for diagnostics.</summary>
     public long StorageBytes => _codes?.LongLength ?? (_values!.LongLength * sizeof(double));
 
+    /// <summary>
+    /// For compact storage whose decoded answers are all integers: the largest absolute value any valid answer can
+    /// take (from the decoding tables over each item's [min, max]); null otherwise (dense storage, or a reverse-keyed
+    /// item with non-integer bounds).
+    /// </summary>
+    internal double? IntegerMagnitudeBound()
+    {
+        if (_decode is null) return null;
+        double bound = 0;
+        for (int k = 0; k < ItemCount; k++)
+        {
+            var it = Items[k];
+            int top = (int)Math.Min(MissingCode - 1, Math.Floor(it.Max - it.Min));
+            for (int c = 0; c <= top; c++)
+            {
+                double v = _decode[k * TableSize + c];
+                if (Math.Floor(v) != v) return null;
+                bound = Math.Max(bound, Math.Abs(v));
+            }
+        }
+        return bound;
+    }
+
     private int Physical(int row) => _rowMap is null ? row : _rowMap[row];
 
     /// <summary>Value of respondent <paramref name="row"/> on item <paramref name="column"/> (NaN = missing).</summary>

@@ -1,3 +1,4 @@
+using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using MathNet.Numerics.LinearAlgebra;
 
@@ -37,8 +38,26 @@ internal static class PairwiseCovariance
         }
 
         var mean = ItemMoments.Compute(data).Means;
-        var (cov, without) = PairwiseCrossProducts(data);
+        var (cov, without) = PairwiseSums.Applies(data) ? FromExactSums(PairwiseSums.Compute(data, -1), p) : PairwiseCrossProducts(data);
         return (mean, cov, without);
+    }
+
+    /// <summary>The same covariances from exact integer sums (compact integer-valued data): m·C_jk is exact, then
+    /// divided once by m (m − 1).</summary>
+    private static (double[,] Cov, int PairsWithoutOverlap) FromExactSums(PairwiseSums sums, int p)
+    {
+        var cov = new double[p, p];
+        int without = 0;
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k <= j; k++)
+            {
+                long m = sums.Count(j, k);
+                double c = 0;
+                if (m < 2) without++;
+                else c = (double)sums.ScaledCentredProduct(j, k) / ((double)m * (m - 1));
+                cov[j, k] = cov[k, j] = c;
+            }
+        return (cov, without);
     }
 
     /// <summary>Rows decoded at a time inside a block.</summary>
