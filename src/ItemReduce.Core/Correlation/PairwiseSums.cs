@@ -79,26 +79,8 @@ internal sealed class PairwiseSums
         int n = data.RespondentCount, p = data.ItemCount, q = 3 * p;
         int tileRows = PearsonCorrelation.TileRows;
         int padded = (q + 3) & ~3;
-        int segments = Math.Clamp((n + 4 * tileRows - 1) / (4 * tileRows), 1, 16);
-        var partial = new double[segments][];
-        var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
-        Parallel.For(0, segments, options, s =>
-        {
-            int r0 = (int)((long)n * s / segments), r1 = (int)((long)n * (s + 1) / segments);
-            var acc = new double[padded * padded];
-            var tile = new double[padded * tileRows];
-            var rows = new double[tileRows * p];
-            for (int t0 = r0; t0 < r1; t0 += tileRows)
-            {
-                int count = Math.Min(tileRows, r1 - t0);
-                FillTile(data.Rows(t0, count, rows), p, count, tile, tileRows);
-                PearsonCorrelation.AccumulateTile(tile, padded, acc);
-            }
-            partial[s] = acc;
-        });
-        var total = partial[0];
-        for (int s = 1; s < segments; s++)
-            for (int k = 0; k < total.Length; k++) total[k] += partial[s][k];
+        var total = PearsonCorrelation.AccumulateSegments(data.Rows, n, p, padded, maxDegreeOfParallelism,
+            (block, rows, tile) => FillTile(block, p, rows, tile, tileRows));
         return new PairwiseSums(p, total, padded);
     }
 

@@ -93,6 +93,20 @@ public static class PearsonCorrelation
 
         int padded = (p + 3) & ~3;
         pp = padded;
+        return AccumulateSegments(source, n, p, padded, maxDegreeOfParallelism,
+            (block, rows, tile) => FillCentredTile(block, p, mean, rows, tile));
+    }
+
+    /// <summary>Writes the variable-major tile (padded × <see cref="TileRows"/>) of a row-major block of rows.</summary>
+    internal delegate void TileFill(ReadOnlySpan<double> block, int rows, double[] tile);
+
+    /// <summary>
+    /// Σ over all rows of zᵢ zᵢᵀ (lower triangle, leading dimension <paramref name="padded"/>) where <paramref name="fill"/>
+    /// turns row blocks into tiles of z. Rows are split into a fixed number of segments that depend only on n; segment
+    /// sums are added in segment order, so the result does not depend on the thread count.
+    /// </summary>
+    internal static double[] AccumulateSegments(RowBlockSource source, int n, int p, int padded, int maxDegreeOfParallelism, TileFill fill)
+    {
         int segments = Math.Clamp((n + 4 * TileRows - 1) / (4 * TileRows), 1, 16);
         var partial = new double[segments][];
         var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
@@ -105,7 +119,7 @@ public static class PearsonCorrelation
             for (int t0 = r0; t0 < r1; t0 += TileRows)
             {
                 int rows = Math.Min(TileRows, r1 - t0);
-                FillCentredTile(source(t0, rows, rowScratch), p, mean, rows, tile);
+                fill(source(t0, rows, rowScratch), rows, tile);
                 AccumulateTile(tile, padded, acc);
             }
             partial[s] = acc;
