@@ -62,11 +62,12 @@ public sealed class ResponseMatrix
     }
 
     /// <summary>A compact matrix over <paramref name="codes"/> (row-major, one byte per cell, code = x − min,
-    /// <see cref="MissingCode"/> = missing). Every item must satisfy <see cref="ResponseMatrixBuilder.CanStoreCompact"/>.</summary>
+    /// <see cref="MissingCode"/> = missing; entries past rows × columns are spare capacity and never read). Every item
+    /// must satisfy <see cref="ResponseMatrixBuilder.CanStoreCompact"/>.</summary>
     internal static ResponseMatrix FromCodes(IReadOnlyList<string> ids, IReadOnlyList<ItemDefinition> items, byte[] codes)
     {
-        if (codes.Length != (long)ids.Count * items.Count)
-            throw new ArgumentException($"Expected {ids.Count}×{items.Count} codes, got {codes.Length}.", nameof(codes));
+        if (codes.Length < (long)ids.Count * items.Count)
+            throw new ArgumentException($"Expected at least {ids.Count}×{items.Count} codes, got {codes.Length}.", nameof(codes));
         int p = items.Count;
         var decode = new double[p * TableSize];
         for (int j = 0; j < p; j++)
@@ -202,7 +203,7 @@ public sealed class ResponseMatrix
         int n = RespondentCount, p = ItemCount;
         if (_rowMap is null && _identityColumns)
         {
-            if (_codes is not null) return _codes.AsSpan().Contains(MissingCode);
+            if (_codes is not null) return _codes.AsSpan(0, n * _stride).Contains(MissingCode);
             foreach (double x in _values!) if (double.IsNaN(x)) return true;
             return false;
         }

@@ -62,7 +62,8 @@ public sealed class ResponseMatrixBuilder
     {
         if (_codes is not null)
         {
-            var codes = _codes.Length == _cells ? _codes : _codes.AsSpan(0, (int)_cells).ToArray();
+            // The spare capacity (at most half) is kept rather than copied away, to avoid a second copy at peak memory.
+            var codes = _codes;
             _codes = null;
             return ResponseMatrix.FromCodes(_ids, _items, codes);
         }
@@ -101,7 +102,7 @@ public sealed class ResponseMatrixBuilder
     private void SwitchToDense()
     {
         var values = new double[Math.Max(_codes!.LongLength, _cells + _p)];
-        var partial = ResponseMatrix.FromCodes(_ids, _items, _codes.AsSpan(0, (int)_cells).ToArray());
+        var partial = ResponseMatrix.FromCodes(_ids, _items, _codes);
         for (int i = 0; i < _ids.Count; i++) partial.CopyRow(i, values.AsSpan(i * _p, _p));
         _codes = null;
         _values = values;
