@@ -80,7 +80,7 @@ public static class SurveyPipeline
             k = maxK;
         }
         progress?.Invoke(string.Create(ci, $"factoring {analysed.ItemCount} items into {k} factor(s) and building the short form"));
-        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, settings.ShortForm with { Seed = settings.Seed }));
+        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, settings.ShortForm with { Seed = settings.Seed }, progress));
         return new PipelineResult
         {
             Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,

@@ -177,6 +177,29 @@ public class CompactStorageTests
     }
 
     [Fact]
+    public void Listwise_scale_covariance_of_integer_data_is_exact()
+    {
+        var (c0, d0) = Both(2500, 0.05, 6);
+        var compact = ReverseScoring.Apply(c0).SelectRespondents(Enumerable.Range(0, 2500).Where(i => i % 7 != 3).ToList());
+        var dense = ReverseScoring.Apply(d0).SelectRespondents(Enumerable.Range(0, 2500).Where(i => i % 7 != 3).ToList());
+        var all = Enumerable.Range(0, compact.ItemCount).ToArray();
+        var (covC, nC) = ItemReduce.Core.Reliability.ScaleReliability.ListwiseCovariance(compact, all);
+        var (covD, nD) = ItemReduce.Core.Reliability.ScaleReliability.ListwiseCovariance(dense, all);
+        Assert.Equal(nD, nC);
+        // Independent reference: exact rational covariance over the complete rows (BigInteger sums).
+        var complete = Enumerable.Range(0, compact.RespondentCount).Where(compact.IsComplete).ToList();
+        Assert.Equal(complete.Count, nC);
+        var listwise = compact.SelectRespondents(complete);
+        for (int a = 0; a < all.Length; a++)
+            for (int b = 0; b <= a; b++)
+            {
+                var (cov, _) = ExactPair(listwise, a, b);
+                Assert.Equal(cov, covC[a, b], Math.Abs(cov) * 1e-15);
+                Assert.Equal(covD[a, b], covC[a, b], Math.Abs(cov) * 1e-12);
+            }
+    }
+
+    [Fact]
     public void The_builder_falls_back_to_doubles_for_values_without_an_exact_code()
     {
         var items = new ItemDefinition[] { new("x", null, false, 1, 5, null), new("y", null, false, 0, 100, null) };
