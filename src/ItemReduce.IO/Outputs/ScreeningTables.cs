@@ -1,3 +1,4 @@
+using System.Globalization;
 using ItemReduce.Core.Screening;
 using static ItemReduce.IO.SafeCsvWriter;
 
@@ -25,13 +26,70 @@ public static class ScreeningTables
     {
         ArgumentNullException.ThrowIfNull(r);
         ArgumentNullException.ThrowIfNull(sink);
-        var w = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
+        _ = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
             "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"], sink);
+        // Rows are formatted straight into a reused buffer with the same cell rules as SafeCsvWriter
+        // (Text, Integer, Number, Bool), so no per-cell strings are made; reason cells are cached per reason list.
+        var reasonCells = new Dictionary<IReadOnlyList<string>, string>(ReferenceEqualityComparer.Instance);
+        var line = new RowBuffer();
         foreach (var x in r.Respondents)
         {
-            w.AppendRow([Text(x.RespondentId), Integer(x.ItemsAnswered), Number(x.D2, Decimals), Number(x.RobustD2, Decimals),
-                Number(x.Cutoff, Decimals), Number(x.PValue), Integer(x.LongString), Number(x.Irv, Decimals), Number(x.MissingShare, Decimals),
-                Bool(x.Flagged), Text(string.Join(';', x.Reasons)), Number(x.RobustPValue), Number(x.EvenOdd, Decimals)]);
+            if (!reasonCells.TryGetValue(x.Reasons, out string? reasons))
+                reasonCells[x.Reasons] = reasons = Text(string.Join(';', x.Reasons));
+            line.Clear();
+            line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
+                .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
+                .Text(Bool(x.Flagged)).Sep().Text(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Text("\n");
+            sink.Write(line.Span);
+        }
+    }
+
+    /// <summary>A growable character buffer for one CSV row; numbers are formatted as <see cref="SafeCsvWriter.Number(double)"/>
+    /// and <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> would format them.</summary>
+    private sealed class RowBuffer
+    {
+        private char[] _chars = new char[512];
+        private int _length;
+
+        public ReadOnlySpan<char> Span => _chars.AsSpan(0, _length);
+
+        public void Clear() => _length = 0;
+
+        public RowBuffer Sep() => Text(",");
+
+        public RowBuffer Text(string s)
+        {
+            Ensure(s.Length);
+            s.CopyTo(_chars.AsSpan(_length));
+            _length += s.Length;
+            return this;
+        }
+
+        public RowBuffer Integer(long v) => Format(v);
+
+        /// <summary>As <see cref="SafeCsvWriter.Number(double)"/>: round-trip text, empty for NaN/infinity.</summary>
+        public RowBuffer Number(double v) => double.IsFinite(v) ? Format(v) : this;
+
+        /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals.</summary>
+        public RowBuffer Rounded(double v) => double.IsFinite(v) ? Format(Math.Round(v, Decimals)) : this;
+
+        private RowBuffer Format<T>(T v) where T : ISpanFormattable
+        {
+            while (true)
+            {
+                Ensure(32);
+                if (v.TryFormat(_chars.AsSpan(_length), out int written, typeof(T) == typeof(double) ? "R" : default, CultureInfo.InvariantCulture))
+                {
+                    _length += written;
+                    return this;
+                }
+                Array.Resize(ref _chars, _chars.Length * 2);
+            }
+        }
+
+        private void Ensure(int extra)
+        {
+            if (_length + extra > _chars.Length) Array.Resize(ref _chars, Math.Max(_chars.Length * 2, _length + extra));
         }
     }
 
