@@ -76,6 +76,15 @@ internal sealed class PairwiseSums
     /// depend on the thread count). Call only when <see cref="Applies"/> is true.</summary>
     public static PairwiseSums Compute(ResponseMatrix data, int maxDegreeOfParallelism)
     {
+        // Matrices are immutable, so sums computed once for a matrix (dimensions, pairwise counts and the short form
+        // all use the same analysed matrix) can be reused; the table holds its keys weakly.
+        return Cache.GetValue(data, d => Accumulate(d, maxDegreeOfParallelism));
+    }
+
+    private static readonly System.Runtime.CompilerServices.ConditionalWeakTable<ResponseMatrix, PairwiseSums> Cache = new();
+
+    private static PairwiseSums Accumulate(ResponseMatrix data, int maxDegreeOfParallelism)
+    {
         int n = data.RespondentCount, p = data.ItemCount, q = 3 * p;
         int tileRows = PearsonCorrelation.TileRows;
         int padded = (q + 3) & ~3;
