@@ -28,27 +28,43 @@ public static class ScreeningTables
         ArgumentNullException.ThrowIfNull(sink);
         _ = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
             "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"], sink);
-        // Rows are formatted straight into a reused buffer with the same cell rules as SafeCsvWriter
-        // (Text, Integer, Number, Bool), so no per-cell strings are made; reason cells are cached per reason list.
-        var reasonCells = new Dictionary<IReadOnlyList<string>, string>(ReferenceEqualityComparer.Instance);
-        var line = new RowBuffer();
-        foreach (var x in r.Respondents)
+        // Rows are formatted straight into reused buffers with the same cell rules as SafeCsvWriter (Text, Integer,
+        // Number, Bool), so no per-cell strings are made; reason cells are cached per reason list. Blocks of rows are
+        // formatted in parallel and written in input order.
+        var reasonCells = new System.Collections.Concurrent.ConcurrentDictionary<IReadOnlyList<string>, string>(ReferenceEqualityComparer.Instance);
+        var rows = r.Respondents;
+        int n = rows.Count, blocks = Math.Max(1, Environment.ProcessorCount) * 2;
+        var buffers = new RowBuffer[blocks];
+        for (int b = 0; b < blocks; b++) buffers[b] = new RowBuffer();
+        for (int start = 0; start < n; start += blocks * FormatBlockRows)
         {
-            if (!reasonCells.TryGetValue(x.Reasons, out string? reasons))
-                reasonCells[x.Reasons] = reasons = Text(string.Join(';', x.Reasons));
-            line.Clear();
-            line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
-                .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
-                .Text(Bool(x.Flagged)).Sep().Text(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Text("\n");
-            sink.Write(line.Span);
+            int first = start;
+            Parallel.For(0, blocks, b =>
+            {
+                var line = buffers[b];
+                line.Clear();
+                int end = (int)Math.Min(n, first + (long)(b + 1) * FormatBlockRows);
+                for (int i = first + b * FormatBlockRows; i < end; i++)
+                {
+                    var x = rows[i];
+                    string reasons = reasonCells.GetOrAdd(x.Reasons, list => Text(string.Join(';', list)));
+                    line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
+                        .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
+                        .Text(Bool(x.Flagged)).Sep().Text(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Text("\n");
+                }
+            });
+            foreach (var line in buffers) sink.Write(line.Span);
         }
     }
 
-    /// <summary>A growable character buffer for one CSV row; numbers are formatted as <see cref="SafeCsvWriter.Number(double)"/>
+    /// <summary>Rows formatted per parallel block of <see cref="WriteRespondentFlags"/>.</summary>
+    private const int FormatBlockRows = 8192;
+
+    /// <summary>A growable character buffer for CSV rows; numbers are formatted as <see cref="SafeCsvWriter.Number(double)"/>
     /// and <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> would format them.</summary>
     private sealed class RowBuffer
     {
-        private char[] _chars = new char[512];
+        private char[] _chars = new char[1 << 16];
         private int _length;
 
         public ReadOnlySpan<char> Span => _chars.AsSpan(0, _length);
