@@ -93,8 +93,10 @@ public class ScaleBenchmarks
     [Benchmark(Description = "(e) Pearson 200000x40 compact, complete")]
     public double[,] CorrelationCompactComplete() => PearsonCorrelation.Compute(_compactComplete, MissingDataHandling.Pairwise, -1);
 
+    /// <summary>A fresh view per call: exact pairwise sums are cached per matrix object, and the benchmark must not hit that cache.</summary>
     [Benchmark(Description = "(e) Pearson 200000x40 compact, 1% missing, pairwise")]
-    public double[,] CorrelationCompactPairwise() => PearsonCorrelation.Compute(_compactMissing, MissingDataHandling.Pairwise, -1);
+    public double[,] CorrelationCompactPairwise() =>
+        PearsonCorrelation.Compute(_compactMissing.SelectItems(Enumerable.Range(0, P).ToArray()), MissingDataHandling.Pairwise, -1);
 
     [Benchmark(Description = "(e') Pearson 200000x40 dense, complete")]
     public double[,] CorrelationDenseComplete() => PearsonCorrelation.Compute(_denseComplete, MissingDataHandling.Pairwise, -1);
