@@ -197,6 +197,26 @@ public sealed class ResponseMatrix
         return c;
     }
 
+    /// <summary>Compact storage only: the codes of one column, in row order (n bytes).</summary>
+    internal byte[] ColumnCodes(int column)
+    {
+        if (_codes is null) throw new InvalidOperationException("The matrix is not stored compactly.");
+        var c = new byte[RespondentCount];
+        int physical = _colMap[column];
+        for (int i = 0; i < c.Length; i++) c[i] = _codes[(long)Physical(i) * _stride + physical];
+        return c;
+    }
+
+    /// <summary>Compact storage only: a matrix with the same respondents, items and decoding tables over other
+    /// row-major codes (n × p, in this matrix's column order).</summary>
+    internal ResponseMatrix WithCodes(byte[] codes)
+    {
+        if (_decode is null) throw new InvalidOperationException("The matrix is not stored compactly.");
+        if (codes.Length < (long)RespondentCount * ItemCount)
+            throw new ArgumentException($"Expected at least {RespondentCount}×{ItemCount} codes, got {codes.Length}.", nameof(codes));
+        return new ResponseMatrix(RespondentIds, Items, null, codes, ItemCount, null, Identity(ItemCount), _decode);
+    }
+
     /// <summary>True when any cell is missing.</summary>
     public bool HasMissing()
     {

@@ -126,6 +126,40 @@ public static class ParallelAnalysis
         bool subsampled = all > options.PermutationMaxRows;
         if (subsampled) data = data.SelectRespondents(SubsampleRows(all, options.PermutationMaxRows, options.Seed));
         int n = data.RespondentCount, p = data.ItemCount;
+        var reference = data.IsCompact ? PermuteCodes(data, correlate, options) : PermuteValues(data, correlate, options);
+        return reference with { PermutedRespondents = n, Subsampled = subsampled };
+    }
+
+    /// <summary>Permutation replicates of compact data: the byte codes are shuffled (the same permutations as
+    /// <see cref="PermuteValues"/> would apply, since each column is shuffled by the same stream), so every
+    /// replicate is itself compact and is correlated by the fast exact path.</summary>
+    private static ParallelAnalysisReference PermuteCodes(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    {
+        int n = data.RespondentCount, p = data.ItemCount;
+        var columns = new byte[p][];
+        for (int j = 0; j < p; j++) columns[j] = data.ColumnCodes(j);
+        using var codes = new ThreadLocal<byte[]>(() => new byte[(long)n * p]);
+        using var shuffledColumn = new ThreadLocal<byte[]>(() => new byte[n]);
+        return Run(p, options with { Reference = ReferenceKind.Permutation }, PermutationPurpose, () => [],
+            (rng, _, r) =>
+            {
+                var buffer = codes.Value!;
+                var shuffled = shuffledColumn.Value!;
+                for (int j = 0; j < p; j++)
+                {
+                    columns[j].CopyTo(shuffled, 0);
+                    rng.Shuffle(shuffled.AsSpan());
+                    for (int i = 0; i < n; i++) buffer[(long)i * p + j] = shuffled[i];
+                }
+                var c = correlate(data.WithCodes(buffer));
+                Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
+            });
+    }
+
+    /// <summary>Permutation replicates of dense data: shuffled doubles in a per-worker buffer.</summary>
+    private static ParallelAnalysisReference PermuteValues(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    {
+        int n = data.RespondentCount, p = data.ItemCount;
         var columns = new double[p][];
         for (int j = 0; j < p; j++) columns[j] = data.Column(j);
         return Run(p, options with { Reference = ReferenceKind.Permutation }, PermutationPurpose, () => new double[(long)n * p],
@@ -140,7 +174,7 @@ public static class ParallelAnalysis
                 }
                 var c = correlate(data.WithValues(buffer));
                 Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
-            }) with { PermutedRespondents = n, Subsampled = subsampled };
+            });
     }
 
     /// <summary>A seeded random subset of <paramref name="count"/> of the rows 0 .. n − 1, in ascending order.</summary>
