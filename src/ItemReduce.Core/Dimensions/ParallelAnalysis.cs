@@ -44,6 +44,10 @@ public sealed record ParallelAnalysisOptions
     /// random data of the subsample's size, which is conservative (their spread is larger than at the full n).</summary>
     public int PermutationMaxRows { get; init; } = 50_000;
 
+    /// <summary>Optional progress callback, called from worker threads with the number of replicates finished each time
+    /// another tenth of them is done; default none. It does not affect the results.</summary>
+    public Action<int>? ReplicatesDone { get; init; }
+
     internal void Validate()
     {
         if (Replicates is < 10 or > 100_000)
@@ -230,6 +234,7 @@ public static class ParallelAnalysis
         var eig = new double[reps][];
         var eigReduced = reduced ? new double[reps][] : null;
         var po = new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism };
+        int done = 0, step = Math.Max(1, reps / 10);
         Parallel.For(0, reps, po, () => new ReplicateBuffers(p, newScratch()), (rep, _, b) =>
         {
             var rng = RandomStream.ForTask(options.Seed, rep, purpose);
@@ -242,6 +247,8 @@ public static class ParallelAnalysis
                 eigReduced[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.Reduced, p, b.D, b.E, b.Tri).Clone();
             }
             eig[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.R, p, b.D, b.E, b.Tri).Clone();
+            int finished = Interlocked.Increment(ref done);
+            if (options.ReplicatesDone is { } report && finished % step == 0) report(finished);
             return b;
         }, _ => { });
         var (mean, pct) = Summarise(eig, p, options.Percentile);

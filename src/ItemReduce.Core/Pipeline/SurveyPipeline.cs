@@ -62,7 +62,7 @@ public static class SurveyPipeline
         if (settings.Scope != PipelineScope.Shorten || dimOptions.FixedFactors is null)
         {
             progress?.Invoke($"dimensions: correlations, eigenvalues and parallel analysis ({dimOptions.Replicates} replicates)");
-            dims = Stage("dimensions", () => DimensionAnalysis.Run(analysed, dimOptions));
+            dims = Stage("dimensions", () => DimensionAnalysis.Run(analysed, dimOptions, progress));
         }
         if (settings.Scope == PipelineScope.Dimensions)
             return new PipelineResult { Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded, Dimensions = dims, Warnings = warnings };
