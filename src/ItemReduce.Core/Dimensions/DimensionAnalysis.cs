@@ -19,7 +19,7 @@ public static class DimensionAnalysis
     /// <param name="options">Settings.</param>
     /// <exception cref="ArgumentException">Invalid options, too few items or respondents, or a pair of items
     /// with fewer than 3 joint answers (its correlation is undefined).</exception>
-    /// <param name="progress">Optional callback told how many parallel-analysis replicates are done (every tenth).</param>
+    /// <param name="progress">Optional callback told how many permutation-reference replicates are done (every tenth).</param>
     public static DimensionResult Run(ResponseMatrix data, DimensionOptions options, Action<string>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(data);
@@ -155,7 +155,8 @@ public static class DimensionAnalysis
     private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff, Action<string>? progress)
     {
         var po = ToParallelOptions(o);
-        if (progress is not null)
+        // Only the permutation reference takes long enough to be worth reporting (the normal one needs well under a second).
+        if (progress is not null && o.Reference == ReferenceKind.Permutation)
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
             return ParallelAnalysis.PermutationReference(data, d => Correlate(d, o, 1), po);
