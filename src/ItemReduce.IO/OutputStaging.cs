@@ -56,6 +56,13 @@ public sealed class OutputStaging : IDisposable
     /// <summary>Writes a UTF-8 text file (no BOM) into the staging folder.</summary>
     public void WriteText(string fileName, string content) => Guard(() => File.WriteAllText(Path.Combine(TempFolder, fileName), content, Utf8NoBom));
 
+    /// <summary>Writes a UTF-8 text file (no BOM) through a text-writer callback, for tables too large for one string.</summary>
+    public void WriteText(string fileName, Action<TextWriter> write) => WriteStream(fileName, stream =>
+    {
+        using var writer = new StreamWriter(stream, Utf8NoBom, 1 << 16, leaveOpen: true);
+        write(writer);
+    });
+
     /// <summary>Writes a file through a stream callback.</summary>
     public void WriteStream(string fileName, Action<Stream> write) => Guard(() =>
     {

@@ -16,8 +16,18 @@ public sealed record ResponseIntake(ResponseMatrix Responses, string? IdColumn, 
 /// </summary>
 public static class ResponseReader
 {
+    /// <summary>Rows between calls of the progress callback.</summary>
+    private const int ProgressEveryRows = 1 << 16;
+
     /// <summary>Reads and validates; throws <see cref="SurveyInputException"/> naming line and column on any problem.</summary>
-    public static ResponseIntake Read(string path, Codebook codebook, IReadOnlyList<long> codebookLines, string codebookPath, IntakeOptions options)
+    /// <param name="path">Responses CSV.</param>
+    /// <param name="codebook">Items to read, in codebook order.</param>
+    /// <param name="codebookLines">1-based codebook line of each item (for messages).</param>
+    /// <param name="codebookPath">Codebook file (for messages).</param>
+    /// <param name="options">Delimiter, missing codes and id column.</param>
+    /// <param name="progress">Optional callback given the number of rows read so far, every 65,536 rows.</param>
+    public static ResponseIntake Read(string path, Codebook codebook, IReadOnlyList<long> codebookLines, string codebookPath, IntakeOptions options,
+        Action<int>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(codebook);
         ArgumentNullException.ThrowIfNull(options);
@@ -52,9 +62,9 @@ public static class ResponseReader
         var ignored = header.Where((h, c) => c != idCol && codebook.IndexOf(h) < 0).ToList();
 
         var missing = new HashSet<string>(options.EffectiveMissingCodes.Select(m => m.Trim()), StringComparer.Ordinal) { "" };
-        var values = new List<double>(1024 * p);
-        var ids = new List<string>(1024);
-        var idLines = new Dictionary<string, long>(StringComparer.Ordinal);
+        var builder = new ResponseMatrixBuilder(codebook.Items);
+        // Ids seen so far; the line of a first occurrence is looked up again only when a duplicate is found.
+        var seenIds = new HashSet<string>(StringComparer.Ordinal);
         var row = new double[p];
         while (csv.Read())
         {
@@ -67,24 +77,38 @@ public static class ResponseReader
                 if (id.Length == 0) throw InputErrors.EmptyId(path, csv.Line, header[idCol]);
             }
             else id = csv.Line.ToString(CultureInfo.InvariantCulture);
-            if (!idLines.TryAdd(id, csv.Line)) throw InputErrors.DuplicateId(path, csv.Line, header[Math.Max(idCol, 0)], id, idLines[id]);
+            if (!seenIds.Add(id)) throw InputErrors.DuplicateId(path, csv.Line, header[Math.Max(idCol, 0)], id, FirstLineOf(path, delimiter, idCol, id));
             for (int j = 0; j < p; j++)
             {
                 string raw = f[itemCol[j]];
                 string cell = raw.Trim();
                 if (missing.Contains(cell)) { row[j] = double.NaN; continue; }
-                if (!double.TryParse(cell, NumberStyles.Float, CultureInfo.InvariantCulture, out double v) || !double.IsFinite(v))
+                double v;
+                // Fast path for the common one-digit answer; gives exactly what double.TryParse gives.
+                if (cell.Length == 1 && char.IsAsciiDigit(cell[0])) v = cell[0] - '0';
+                else if (!double.TryParse(cell, NumberStyles.Float, CultureInfo.InvariantCulture, out v) || !double.IsFinite(v))
                     throw InputErrors.NotANumber(path, csv.Line, header[itemCol[j]], raw);
                 var item = codebook.Items[j];
                 if (!item.InRange(v)) throw InputErrors.OutOfRange(path, csv.Line, header[itemCol[j]], raw, item.Min, item.Max);
                 row[j] = v;
             }
-            values.AddRange(row);
-            ids.Add(id);
+            builder.Add(id, row);
+            if (progress is not null && builder.Count % ProgressEveryRows == 0) progress(builder.Count);
         }
-        if (ids.Count == 0) throw InputErrors.HeaderOnly(path);
-        var matrix = new ResponseMatrix(ids, codebook.Items, values.ToArray());
+        if (builder.Count == 0) throw InputErrors.HeaderOnly(path);
+        var matrix = builder.Build();
         return new ResponseIntake(matrix, idCol >= 0 ? header[idCol] : null, delimiter, ignored);
+    }
+
+    /// <summary>Line of the first record whose id is <paramref name="id"/> (re-reads the file; error path only: every
+    /// record before the duplicate was valid, so the first match is the first occurrence).</summary>
+    private static long FirstLineOf(string path, char delimiter, int idCol, string id)
+    {
+        using var csv = new CsvRecordReader(path, delimiter);
+        csv.Read(); // header
+        while (csv.Read())
+            if (csv.Fields.Length > idCol && csv.Fields[idCol].Trim() == id) return csv.Line;
+        return 0;
     }
 
     private static int ChooseIdColumn(string path, string[] header, Dictionary<string, int> position, Codebook codebook, string? requested)

@@ -13,10 +13,19 @@ namespace ItemReduce.IO;
 public sealed class SafeCsvWriter
 {
     private readonly StringBuilder _sb = new();
+    private readonly TextWriter? _sink;
     private readonly int _columns;
 
-    public SafeCsvWriter(IReadOnlyList<string> header)
+    /// <summary>A writer that collects the table in memory (see <see cref="ToString"/>).</summary>
+    public SafeCsvWriter(IReadOnlyList<string> header) : this(header, null)
     {
+    }
+
+    /// <summary>A writer that streams every row to <paramref name="sink"/> as it is appended (nothing is kept in
+    /// memory; <see cref="ToString"/> is then empty). A null sink collects in memory.</summary>
+    public SafeCsvWriter(IReadOnlyList<string> header, TextWriter? sink)
+    {
+        _sink = sink;
         _columns = header.Count;
         AppendRow(header.Select(Text).ToArray());
     }
@@ -46,6 +55,11 @@ public sealed class SafeCsvWriter
             _sb.Append(cells[c]);
         }
         _sb.Append('\n');
+        if (_sink is not null)
+        {
+            _sink.Write(_sb);
+            _sb.Clear();
+        }
     }
 
     /// <summary>The CSV text.</summary>

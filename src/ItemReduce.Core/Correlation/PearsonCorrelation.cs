@@ -24,7 +24,7 @@ namespace ItemReduce.Core.Correlation;
 public static class PearsonCorrelation
 {
     /// <summary>Observations per tile of the complete-data kernel (tile = p × 256 doubles, fits in L2).</summary>
-    private const int TileRows = 256;
+    internal const int TileRows = 256;
 
     /// <summary>Correlation matrix of the columns of <paramref name="data"/>.</summary>
     public static double[,] Compute(ResponseMatrix data, MissingDataHandling handling = MissingDataHandling.Pairwise)
@@ -38,11 +38,10 @@ public static class PearsonCorrelation
         if (handling == MissingDataHandling.Listwise || !data.HasMissing())
         {
             var rows = CompleteRows(data);
-            return rows.Length == data.RespondentCount
-                ? Complete(data.Storage, data.RespondentCount, data.ItemCount, maxDegreeOfParallelism)
-                : Complete(data.SelectRespondents(rows).Storage, rows.Length, data.ItemCount, maxDegreeOfParallelism);
+            var complete = rows.Length == data.RespondentCount ? data : data.SelectRespondents(rows);
+            return Complete(complete.Rows, rows.Length, data.ItemCount, maxDegreeOfParallelism);
         }
-        return Pairwise(data.Storage, data.RespondentCount, data.ItemCount, maxDegreeOfParallelism);
+        return Pairwise(data, maxDegreeOfParallelism);
     }
 
     /// <summary>Indices of the respondents who answered every item.</summary>
@@ -50,18 +49,18 @@ public static class PearsonCorrelation
     {
         var rows = new List<int>(data.RespondentCount);
         for (int i = 0; i < data.RespondentCount; i++)
-        {
-            bool complete = true;
-            foreach (double x in data.Row(i)) if (double.IsNaN(x)) { complete = false; break; }
-            if (complete) rows.Add(i);
-        }
+            if (data.IsComplete(i)) rows.Add(i);
         return rows.ToArray();
     }
 
     /// <summary>Correlations of complete row-major n × p data <paramref name="v"/> (no NaN).</summary>
     internal static double[,] Complete(double[] v, int n, int p, int maxDegreeOfParallelism = -1)
+        => Complete((first, count, _) => v.AsSpan(first * p, count * p), n, p, maxDegreeOfParallelism);
+
+    /// <summary>Correlations of complete n × p data (no NaN) read in row blocks from <paramref name="source"/>.</summary>
+    internal static double[,] Complete(RowBlockSource source, int n, int p, int maxDegreeOfParallelism = -1)
     {
-        var cp = CentredCrossProducts(v, n, p, maxDegreeOfParallelism, out int pp);
+        var cp = CentredCrossProducts(source, n, p, maxDegreeOfParallelism, out int pp);
         var r = new double[p, p];
         for (int j = 0; j < p; j++)
         {
@@ -80,14 +79,34 @@ public static class PearsonCorrelation
     /// Lower triangle (row-major, leading dimension <paramref name="pp"/> = p rounded up to 4) of the centred
     /// cross-product matrix Σ_i (x_i − x̄)(x_i − x̄)ᵀ of complete data.
     /// </summary>
-    internal static double[] CentredCrossProducts(double[] v, int n, int p, int maxDegreeOfParallelism, out int pp)
+    internal static double[] CentredCrossProducts(RowBlockSource source, int n, int p, int maxDegreeOfParallelism, out int pp)
     {
         var mean = new double[p];
-        for (int i = 0; i < n; i++) AddRow(v.AsSpan(i * p, p), mean);
+        var scratch = new double[TileRows * p];
+        for (int t0 = 0; t0 < n; t0 += TileRows)
+        {
+            int rows = Math.Min(TileRows, n - t0);
+            var block = source(t0, rows, scratch);
+            for (int t = 0; t < rows; t++) AddRow(block.Slice(t * p, p), mean);
+        }
         for (int j = 0; j < p; j++) mean[j] /= n;
 
         int padded = (p + 3) & ~3;
         pp = padded;
+        return AccumulateSegments(source, n, p, padded, maxDegreeOfParallelism,
+            (block, rows, tile) => FillCentredTile(block, p, mean, rows, tile));
+    }
+
+    /// <summary>Writes the variable-major tile (padded × <see cref="TileRows"/>) of a row-major block of rows.</summary>
+    internal delegate void TileFill(ReadOnlySpan<double> block, int rows, double[] tile);
+
+    /// <summary>
+    /// Σ over all rows of zᵢ zᵢᵀ (lower triangle, leading dimension <paramref name="padded"/>) where <paramref name="fill"/>
+    /// turns row blocks into tiles of z. Rows are split into a fixed number of segments that depend only on n; segment
+    /// sums are added in segment order, so the result does not depend on the thread count.
+    /// </summary>
+    internal static double[] AccumulateSegments(RowBlockSource source, int n, int p, int padded, int maxDegreeOfParallelism, TileFill fill)
+    {
         int segments = Math.Clamp((n + 4 * TileRows - 1) / (4 * TileRows), 1, 16);
         var partial = new double[segments][];
         var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
@@ -96,10 +115,11 @@ public static class PearsonCorrelation
             int r0 = (int)((long)n * s / segments), r1 = (int)((long)n * (s + 1) / segments);
             var acc = new double[padded * padded];
             var tile = new double[padded * TileRows];
+            var rowScratch = new double[TileRows * p];
             for (int t0 = r0; t0 < r1; t0 += TileRows)
             {
                 int rows = Math.Min(TileRows, r1 - t0);
-                FillCentredTile(v, p, mean, t0, rows, tile);
+                fill(source(t0, rows, rowScratch), rows, tile);
                 AccumulateTile(tile, padded, acc);
             }
             partial[s] = acc;
@@ -118,8 +138,8 @@ public static class PearsonCorrelation
         for (int j = 0; j < row.Length; j++) sum[j] += row[j];
     }
 
-    /// <summary>Transposes rows t0..t0+rows−1 into variable-major tile rows, centred; pads with zeros.</summary>
-    internal static void FillCentredTile(double[] v, int p, double[] mean, int t0, int rows, double[] tile)
+    /// <summary>Transposes a row-major block of <paramref name="rows"/> rows into variable-major tile rows, centred; pads with zeros.</summary>
+    internal static void FillCentredTile(ReadOnlySpan<double> v, int p, double[] mean, int rows, double[] tile)
     {
         if (rows < TileRows) Array.Clear(tile);
         // Variable-outer order: contiguous writes; the strided reads revisit the same 64-byte lines
@@ -128,7 +148,7 @@ public static class PearsonCorrelation
         {
             var dst = tile.AsSpan(j * TileRows, rows);
             double m = mean[j];
-            int o = t0 * p + j;
+            int o = j;
             for (int t = 0; t < dst.Length; t++, o += p) dst[t] = v[o] - m;
         }
     }
@@ -212,52 +232,118 @@ public static class PearsonCorrelation
         acc[o] += s30; acc[o + 1] += s31;
     }
 
-    /// <summary>Pairwise-complete correlations; columns are first copied to contiguous arrays, then each
-    /// row j of the matrix is computed independently (parallel over j, deterministic).</summary>
-    private static double[,] Pairwise(double[] v, int n, int p, int maxDegreeOfParallelism)
+    /// <summary>Rows per block of the pairwise passes (a p × 4096 column-major block of doubles).</summary>
+    private const int PairwiseBlockRows = 4096;
+
+    /// <summary>Pairwise-complete correlations (compact integer data: exact sums, see <see cref="PairwiseExact"/>; otherwise
+    /// two passes over blocks of rows taken in order (pass 1: joint
+    /// counts and sums; pass 2: centred cross-products at the pair's own means). Each block is transposed to
+    /// columns and the rows j of the matrix are processed in parallel; every pair's sums run over the respondents
+    /// in input order, so the result equals a plain column loop bit for bit and does not depend on the thread count.
+    /// Memory is O(p × block), never n × p.</summary>
+    private static double[,] Pairwise(ResponseMatrix data, int maxDegreeOfParallelism)
     {
-        var cols = new double[p][];
-        for (int j = 0; j < p; j++)
+        if (PairwiseSums.Applies(data)) return PairwiseExact(PairwiseSums.Compute(data, maxDegreeOfParallelism), data.ItemCount);
+        int n = data.RespondentCount, p = data.ItemCount;
+        var count = new int[p * p];
+        var sumJ = new double[p * p];   // [j, k]: Σ x_j over rows answering j and k (k < j)
+        var sumK = new double[p * p];   // [j, k]: Σ x_k over the same rows
+        var cjj = new double[p * p];
+        var ckk = new double[p * p];
+        var cjk = new double[p * p];
+        var meanJ = new double[p * p];
+        var meanK = new double[p * p];
+        var rowScratch = new double[PairwiseBlockRows * p];
+        var cols = new double[p * PairwiseBlockRows];
+        var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
+        for (int pass = 0; pass < 2; pass++)
         {
-            var c = new double[n];
-            for (int i = 0; i < n; i++) c[i] = v[i * p + j];
-            cols[j] = c;
+            if (pass == 1)
+                for (int q = 0; q < p * p; q++)
+                    if (count[q] >= 3) { meanJ[q] = sumJ[q] / count[q]; meanK[q] = sumK[q] / count[q]; }
+            for (int i0 = 0; i0 < n; i0 += PairwiseBlockRows)
+            {
+                int rows = Math.Min(PairwiseBlockRows, n - i0);
+                var block = data.Rows(i0, rows, rowScratch);
+                for (int j = 0; j < p; j++)
+                    for (int t = 0, o = j; t < rows; t++, o += p) cols[j * PairwiseBlockRows + t] = block[o];
+                bool first = pass == 0;
+                Parallel.For(1, p, options, j =>
+                {
+                    var cj = new ReadOnlySpan<double>(cols, j * PairwiseBlockRows, rows);
+                    for (int k = 0; k < j; k++)
+                    {
+                        var ck = new ReadOnlySpan<double>(cols, k * PairwiseBlockRows, rows);
+                        int q = j * p + k;
+                        if (first)
+                        {
+                            int m = count[q];
+                            double sj = sumJ[q], sk = sumK[q];
+                            for (int i = 0; i < rows; i++)
+                            {
+                                double a = cj[i], b = ck[i];
+                                if (double.IsNaN(a) || double.IsNaN(b)) continue;
+                                m++; sj += a; sk += b;
+                            }
+                            count[q] = m; sumJ[q] = sj; sumK[q] = sk;
+                        }
+                        else if (count[q] >= 3)
+                        {
+                            double mj = meanJ[q], mk = meanK[q], sjj = cjj[q], skk = ckk[q], sjk = cjk[q];
+                            for (int i = 0; i < rows; i++)
+                            {
+                                double a = cj[i], b = ck[i];
+                                if (double.IsNaN(a) || double.IsNaN(b)) continue;
+                                double da = a - mj, db = b - mk;
+                                sjj += da * da; skk += db * db; sjk += da * db;
+                            }
+                            cjj[q] = sjj; ckk[q] = skk; cjk[q] = sjk;
+                        }
+                    }
+                });
+            }
         }
         var r = new double[p, p];
-        var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
-        Parallel.For(0, p, options, j =>
+        for (int j = 0; j < p; j++)
         {
             r[j, j] = 1.0;
-            var cj = cols[j];
             for (int k = 0; k < j; k++)
             {
-                var ck = cols[k];
-                int m = 0;
-                double sj = 0, sk = 0;
-                for (int i = 0; i < n; i++)
-                {
-                    double a = cj[i], b = ck[i];
-                    if (double.IsNaN(a) || double.IsNaN(b)) continue;
-                    m++; sj += a; sk += b;
-                }
+                int q = j * p + k;
                 double value = double.NaN;
-                if (m >= 3)
+                if (count[q] >= 3)
                 {
-                    double mj = sj / m, mk = sk / m, cjj = 0, ckk = 0, cjk = 0;
-                    for (int i = 0; i < n; i++)
-                    {
-                        double a = cj[i], b = ck[i];
-                        if (double.IsNaN(a) || double.IsNaN(b)) continue;
-                        double da = a - mj, db = b - mk;
-                        cjj += da * da; ckk += db * db; cjk += da * db;
-                    }
-                    double den = Math.Sqrt(cjj * ckk);
-                    if (den > 0) value = cjk / den;
+                    double den = Math.Sqrt(cjj[q] * ckk[q]);
+                    if (den > 0) value = cjk[q] / den;
                 }
                 r[j, k] = value;
                 r[k, j] = value;
             }
-        });
+        }
+        return r;
+    }
+
+    /// <summary>Pairwise-complete correlations of integer-valued data from exact sums (<see cref="PairwiseSums"/>):
+    /// r = m·C_jk / √(m·C_jj · m·C_kk) with every m·C exact, rounded once; the same definition as the two-pass path
+    /// (pair's own means, at least 3 joint answers, NaN for zero variance), computed more accurately.</summary>
+    private static double[,] PairwiseExact(PairwiseSums sums, int p)
+    {
+        var r = new double[p, p];
+        for (int j = 0; j < p; j++)
+        {
+            r[j, j] = 1.0;
+            for (int k = 0; k < j; k++)
+            {
+                double value = double.NaN;
+                if (sums.Count(j, k) >= 3)
+                {
+                    double den = Math.Sqrt((double)sums.ScaledCentredSquares(j, k) * (double)sums.ScaledCentredSquares(k, j));
+                    if (den > 0) value = (double)sums.ScaledCentredProduct(j, k) / den;
+                }
+                r[j, k] = value;
+                r[k, j] = value;
+            }
+        }
         return r;
     }
 
@@ -265,20 +351,33 @@ public static class PearsonCorrelation
     internal static int[,] PairwiseCounts(ResponseMatrix data)
     {
         int n = data.RespondentCount, p = data.ItemCount;
-        var v = data.Storage;
+        if (PairwiseSums.Applies(data))
+        {
+            var sums = PairwiseSums.Compute(data, -1);
+            var c = new int[p, p];
+            for (int j = 0; j < p; j++)
+                for (int k = 0; k < p; k++) c[j, k] = (int)sums.Count(j, k);
+            return c;
+        }
         var counts = new int[p, p];
         var present = new bool[p];
-        for (int i = 0; i < n; i++)
+        data.ForEachBlock(PairwiseBlockRows, (v, rows) =>
         {
-            int o = i * p;
-            for (int j = 0; j < p; j++) present[j] = !double.IsNaN(v[o + j]);
-            for (int j = 0; j < p; j++)
+            for (int o = 0; o < rows * p; o += p)
             {
-                if (!present[j]) continue;
-                for (int k = 0; k <= j; k++) if (present[k]) counts[j, k]++;
+                for (int j = 0; j < p; j++) present[j] = !double.IsNaN(v[o + j]);
+                for (int j = 0; j < p; j++)
+                {
+                    if (!present[j]) continue;
+                    for (int k = 0; k <= j; k++) if (present[k]) counts[j, k]++;
+                }
             }
-        }
+        });
         for (int j = 0; j < p; j++) for (int k = 0; k < j; k++) counts[k, j] = counts[j, k];
         return counts;
     }
 }
+
+/// <summary>Supplies rows first .. first + count − 1 of an n × p data set as a row-major block: either a slice of
+/// existing storage or the block decoded into <paramref name="scratch"/> (length ≥ count × p).</summary>
+internal delegate ReadOnlySpan<double> RowBlockSource(int first, int count, Span<double> scratch);

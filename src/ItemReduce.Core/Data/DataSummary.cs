@@ -21,6 +21,12 @@ public sealed record ItemSummary(string Item, int Answered, double MissingShare,
 public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Items, double MissingShare,
     int RespondentsWithNoAnswers, int CompleteRespondents)
 {
+    /// <summary>Distinct answers are counted up to this many.</summary>
+    private const int DistinctCap = 1000;
+
+    /// <summary>Integers in [−range, range) are tracked in a bitmap instead of a hash set.</summary>
+    private const int SmallIntegerRange = 1024;
+
     /// <summary>Summarises <paramref name="data"/>.</summary>
     public static DataSummary Of(ResponseMatrix data)
     {
@@ -28,30 +34,46 @@ public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Ite
         int n = data.RespondentCount, p = data.ItemCount;
         var m = ItemMoments.Compute(data);
         var items = new ItemSummary[p];
+        var lo = new double[p];
+        var hi = new double[p];
+        Array.Fill(lo, double.PositiveInfinity);
+        Array.Fill(hi, double.NegativeInfinity);
+        // Distinct answers, capped at DistinctCap: small integers (the usual case) in a bitmap, anything else in a set.
+        var distinct = new HashSet<double>[p];
+        var small = new bool[p][];
+        var smallCount = new int[p];
+        for (int j = 0; j < p; j++) { distinct[j] = []; small[j] = new bool[2 * SmallIntegerRange]; }
+        int none = 0, complete = 0;
+        data.ForEachBlock(ItemMoments.BlockRows, (v, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+            {
+                int answered = 0;
+                for (int j = 0; j < p; j++)
+                {
+                    double x = v[o + j];
+                    if (double.IsNaN(x)) continue;
+                    answered++;
+                    lo[j] = Math.Min(lo[j], x);
+                    hi[j] = Math.Max(hi[j], x);
+                    if (smallCount[j] + distinct[j].Count >= DistinctCap) continue;
+                    if (x >= -SmallIntegerRange && x < SmallIntegerRange && Math.Floor(x) == x)
+                    {
+                        ref bool seen = ref small[j][(int)x + SmallIntegerRange];
+                        if (!seen) { seen = true; smallCount[j]++; }
+                    }
+                    else distinct[j].Add(x);
+                }
+                if (answered == 0) none++;
+                if (answered == p) complete++;
+            }
+        });
         long missingCells = 0;
         for (int j = 0; j < p; j++)
         {
-            double lo = double.PositiveInfinity, hi = double.NegativeInfinity;
-            var distinct = new HashSet<double>();
-            for (int i = 0; i < n; i++)
-            {
-                double x = data[i, j];
-                if (double.IsNaN(x)) continue;
-                lo = Math.Min(lo, x);
-                hi = Math.Max(hi, x);
-                if (distinct.Count < 1000) distinct.Add(x);
-            }
             missingCells += n - m.Counts[j];
             items[j] = new ItemSummary(data.Items[j].Name, m.Counts[j], n == 0 ? 0 : (n - m.Counts[j]) / (double)n,
-                m.Means[j], m.StandardDeviations[j], m.Counts[j] > 0 ? lo : double.NaN, m.Counts[j] > 0 ? hi : double.NaN, distinct.Count);
-        }
-        int none = 0, complete = 0;
-        for (int i = 0; i < n; i++)
-        {
-            int answered = 0;
-            foreach (double x in data.Row(i)) if (!double.IsNaN(x)) answered++;
-            if (answered == 0) none++;
-            if (answered == p) complete++;
+                m.Means[j], m.StandardDeviations[j], m.Counts[j] > 0 ? lo[j] : double.NaN, m.Counts[j] > 0 ? hi[j] : double.NaN, smallCount[j] + distinct[j].Count);
         }
         double share = n * p == 0 ? 0 : missingCells / ((double)n * p);
         return new DataSummary(n, items, share, none, complete);

@@ -9,39 +9,40 @@ namespace ItemReduce.Core.Data;
 /// <param name="StandardDeviations">SD per item with the n − 1 normaliser (NaN when fewer than 2 answers).</param>
 public sealed record ItemMoments(int[] Counts, double[] Means, double[] StandardDeviations)
 {
+    /// <summary>Rows decoded per block by the passes over the data.</summary>
+    internal const int BlockRows = 1024;
+
     /// <summary>Computes the moments of every column.</summary>
     public static ItemMoments Compute(ResponseMatrix data)
     {
         ArgumentNullException.ThrowIfNull(data);
         int n = data.RespondentCount, p = data.ItemCount;
-        var v = data.Storage;
         var counts = new int[p];
         var sums = new double[p];
-        for (int i = 0; i < n; i++)
+        // Rows are visited in order, so every column's sum is accumulated in the same order as a plain loop.
+        data.ForEachBlock(BlockRows, (v, rows) =>
         {
-            int o = i * p;
-            for (int j = 0; j < p; j++)
-            {
-                double x = v[o + j];
-                if (double.IsNaN(x)) continue;
-                counts[j]++;
-                sums[j] += x;
-            }
-        }
+            for (int o = 0; o < rows * p; o += p)
+                for (int j = 0; j < p; j++)
+                {
+                    double x = v[o + j];
+                    if (double.IsNaN(x)) continue;
+                    counts[j]++;
+                    sums[j] += x;
+                }
+        });
         var means = new double[p];
         for (int j = 0; j < p; j++) means[j] = counts[j] > 0 ? sums[j] / counts[j] : double.NaN;
         var ss = new double[p];
-        for (int i = 0; i < n; i++)
+        data.ForEachBlock(BlockRows, (v, rows) =>
         {
-            int o = i * p;
-            for (int j = 0; j < p; j++)
-            {
-                double x = v[o + j];
-                if (double.IsNaN(x)) continue;
-                double d = x - means[j];
-                ss[j] += d * d;
-            }
-        }
+            for (int o = 0; o < rows * p; o += p)
+                for (int j = 0; j < p; j++)
+                {
+                    double d = v[o + j] - means[j];
+                    if (!double.IsNaN(d)) ss[j] += d * d;
+                }
+        });
         var sd = new double[p];
         for (int j = 0; j < p; j++) sd[j] = counts[j] > 1 ? Math.Sqrt(ss[j] / (counts[j] - 1)) : double.NaN;
         return new ItemMoments(counts, means, sd);

@@ -10,19 +10,15 @@ public static class ReverseScoring
     public static ResponseMatrix Apply(ResponseMatrix raw)
     {
         ArgumentNullException.ThrowIfNull(raw);
-        int n = raw.RespondentCount, p = raw.ItemCount;
-        var v = (double[])raw.Storage.Clone();
+        int p = raw.ItemCount;
+        var reflect = new bool[p];
+        var sum = new double[p];
         for (int j = 0; j < p; j++)
         {
-            var item = raw.Items[j];
-            if (!item.Reverse) continue;
-            double s = item.Min + item.Max;
-            for (int i = 0; i < n; i++)
-            {
-                long k = (long)i * p + j;
-                if (!double.IsNaN(v[k])) v[k] = s - v[k];
-            }
+            reflect[j] = raw.Items[j].Reverse;
+            sum[j] = raw.Items[j].Min + raw.Items[j].Max;
         }
-        return raw.WithValues(v);
+        // Compact storage: only the decoding tables change; the cells are shared with the input.
+        return raw.Reflect(reflect, sum);
     }
 }

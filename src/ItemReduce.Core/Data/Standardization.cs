@@ -12,15 +12,15 @@ public static class Standardization
     {
         var m = ItemMoments.Compute(data);
         int n = data.RespondentCount, p = data.ItemCount;
-        var src = data.Storage;
-        var z = new double[src.Length];
+        var z = new double[(long)n * p];
         for (int i = 0; i < n; i++)
         {
-            int o = i * p;
+            var row = z.AsSpan(i * p, p);
+            data.CopyRow(i, row);
             for (int j = 0; j < p; j++)
             {
-                double x = src[o + j];
-                z[o + j] = double.IsNaN(x) ? double.NaN : (x - m.Means[j]) / m.StandardDeviations[j];
+                double x = row[j];
+                row[j] = double.IsNaN(x) ? double.NaN : (x - m.Means[j]) / m.StandardDeviations[j];
             }
         }
         return (data.WithValues(z), m);

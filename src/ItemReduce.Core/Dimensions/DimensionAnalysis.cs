@@ -19,7 +19,8 @@ public static class DimensionAnalysis
     /// <param name="options">Settings.</param>
     /// <exception cref="ArgumentException">Invalid options, too few items or respondents, or a pair of items
     /// with fewer than 3 joint answers (its correlation is undefined).</exception>
-    public static DimensionResult Run(ResponseMatrix data, DimensionOptions options)
+    /// <param name="progress">Optional callback told how many permutation-reference replicates are done (every tenth).</param>
+    public static DimensionResult Run(ResponseMatrix data, DimensionOptions options, Action<string>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(options);
@@ -50,7 +51,7 @@ public static class DimensionAnalysis
             reducedEigen = LinearAlgebra.SymmetricEigensolver.Eigenvalues(reduced);
         }
 
-        var reference = Reference(data, options, nEff);
+        var reference = Reference(data, options, nEff, progress);
         var map = VelicerMap.Compute(r);
         int kaiser = KaiserCriterion.Count(eigen);
         var counts = new RuleCounts(
@@ -151,9 +152,12 @@ public static class DimensionAnalysis
         return nEff;
     }
 
-    private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff)
+    private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff, Action<string>? progress)
     {
         var po = ToParallelOptions(o);
+        // Only the permutation reference takes long enough to be worth reporting (the normal one needs well under a second).
+        if (progress is not null && o.Reference == ReferenceKind.Permutation)
+            po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
             return ParallelAnalysis.PermutationReference(data, d => Correlate(d, o, 1), po);
         return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);

@@ -38,12 +38,24 @@ public sealed record ParallelAnalysisOptions
     /// <summary>Thread cap (−1 = all cores). Results do not depend on it.</summary>
     public int MaxDegreeOfParallelism { get; init; } = -1;
 
+    /// <summary>Permutation reference only: with more respondents than this, the replicates shuffle a seeded random
+    /// subsample of this many respondents (<c>RandomStream.ForTask(Seed, 0, subsample purpose)</c>), so the cost per
+    /// replicate does not grow with n; default 50,000, range [100, 10,000,000]. The reference eigenvalues then describe
+    /// random data of the subsample's size, which is conservative (their spread is larger than at the full n).</summary>
+    public int PermutationMaxRows { get; init; } = 50_000;
+
+    /// <summary>Optional progress callback, called from worker threads with the number of replicates finished each time
+    /// another tenth of them is done; default none. It does not affect the results.</summary>
+    public Action<int>? ReplicatesDone { get; init; }
+
     internal void Validate()
     {
         if (Replicates is < 10 or > 100_000)
             throw new ArgumentException($"Replicates must lie in [10, 100000], got {Replicates}.", nameof(Replicates));
         if (!(Percentile > 0 && Percentile < 100))
             throw new ArgumentException($"Percentile must lie in (0, 100), got {Percentile}.", nameof(Percentile));
+        if (PermutationMaxRows is < 100 or > 10_000_000)
+            throw new ArgumentException($"PermutationMaxRows must lie in [100, 10000000], got {PermutationMaxRows}.", nameof(PermutationMaxRows));
         if (MaxDegreeOfParallelism == 0 || MaxDegreeOfParallelism < -1)
             throw new ArgumentException($"MaxDegreeOfParallelism must be −1 or ≥ 1, got {MaxDegreeOfParallelism}.", nameof(MaxDegreeOfParallelism));
     }
@@ -59,7 +71,16 @@ public sealed record ParallelAnalysisOptions
 /// <param name="Kind">Reference kind.</param>
 public sealed record ParallelAnalysisReference(
     double[] Mean, double[] Percentile, double[]? ReducedMean, double[]? ReducedPercentile,
-    int Replicates, double PercentileLevel, ReferenceKind Kind);
+    int Replicates, double PercentileLevel, ReferenceKind Kind)
+{
+    /// <summary>Permutation reference: respondents shuffled in every replicate (all of them, or the seeded
+    /// subsample when there were more than <see cref="ParallelAnalysisOptions.PermutationMaxRows"/>); null for the
+    /// normal reference.</summary>
+    public int? PermutedRespondents { get; init; }
+
+    /// <summary>True when the permutation reference used a seeded random subsample of the respondents.</summary>
+    public bool Subsampled { get; init; }
+}
 
 /// <summary>
 /// Parallel analysis: Horn (1965), "A rationale and test for the number of factors in factor analysis",
@@ -82,6 +103,7 @@ public static class ParallelAnalysis
     internal const ulong NormalPurpose = 0x4E4F524D;      // "NORM"
     internal const ulong PermutationPurpose = 0x5045524D; // "PERM"
     internal const ulong BruteForcePurpose = 0x42525554;  // "BRUT"
+    internal const ulong SubsamplePurpose = 0x50535542;   // "PSUB"
 
     /// <summary>Normal-reference eigenvalues for <paramref name="respondents"/> × <paramref name="items"/> data.</summary>
     /// <exception cref="ArgumentException">items &lt; 1, respondents ≤ items, or invalid options.</exception>
@@ -104,6 +126,43 @@ public static class ParallelAnalysis
         ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
     {
         options.Validate();
+        int all = data.RespondentCount;
+        bool subsampled = all > options.PermutationMaxRows;
+        if (subsampled) data = data.SelectRespondents(SubsampleRows(all, options.PermutationMaxRows, options.Seed));
+        int n = data.RespondentCount, p = data.ItemCount;
+        var reference = data.IsCompact ? PermuteCodes(data, correlate, options) : PermuteValues(data, correlate, options);
+        return reference with { PermutedRespondents = n, Subsampled = subsampled };
+    }
+
+    /// <summary>Permutation replicates of compact data: the byte codes are shuffled (the same permutations as
+    /// <see cref="PermuteValues"/> would apply, since each column is shuffled by the same stream), so every
+    /// replicate is itself compact and is correlated by the fast exact path.</summary>
+    private static ParallelAnalysisReference PermuteCodes(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    {
+        int n = data.RespondentCount, p = data.ItemCount;
+        var columns = new byte[p][];
+        for (int j = 0; j < p; j++) columns[j] = data.ColumnCodes(j);
+        using var codes = new ThreadLocal<byte[]>(() => new byte[(long)n * p]);
+        using var shuffledColumn = new ThreadLocal<byte[]>(() => new byte[n]);
+        return Run(p, options with { Reference = ReferenceKind.Permutation }, PermutationPurpose, () => [],
+            (rng, _, r) =>
+            {
+                var buffer = codes.Value!;
+                var shuffled = shuffledColumn.Value!;
+                for (int j = 0; j < p; j++)
+                {
+                    columns[j].CopyTo(shuffled, 0);
+                    rng.Shuffle(shuffled.AsSpan());
+                    for (int i = 0; i < n; i++) buffer[(long)i * p + j] = shuffled[i];
+                }
+                var c = correlate(data.WithCodes(buffer));
+                Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
+            });
+    }
+
+    /// <summary>Permutation replicates of dense data: shuffled doubles in a per-worker buffer.</summary>
+    private static ParallelAnalysisReference PermuteValues(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    {
         int n = data.RespondentCount, p = data.ItemCount;
         var columns = new double[p][];
         for (int j = 0; j < p; j++) columns[j] = data.Column(j);
@@ -120,6 +179,17 @@ public static class ParallelAnalysis
                 var c = correlate(data.WithValues(buffer));
                 Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
             });
+    }
+
+    /// <summary>A seeded random subset of <paramref name="count"/> of the rows 0 .. n − 1, in ascending order.</summary>
+    internal static int[] SubsampleRows(int n, int count, ulong seed)
+    {
+        var rows = new int[n];
+        for (int i = 0; i < n; i++) rows[i] = i;
+        RandomStream.ForTask(seed, 0, SubsamplePurpose).Shuffle(rows.AsSpan());
+        var chosen = rows[..count];
+        Array.Sort(chosen);
+        return chosen;
     }
 
     /// <summary>
@@ -164,6 +234,7 @@ public static class ParallelAnalysis
         var eig = new double[reps][];
         var eigReduced = reduced ? new double[reps][] : null;
         var po = new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism };
+        int done = 0, step = Math.Max(1, reps / 10);
         Parallel.For(0, reps, po, () => new ReplicateBuffers(p, newScratch()), (rep, _, b) =>
         {
             var rng = RandomStream.ForTask(options.Seed, rep, purpose);
@@ -176,6 +247,8 @@ public static class ParallelAnalysis
                 eigReduced[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.Reduced, p, b.D, b.E, b.Tri).Clone();
             }
             eig[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.R, p, b.D, b.E, b.Tri).Clone();
+            int finished = Interlocked.Increment(ref done);
+            if (options.ReplicatesDone is { } report && finished % step == 0) report(finished);
             return b;
         }, _ => { });
         var (mean, pct) = Summarise(eig, p, options.Percentile);

@@ -27,7 +27,7 @@ public static class SurveyPipeline
         if (settings.Scope is PipelineScope.Screen or PipelineScope.All)
         {
             progress?.Invoke($"screening {prepared.Scored.RespondentCount} respondents");
-            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered));
+            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered, progress));
             if (settings.Scope == PipelineScope.All)
             {
                 var keep = new List<int>();
@@ -62,7 +62,7 @@ public static class SurveyPipeline
         if (settings.Scope != PipelineScope.Shorten || dimOptions.FixedFactors is null)
         {
             progress?.Invoke($"dimensions: correlations, eigenvalues and parallel analysis ({dimOptions.Replicates} replicates)");
-            dims = Stage("dimensions", () => DimensionAnalysis.Run(analysed, dimOptions));
+            dims = Stage("dimensions", () => DimensionAnalysis.Run(analysed, dimOptions, progress));
         }
         if (settings.Scope == PipelineScope.Dimensions)
             return new PipelineResult { Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded, Dimensions = dims, Warnings = warnings };
@@ -80,7 +80,7 @@ public static class SurveyPipeline
             k = maxK;
         }
         progress?.Invoke(string.Create(ci, $"factoring {analysed.ItemCount} items into {k} factor(s) and building the short form"));
-        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, settings.ShortForm with { Seed = settings.Seed }));
+        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, settings.ShortForm with { Seed = settings.Seed }, progress));
         return new PipelineResult
         {
             Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,

@@ -1,3 +1,4 @@
+using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Reliability;
@@ -52,30 +53,84 @@ public static class ScaleReliability
     /// <summary>Sample covariance (n − 1, two-pass) of the given columns over rows complete on them.</summary>
     internal static (double[,] Covariance, int N) ListwiseCovariance(ResponseMatrix data, IReadOnlyList<int> columns)
     {
-        int k = columns.Count, rows = data.RespondentCount;
-        var complete = new List<int>();
-        for (int i = 0; i < rows; i++)
-        {
-            bool ok = true;
-            foreach (int c in columns) if (double.IsNaN(data[i, c])) { ok = false; break; }
-            if (ok) complete.Add(i);
-        }
-        int n = complete.Count;
+        if (columns.Count == data.ItemCount && columns.Select((c, i) => c == i).All(b => b) && PairwiseSums.Applies(data))
+            return ExactListwiseCovariance(data);
+        int k = columns.Count, p = data.ItemCount;
+        var cols = columns.ToArray();
+        // Rows are decoded in blocks and visited in order, so the sums run in the same order as a row loop.
+        const int blockRows = 1024;
+        int n = 0;
         var mean = new double[k];
-        foreach (int i in complete) for (int a = 0; a < k; a++) mean[a] += data[i, columns[a]];
+        data.ForEachBlock(blockRows, (v, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+            {
+                if (!CompleteOn(v, o, cols)) continue;
+                n++;
+                for (int a = 0; a < k; a++) mean[a] += v[o + cols[a]];
+            }
+        });
         for (int a = 0; a < k; a++) mean[a] = n > 0 ? mean[a] / n : double.NaN;
         var cov = new double[k, k];
         var d = new double[k];
-        foreach (int i in complete)
+        data.ForEachBlock(blockRows, (v, rows) =>
         {
-            for (int a = 0; a < k; a++) d[a] = data[i, columns[a]] - mean[a];
-            for (int a = 0; a < k; a++)
-                for (int b = 0; b <= a; b++) cov[a, b] += d[a] * d[b];
-        }
+            for (int o = 0; o < rows * p; o += p)
+            {
+                if (!CompleteOn(v, o, cols)) continue;
+                for (int a = 0; a < k; a++) d[a] = v[o + cols[a]] - mean[a];
+                for (int a = 0; a < k; a++)
+                    for (int b = 0; b <= a; b++) cov[a, b] += d[a] * d[b];
+            }
+        });
         for (int a = 0; a < k; a++)
             for (int b = 0; b <= a; b++)
                 cov[a, b] = cov[b, a] = n > 1 ? cov[a, b] / (n - 1) : double.NaN;
         return (cov, n);
+    }
+
+    /// <summary>
+    /// The same covariance for compact integer-valued data from exact sums over the complete rows: with Z = [X | 1] on
+    /// complete rows (zero rows elsewhere), Zᵀ Z holds n, Σx and Σxy as exact integers (accumulated in parallel by the
+    /// tiled kernel); <c>n·C_ab = n·Σx_a x_b − Σx_a Σx_b</c> is formed in 128-bit integers and rounded once.
+    /// </summary>
+    private static (double[,] Covariance, int N) ExactListwiseCovariance(ResponseMatrix data)
+    {
+        int k = data.ItemCount, rowsTotal = data.RespondentCount, tileRows = PearsonCorrelation.TileRows;
+        int padded = (k + 1 + 3) & ~3;
+        var zz = PearsonCorrelation.AccumulateSegments(data.Rows, rowsTotal, k, padded, -1, (block, rows, tile) =>
+        {
+            Array.Clear(tile);
+            for (int t = 0; t < rows; t++)
+            {
+                if (!CompleteOn(block, t * k, k)) continue;
+                for (int a = 0; a < k; a++) tile[a * tileRows + t] = block[t * k + a];
+                tile[k * tileRows + t] = 1;
+            }
+        });
+        long n = (long)zz[k * padded + k];
+        var sum = new long[k];
+        for (int a = 0; a < k; a++) sum[a] = (long)zz[k * padded + a];
+        var cov = new double[k, k];
+        for (int a = 0; a < k; a++)
+            for (int b = 0; b <= a; b++)
+            {
+                Int128 scaled = n * (Int128)(long)zz[a * padded + b] - (Int128)sum[a] * sum[b];
+                cov[a, b] = cov[b, a] = n > 1 ? (double)scaled / ((double)n * (n - 1)) : double.NaN;
+            }
+        return (cov, (int)n);
+    }
+
+    private static bool CompleteOn(ReadOnlySpan<double> v, int offset, int count)
+    {
+        for (int c = 0; c < count; c++) if (double.IsNaN(v[offset + c])) return false;
+        return true;
+    }
+
+    private static bool CompleteOn(ReadOnlySpan<double> v, int offset, int[] cols)
+    {
+        foreach (int c in cols) if (double.IsNaN(v[offset + c])) return false;
+        return true;
     }
 
     internal static double[,] ToCorrelation(double[,] cov)

@@ -1,4 +1,5 @@
 using System.Collections.Concurrent;
+using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Screening;
 
@@ -8,7 +9,7 @@ namespace ItemReduce.Core.Screening;
 /// for respondents who may have skipped items: D² uses only the items respondent i answered, with the matching
 /// sub-vector of μ and sub-matrix of Σ, so under multivariate normality it follows χ² with
 /// df = items answered. Each distinct missing-data pattern is factorised (Cholesky) once and cached, up to
-/// <see cref="CacheBudgetDoubles"/> stored factor entries (about 256 MB); patterns met after the budget is spent are
+/// <see cref="CacheBudgetDoubles"/> stored factor entries (about 32 MB); patterns met after the budget is spent are
 /// factorised for each respondent without being stored, so memory stays bounded when nearly every row is unique.
 /// A respondent with no answers gets NaN; so does one whose sub-matrix cannot be factorised.
 /// </summary>
@@ -23,7 +24,7 @@ internal sealed class MahalanobisDistance
     private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
 
     /// <summary>Most factor entries (doubles) kept in the pattern cache.</summary>
-    internal const long CacheBudgetDoubles = 32L << 20;
+    internal const long CacheBudgetDoubles = 4L << 20;
 
     private long _cachedDoubles;
 
@@ -49,11 +50,13 @@ internal sealed class MahalanobisDistance
     public bool FullFactorAvailable => _full is not null;
 
     /// <summary>
-    /// D² of every row of the row-major <paramref name="v"/> (n × p) and the number of items each row answered.
-    /// Rows are processed in parallel blocks; the result does not depend on the thread count.
+    /// D² of every row of <paramref name="data"/> (n × p) and the number of items each row answered.
+    /// Rows are decoded and processed in parallel blocks; the result does not depend on the thread count.
     /// </summary>
-    public (double[] D2, int[] Answered) Compute(double[] v, int n)
+    public (double[] D2, int[] Answered) Compute(ResponseMatrix data)
     {
+        int n = data.RespondentCount;
+        if (data.ItemCount != _p) throw new ArgumentException($"data has {data.ItemCount} items, the distance {_p}.", nameof(data));
         var d2 = new double[n];
         var answered = new int[n];
         const int block = 4096;
@@ -62,9 +65,13 @@ internal sealed class MahalanobisDistance
         {
             var work = new double[_p];
             var diff = new double[_p];
+            var row = new double[_p];
             int end = Math.Min(n, (b + 1) * block);
             for (int i = b * block; i < end; i++)
-                d2[i] = Row(v, i * _p, diff, work, out answered[i]);
+            {
+                data.CopyRow(i, row);
+                d2[i] = Row(row, 0, diff, work, out answered[i]);
+            }
         });
         return (d2, answered);
     }

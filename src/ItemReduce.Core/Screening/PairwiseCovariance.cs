@@ -1,3 +1,4 @@
+using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using MathNet.Numerics.LinearAlgebra;
 
@@ -25,14 +26,11 @@ internal static class PairwiseCovariance
     /// <summary>Item means (over answered values) and the pairwise-complete covariance (p × p).</summary>
     public static (double[] Mean, double[,] Covariance, int PairsWithoutOverlap) Compute(ResponseMatrix data)
     {
-        var v = data.Storage;
         int n = data.RespondentCount, p = data.ItemCount;
-        bool complete = true;
-        foreach (double x in v) if (double.IsNaN(x)) { complete = false; break; }
-        if (complete)
+        if (!data.HasMissing())
         {
             if (n < 2) return (new double[p].Select(_ => double.NaN).ToArray(), Nan(p), p * (p + 1) / 2);
-            var (m, flat) = RowMoments.MeanCovariance(v, p, Enumerable.Range(0, n).ToArray(), n - 1);
+            var (m, flat) = RowMoments.MeanCovariance(data, n - 1);
             var full = new double[p, p];
             for (int j = 0; j < p; j++)
                 for (int k = 0; k < p; k++) full[j, k] = flat[j * p + k];
@@ -40,9 +38,30 @@ internal static class PairwiseCovariance
         }
 
         var mean = ItemMoments.Compute(data).Means;
-        var (cov, without) = PairwiseCrossProducts(v, n, p);
+        var (cov, without) = PairwiseSums.Applies(data) ? FromExactSums(PairwiseSums.Compute(data, -1), p) : PairwiseCrossProducts(data);
         return (mean, cov, without);
     }
+
+    /// <summary>The same covariances from exact integer sums (compact integer-valued data): m·C_jk is exact, then
+    /// divided once by m (m − 1).</summary>
+    private static (double[,] Cov, int PairsWithoutOverlap) FromExactSums(PairwiseSums sums, int p)
+    {
+        var cov = new double[p, p];
+        int without = 0;
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k <= j; k++)
+            {
+                long m = sums.Count(j, k);
+                double c = 0;
+                if (m < 2) without++;
+                else c = (double)sums.ScaledCentredProduct(j, k) / ((double)m * (m - 1));
+                cov[j, k] = cov[k, j] = c;
+            }
+        return (cov, without);
+    }
+
+    /// <summary>Rows decoded at a time inside a block.</summary>
+    private const int DecodeRows = 512;
 
     /// <summary>Preferred rows per block of the pairwise passes.</summary>
     private const int PreferredBlockRows = 16_384;
@@ -55,8 +74,9 @@ internal static class PairwiseCovariance
     /// answers m_jk and sums x_j over the rows answering both j and k (the pair's own mean of j); pass 2 adds the
     /// centred cross-products. Blocks of rows are processed in parallel and combined in block order.
     /// </summary>
-    private static (double[,] Cov, int PairsWithoutOverlap) PairwiseCrossProducts(double[] v, int n, int p)
+    private static (double[,] Cov, int PairsWithoutOverlap) PairwiseCrossProducts(ResponseMatrix v)
     {
+        int n = v.RespondentCount, p = v.ItemCount;
         // The block layout depends only on n and p (never on the thread count), so the sums are reproducible.
         long byMemory = Math.Max(1, BlockMemoryDoubles / ((long)p * p));
         int blocks = (int)Math.Max(1, Math.Min((n + PreferredBlockRows - 1) / PreferredBlockRows, byMemory));
@@ -95,7 +115,7 @@ internal static class PairwiseCovariance
     /// One pass over the row blocks in parallel. Without <paramref name="pairMean"/>: joint counts (lower triangle)
     /// and pair-restricted sums (full square). With it: centred cross-products (lower triangle) in the second array.
     /// </summary>
-    private static (long[][] Counts, double[][] Sums) Accumulate(double[] v, int n, int p, int blocks, int blockRows, double[]? pairMean)
+    private static (long[][] Counts, double[][] Sums) Accumulate(ResponseMatrix data, int n, int p, int blocks, int blockRows, double[]? pairMean)
     {
         var counts = new long[blocks][];
         var sums = new double[blocks][];
@@ -104,10 +124,17 @@ internal static class PairwiseCovariance
             var c = new long[pairMean is null ? p * p : 0];
             var s = new double[p * p];
             var idx = new int[p];
+            var scratch = new double[DecodeRows * p];
             int end = Math.Min(n, (b + 1) * blockRows);
-            for (int i = b * blockRows; i < end; i++)
+            ReadOnlySpan<double> v = default;
+            for (int i = b * blockRows, i0 = i; i < end; i++)
             {
-                int o = i * p, q = Answered(v, o, p, idx);
+                if (i == i0 || i - i0 == DecodeRows)
+                {
+                    i0 = i;
+                    v = data.Rows(i0, Math.Min(DecodeRows, end - i0), scratch);
+                }
+                int o = (i - i0) * p, q = Answered(v, o, p, idx);
                 for (int a = 0; a < q; a++)
                 {
                     int ja = idx[a];
@@ -132,7 +159,7 @@ internal static class PairwiseCovariance
     }
 
     /// <summary>Writes the answered item indices of the row at <paramref name="offset"/> into <paramref name="idx"/>; returns their count.</summary>
-    private static int Answered(double[] v, int offset, int p, int[] idx)
+    private static int Answered(ReadOnlySpan<double> v, int offset, int p, int[] idx)
     {
         int q = 0;
         for (int j = 0; j < p; j++) if (!double.IsNaN(v[offset + j])) idx[q++] = j;

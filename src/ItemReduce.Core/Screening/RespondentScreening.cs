@@ -29,7 +29,8 @@ public static class RespondentScreening
     /// <param name="asAnswered">Optional responses as given (before reverse scoring), same respondents and items in the
     /// same order. When given, long-string and IRV use them (a respondent who ticks the same box throughout shows a
     /// flat profile only before reverse scoring); otherwise they use <paramref name="data"/>.</param>
-    public static ScreeningResult Run(ResponseMatrix data, ScreeningOptions options, ResponseMatrix? asAnswered = null)
+    /// <param name="progress">Optional callback told when each step starts (for progress reports on large data).</param>
+    public static ScreeningResult Run(ResponseMatrix data, ScreeningOptions options, ResponseMatrix? asAnswered = null, Action<string>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(options);
@@ -40,9 +41,9 @@ public static class RespondentScreening
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new List<string>();
-        var v = data.Storage;
 
         // 1. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
+        progress?.Invoke("screening: item means and covariances");
         var (mean, rawCov, noOverlap) = PairwiseCovariance.Compute(data);
         if (noOverlap > 0)
             warnings.Add($"{noOverlap} item pair(s) had fewer than 2 respondents answering both; their covariance was set to 0.");
@@ -53,10 +54,11 @@ public static class RespondentScreening
                          "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
         var classical = new MahalanobisDistance(mean, cov);
-        var (d2, answered) = classical.Compute(v, n);
+        progress?.Invoke("screening: classical distances");
+        var (d2, answered) = classical.Compute(data);
 
         // 2. Robust distances from FAST-MCD on complete rows.
-        var (robust, robustD2) = RobustDistances(data, options, warnings);
+        var (robust, robustD2) = RobustDistances(data, options, warnings, progress);
 
         // 3. Cutoffs and p-values, df = items answered.
         var cutoffByDf = new double[p + 1];
@@ -74,14 +76,20 @@ public static class RespondentScreening
         if (options.UseRobust && !robust.Available)
             warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
 
-        var rows = new RespondentScreeningRow[n];
-        var raw = asAnswered?.Storage ?? v;
+        progress?.Invoke("screening: careless-response indices");
+        var rows = new ScreeningRowStore(data.RespondentIds, p, answered, d2, robustD2, cutoffByDf);
+        var raw = asAnswered ?? data;
         Parallel.For(0, (n + 4095) / 4096, b =>
         {
+            var x = new double[p];
+            var rawRow = new double[p];
             int end = Math.Min(n, (b + 1) * 4096);
             for (int i = b * 4096; i < end; i++)
-                rows[i] = ScreenOne(i, data.RespondentIds[i], new ReadOnlySpan<double>(v, i * p, p), new ReadOnlySpan<double>(raw, i * p, p),
-                    d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
+            {
+                data.CopyRow(i, x);
+                raw.CopyRow(i, rawRow);
+                ScreenOne(i, rows, x, rawRow, d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
+            }
         });
 
         int nanDistance = 0;
@@ -96,14 +104,15 @@ public static class RespondentScreening
         if (noAnswers > 0) warnings.Add($"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
 
         var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
-            rows.Count(r => r.Reasons.Contains(code)))).ToList();
-        int flagged = rows.Count(r => r.Flagged);
+            rows.CountWith(ScreeningRowStore.Bit(code)))).ToList();
+        int flagged = rows.Flagged();
         string rule = Describe(options, useRobust, runLimit, p, evenOdd);
         var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options);
     }
 
-    private static RespondentScreeningRow ScreenOne(int i, string id, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
+    /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
+    private static void ScreenOne(int i, ScreeningRowStore rows, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
         double d2, double robustD2, int answered, double[] cutoffByDf, EvenOddConsistency evenOdd, int runLimit, bool useRobust, ScreeningOptions o)
     {
         int p = x.Length;
@@ -115,29 +124,36 @@ public static class RespondentScreening
         double eo = evenOdd.Compute(x, out int eoSubscales);
         double missing = (p - answered) / (double)p;
 
-        var reasons = new List<string>(2);
-        if (useRobust && robustD2 > cutoff) reasons.Add(ScreeningReasons.RobustDistance);
-        if (!useRobust && d2 > cutoff) reasons.Add(ScreeningReasons.ClassicalDistance);
-        if (longString >= runLimit) reasons.Add(ScreeningReasons.RepeatedAnswerRun);
-        if (irv < o.FlatVariabilityLimit) reasons.Add(ScreeningReasons.FlatProfile);
-        if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons.Add(ScreeningReasons.HalvesDisagree);
-        if (missing > o.MissingShareLimit) reasons.Add(ScreeningReasons.MostlyUnanswered);
-        return new RespondentScreeningRow(id, answered, d2, robustD2, cutoff, pValue, robustP, longString, irv, eo, missing,
-            reasons.Count > 0, reasons);
+        int reasons = 0;
+        if (useRobust && robustD2 > cutoff) reasons |= RobustBit;
+        if (!useRobust && d2 > cutoff) reasons |= ClassicalBit;
+        if (longString >= runLimit) reasons |= RunBit;
+        if (irv < o.FlatVariabilityLimit) reasons |= FlatBit;
+        if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons |= HalvesBit;
+        if (missing > o.MissingShareLimit) reasons |= UnansweredBit;
+        rows.PValue[i] = pValue;
+        rows.RobustPValue[i] = robustP;
+        rows.LongString[i] = longString;
+        rows.Irv[i] = irv;
+        rows.EvenOdd[i] = eo;
+        rows.ReasonMask[i] = (byte)reasons;
     }
 
+    private static readonly int RobustBit = ScreeningRowStore.Bit(ScreeningReasons.RobustDistance);
+    private static readonly int ClassicalBit = ScreeningRowStore.Bit(ScreeningReasons.ClassicalDistance);
+    private static readonly int RunBit = ScreeningRowStore.Bit(ScreeningReasons.RepeatedAnswerRun);
+    private static readonly int FlatBit = ScreeningRowStore.Bit(ScreeningReasons.FlatProfile);
+    private static readonly int HalvesBit = ScreeningRowStore.Bit(ScreeningReasons.HalvesDisagree);
+    private static readonly int UnansweredBit = ScreeningRowStore.Bit(ScreeningReasons.MostlyUnanswered);
+
     /// <summary>FAST-MCD on the complete rows (subsampled above the cap), then robust D² on each respondent's answered items.</summary>
-    private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings)
+    private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings,
+        Action<string>? progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
-        var v = data.Storage;
         var complete = new List<int>();
         for (int i = 0; i < n; i++)
-        {
-            bool ok = true;
-            for (int j = 0; j < p; j++) if (double.IsNaN(v[i * p + j])) { ok = false; break; }
-            if (ok) complete.Add(i);
-        }
+            if (data.IsComplete(i)) complete.Add(i);
         var nan = new double[n];
         Array.Fill(nan, double.NaN);
         RobustEstimatorDetails Unavailable(string note, int used = 0, bool sub = false)
@@ -160,8 +176,9 @@ public static class RespondentScreening
         }
         int m = rowsUsed.Count;
         var x = new double[(long)m * p];
-        for (int r = 0; r < m; r++) Array.Copy(v, (long)rowsUsed[r] * p, x, (long)r * p, p);
+        for (int r = 0; r < m; r++) data.CopyRow(rowsUsed[r], x.AsSpan(r * p, p));
         int? h = o.RobustSupportFraction is double f ? Math.Clamp((int)Math.Ceiling(f * m), p + 1, m) : null;
+        progress?.Invoke(string.Create(CultureInfo.InvariantCulture, $"screening: FAST-MCD on {m} complete respondents"));
         FastMcdEstimate fit;
         try
         {
@@ -175,7 +192,8 @@ public static class RespondentScreening
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         if (!dist.FullFactorAvailable)
             return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), nan);
-        var (robustD2, _) = dist.Compute(v, n);
+        progress?.Invoke("screening: robust distances");
+        var (robustD2, _) = dist.Compute(data);
         string note = subsampled
             ? $"FAST-MCD fitted to a seeded random subsample of {m} of the {complete.Count} complete respondents; robust distances computed for everyone."
             : $"FAST-MCD fitted to the {m} complete respondents; robust distances of respondents with missing answers use the matching parts of the robust location and scatter.";

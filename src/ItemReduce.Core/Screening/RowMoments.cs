@@ -3,6 +3,45 @@ namespace ItemReduce.Core.Screening;
 /// <summary>Mean vector and covariance of selected complete rows (two passes for numerical stability).</summary>
 internal static class RowMoments
 {
+    /// <summary>Two-pass mean and cross-product matrix of every (complete) row of <paramref name="data"/> divided by
+    /// <paramref name="divisor"/>; row-major p × p. Rows are decoded in blocks, in order, so the sums equal those of
+    /// <see cref="MeanCovariance(double[], int, int[], int)"/> on the decoded array.</summary>
+    public static (double[] Mean, double[] Cov) MeanCovariance(ItemReduce.Core.Data.ResponseMatrix data, int divisor)
+    {
+        int n = data.RespondentCount, p = data.ItemCount;
+        const int blockRows = 1024;
+        var mean = new double[p];
+        data.ForEachBlock(blockRows, (x, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+                for (int j = 0; j < p; j++) mean[j] += x[o + j];
+        });
+        for (int j = 0; j < p; j++) mean[j] /= n;
+        var cov = new double[p * p];
+        var d = new double[p];
+        data.ForEachBlock(blockRows, (x, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+            {
+                for (int j = 0; j < p; j++) d[j] = x[o + j] - mean[j];
+                AddOuter(d, cov, p);
+            }
+        });
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k <= j; k++) cov[k * p + j] = cov[j * p + k] /= divisor;
+        return (mean, cov);
+    }
+
+    private static void AddOuter(double[] d, double[] cov, int p)
+    {
+        for (int j = 0; j < p; j++)
+        {
+            double dj = d[j];
+            int o = j * p;
+            for (int k = 0; k <= j; k++) cov[o + k] += dj * d[k];
+        }
+    }
+
     /// <summary>Two-pass mean and cross-product matrix of the given rows divided by <paramref name="divisor"/>; row-major p × p.</summary>
     public static (double[] Mean, double[] Cov) MeanCovariance(double[] x, int p, int[] rows, int divisor)
     {
@@ -15,12 +54,7 @@ internal static class RowMoments
         foreach (int r in rows)
         {
             for (int j = 0; j < p; j++) d[j] = x[r * p + j] - mean[j];
-            for (int j = 0; j < p; j++)
-            {
-                double dj = d[j];
-                int o = j * p;
-                for (int k = 0; k <= j; k++) cov[o + k] += dj * d[k];
-            }
+            AddOuter(d, cov, p);
         }
         for (int j = 0; j < p; j++)
             for (int k = 0; k <= j; k++) cov[k * p + j] = cov[j * p + k] /= divisor;

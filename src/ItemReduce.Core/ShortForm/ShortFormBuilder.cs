@@ -28,7 +28,8 @@ public static class ShortFormBuilder
     /// <param name="factors">Number of factors k, 1 ≤ k &lt; p.</param>
     /// <param name="options">Options; null = defaults.</param>
     /// <exception cref="ArgumentException">Invalid data, k or options (message gives value and range).</exception>
-    public static ShortFormResult Build(ResponseMatrix data, int factors, ShortFormOptions? options = null)
+    /// <param name="progress">Optional callback told when each step starts (for progress reports on large data).</param>
+    public static ShortFormResult Build(ResponseMatrix data, int factors, ShortFormOptions? options = null, Action<string>? progress = null)
     {
         var o = options ?? new ShortFormOptions();
         Validate(data, factors, o);
@@ -39,12 +40,15 @@ public static class ShortFormBuilder
         var warnings = new List<string>();
 
         var subscales = data.Items.Select(i => string.IsNullOrEmpty(i.Subscale) ? null : i.Subscale).ToList();
+        progress?.Invoke("short form: correlations");
         var r = PearsonCorrelation.Compute(sel, o.MissingData);
+        progress?.Invoke("short form: factor solution");
         var full = FactorAnalysis.Fit(r, sel.RespondentCount, factors, o.Factoring with { ItemSubscales = subscales });
         warnings.AddRange(full.Warnings.Select(w => "Full solution: " + w));
 
         var scales = AssignScales(data, full, subscales);
         WarnSharedHomes(scales, warnings);
+        progress?.Invoke("short form: scale reliability and item judgements");
         var flags = new ItemFlags[data.ItemCount];
         foreach (var sc in scales)
         {
@@ -81,6 +85,7 @@ public static class ShortFormBuilder
         var selected = chosenAll.Order().ToList();
         var shortSolution = Refit(r, sel.RespondentCount, factors, selected, subscales, o, warnings);
 
+        progress?.Invoke("short form: reliability of full and short forms");
         var rows = new List<ReliabilityRow>();
         AddRows(rows, sel, scales, scaleResults, data, holdRows.Length > 0 ? SampleRole.Selection : SampleRole.All, o.Confidence);
         if (holdRows.Length > 0)

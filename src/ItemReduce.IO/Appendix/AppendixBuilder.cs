@@ -163,19 +163,27 @@ public static class AppendixBuilder
         if (complete.Count >= 10)
         {
             int n = complete.Count;
-            var q = Enumerable.Range(0, n).Select(i => ChiSquared.InvCDF(p, (i + 0.5) / n)).ToList();
+            var ranks = QqRanks(n);
+            var q = ranks.Select(i => ChiSquared.InvCDF(p, (i + 0.5) / n)).ToList();
+            var d2 = ranks.Select(i => complete[i]).ToList();
+            string thinned = ranks.Count < n
+                ? Inv($" For legibility {ranks.Count} order statistics are drawn: {QqEvenRanks} evenly spaced ranks and the {QqTailRanks} largest distances.")
+                : "";
             b.Figure(Inv($"{(robust ? "Robust" : "Classical")} squared distances of the {n} respondents who answered all {p} items against χ²({p}) quantiles. ") +
-                     "Points on the diagonal behave as expected under multivariate normality; points far above it at the right are the atypical respondents.",
+                     "Points on the diagonal behave as expected under multivariate normality; points far above it at the right are the atypical respondents." + thinned,
                 new ChartSpec(ChartKind.Scatter, Inv($"χ²({p}) quantile"), robust ? "Robust D²" : "D²",
-                    [new ChartSeries("Respondents", q, complete, SeriesStyle.Markers)]) { IdentityLine = true });
+                    [new ChartSeries("Respondents", q, d2, SeriesStyle.Markers)]) { IdentityLine = true });
         }
 
-        var flagged = s.Respondents.Where(x => x.Flagged).ToList();
+        var flagged = s.Respondents.Where(x => x.Flagged).Take(FlaggedTableLimit + 1).ToList();
         if (flagged.Count > 0)
         {
+            string more = flagged.Count > FlaggedTableLimit
+                ? Inv($" Only the first {FlaggedTableLimit} of the {s.FlaggedRespondents} flagged respondents (input order) are listed; respondent-flags.csv lists every respondent with the flag and its reasons.")
+                : "";
             b.Table("Respondents flagged for review (ids only)", [new("Respondent"), new("Items answered", ColumnAlignment.Right), new("Reasons")],
-                flagged.Select(x => Row(x.RespondentId, Integer(x.ItemsAnswered), string.Join(", ", x.Reasons))).ToList(),
-                "Responses are not reproduced here. Look at each flagged respondent's answers before deciding anything; atypical is not the same as invalid.");
+                flagged.Take(FlaggedTableLimit).Select(x => Row(x.RespondentId, Integer(x.ItemsAnswered), string.Join(", ", x.Reasons))).ToList(),
+                "Responses are not reproduced here. Look at each flagged respondent's answers before deciding anything; atypical is not the same as invalid." + more);
         }
         refs.Add(MethodReferences.Mahalanobis1936);
         refs.Add(MethodReferences.RousseeuwVanDriessen1999);
@@ -215,7 +223,8 @@ public static class AppendixBuilder
         b.Heading(1, "4. Number of dimensions");
         var pa = d.Reference;
         string refKind = pa.Kind == ReferenceKind.Permutation
-            ? "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)"
+            ? "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)" +
+              (pa.Subsampled ? Inv($"; to keep the cost independent of the sample size, every shuffled data set was built from the same seeded random subsample of {pa.PermutedRespondents} of the {r.Analysed.RespondentCount} respondents, which makes the reference somewhat conservative") : "")
             : Inv($"uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition");
         b.Para(Inv($"Parallel analysis compared each eigenvalue of the correlation matrix with the mean and the {pa.PercentileLevel}th percentile of the same eigenvalue in {pa.Replicates} {refKind}. ") +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
@@ -404,5 +413,26 @@ public static class AppendixBuilder
             b.Heading(2, "Warnings raised during this run");
             b.Bullets(warnings);
         }
+    }
+
+    /// <summary>Most rows of the flagged-respondent table; the full list is in respondent-flags.csv.</summary>
+    internal const int FlaggedTableLimit = 500;
+
+    /// <summary>Evenly spaced ranks drawn in the Q–Q plot when there are more points than <see cref="QqEvenRanks"/> + <see cref="QqTailRanks"/>.</summary>
+    internal const int QqEvenRanks = 2000;
+
+    /// <summary>Largest distances always drawn in a thinned Q–Q plot (the tail is where atypical respondents show).</summary>
+    internal const int QqTailRanks = 100;
+
+    /// <summary>0-based ranks of the order statistics drawn in the Q–Q plot of <paramref name="n"/> distances: all of
+    /// them up to <see cref="QqEvenRanks"/> + <see cref="QqTailRanks"/>, otherwise evenly spaced ranks (first and last
+    /// included) plus the largest <see cref="QqTailRanks"/>, ascending and distinct.</summary>
+    internal static List<int> QqRanks(int n)
+    {
+        if (n <= QqEvenRanks + QqTailRanks) return Enumerable.Range(0, n).ToList();
+        var ranks = new SortedSet<int>();
+        for (int k = 0; k < QqEvenRanks; k++) ranks.Add((int)((long)k * (n - 1) / (QqEvenRanks - 1)));
+        for (int i = n - QqTailRanks; i < n; i++) ranks.Add(i);
+        return ranks.ToList();
     }
 }

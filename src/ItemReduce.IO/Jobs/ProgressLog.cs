@@ -6,11 +6,16 @@ public sealed class ProgressLog(TextWriter? sink)
     /// <summary>A log that discards everything.</summary>
     public static readonly ProgressLog Silent = new(null);
 
-    /// <summary>Reports one step.</summary>
+    private readonly Lock _gate = new();
+
+    /// <summary>Reports one step (safe to call from several threads).</summary>
     public void Step(string message)
     {
         if (sink is null) return;
-        sink.WriteLine("itemreduce: " + message);
-        sink.Flush();
+        lock (_gate)
+        {
+            sink.WriteLine("itemreduce: " + message);
+            sink.Flush();
+        }
     }
 }

@@ -33,7 +33,8 @@ public static class SurveyJob
         }
         if (result.Screening is { } s)
         {
-            Write("respondent-flags.csv", ScreeningTables.RespondentFlags(s));
+            staging.WriteText("respondent-flags.csv", w => ScreeningTables.WriteRespondentFlags(s, w));
+            files.Add("respondent-flags.csv");
             Write("centre-share-by-items.csv", ScreeningTables.CentreShare(s));
         }
         if (result.Dimensions is { } d)

@@ -14,7 +14,17 @@ public static class SurveyLoader
         log.Step($"reading codebook {settings.Codebook}");
         var (codebook, lines) = CodebookReader.Read(settings.Codebook);
         log.Step($"reading responses {settings.Responses}");
-        var intake = ResponseReader.Read(settings.Responses, codebook, lines, settings.Codebook, settings.Intake);
+        // The fingerprint is computed on the second core while the (single-threaded) reader parses the file.
+        var responsesHash = Task.Run(() => TryFingerprint(settings.Responses));
+        var clock = System.Diagnostics.Stopwatch.StartNew();
+        long lastReport = 0;
+        var intake = ResponseReader.Read(settings.Responses, codebook, lines, settings.Codebook, settings.Intake, rows =>
+        {
+            // At most about one message per second.
+            if (clock.ElapsedMilliseconds - lastReport < 1000) return;
+            lastReport = clock.ElapsedMilliseconds;
+            log.Step(string.Create(System.Globalization.CultureInfo.InvariantCulture, $"read {rows:N0} rows ({rows / clock.Elapsed.TotalSeconds:N0} rows/s)"));
+        });
         log.Step($"read {intake.Responses.RespondentCount} respondents × {intake.Responses.ItemCount} items");
         var prepared = PreparedData.From(intake.Responses);
         int usable = prepared.Scored.ItemCount;
@@ -22,6 +32,14 @@ public static class SurveyLoader
         int answering = prepared.RawSummary.Respondents - prepared.RawSummary.RespondentsWithNoAnswers;
         int need = PreparedData.MinimumRespondents(usable);
         if (answering < need) throw InputErrors.TooFewRespondents(settings.Responses, answering, need, usable);
-        return new LoadedSurvey(intake, prepared, FileFingerprint.Sha256(settings.Responses), FileFingerprint.Sha256(settings.Codebook));
+        string responsesSha = responsesHash.Result ?? FileFingerprint.Sha256(settings.Responses);
+        return new LoadedSurvey(intake, prepared, responsesSha, FileFingerprint.Sha256(settings.Codebook));
+    }
+
+    /// <summary>The SHA-256 of a file, or null when it cannot be read now (the caller then reads it again and reports errors itself).</summary>
+    private static string? TryFingerprint(string path)
+    {
+        try { return FileFingerprint.Sha256(path); }
+        catch (Exception e) when (e is IOException or UnauthorizedAccessException or SurveyInputException) { return null; }
     }
 }

@@ -1,3 +1,4 @@
+using System.Globalization;
 using ItemReduce.Core.Screening;
 using static ItemReduce.IO.SafeCsvWriter;
 
@@ -14,15 +15,98 @@ public static class ScreeningTables
     /// </summary>
     public static string RespondentFlags(ScreeningResult r)
     {
-        var w = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
-            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"]);
-        foreach (var x in r.Respondents)
+        using var text = new StringWriter(System.Globalization.CultureInfo.InvariantCulture) { NewLine = "\n" };
+        WriteRespondentFlags(r, text);
+        return text.ToString();
+    }
+
+    /// <summary>Streams <c>respondent-flags.csv</c> (same bytes as <see cref="RespondentFlags"/>) to
+    /// <paramref name="sink"/> row by row, so a large panel never becomes one string in memory.</summary>
+    public static void WriteRespondentFlags(ScreeningResult r, TextWriter sink)
+    {
+        ArgumentNullException.ThrowIfNull(r);
+        ArgumentNullException.ThrowIfNull(sink);
+        _ = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
+            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"], sink);
+        // Rows are formatted straight into reused buffers with the same cell rules as SafeCsvWriter (Text, Integer,
+        // Number, Bool), so no per-cell strings are made; reason cells are cached per reason list. Blocks of rows are
+        // formatted in parallel and written in input order.
+        var reasonCells = new System.Collections.Concurrent.ConcurrentDictionary<IReadOnlyList<string>, string>(ReferenceEqualityComparer.Instance);
+        var rows = r.Respondents;
+        int n = rows.Count, blocks = Math.Max(1, Environment.ProcessorCount) * 2;
+        var buffers = new RowBuffer[blocks];
+        for (int b = 0; b < blocks; b++) buffers[b] = new RowBuffer();
+        for (int start = 0; start < n; start += blocks * FormatBlockRows)
         {
-            w.AppendRow([Text(x.RespondentId), Integer(x.ItemsAnswered), Number(x.D2, Decimals), Number(x.RobustD2, Decimals),
-                Number(x.Cutoff, Decimals), Number(x.PValue), Integer(x.LongString), Number(x.Irv, Decimals), Number(x.MissingShare, Decimals),
-                Bool(x.Flagged), Text(string.Join(';', x.Reasons)), Number(x.RobustPValue), Number(x.EvenOdd, Decimals)]);
+            int first = start;
+            Parallel.For(0, blocks, b =>
+            {
+                var line = buffers[b];
+                line.Clear();
+                int end = (int)Math.Min(n, first + (long)(b + 1) * FormatBlockRows);
+                for (int i = first + b * FormatBlockRows; i < end; i++)
+                {
+                    var x = rows[i];
+                    string reasons = reasonCells.GetOrAdd(x.Reasons, list => Text(string.Join(';', list)));
+                    line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
+                        .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
+                        .Text(Bool(x.Flagged)).Sep().Text(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Text("\n");
+                }
+            });
+            foreach (var line in buffers) sink.Write(line.Span);
         }
-        return w.ToString();
+    }
+
+    /// <summary>Rows formatted per parallel block of <see cref="WriteRespondentFlags"/>.</summary>
+    private const int FormatBlockRows = 8192;
+
+    /// <summary>A growable character buffer for CSV rows; numbers are formatted as <see cref="SafeCsvWriter.Number(double)"/>
+    /// and <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> would format them.</summary>
+    private sealed class RowBuffer
+    {
+        private char[] _chars = new char[1 << 16];
+        private int _length;
+
+        public ReadOnlySpan<char> Span => _chars.AsSpan(0, _length);
+
+        public void Clear() => _length = 0;
+
+        public RowBuffer Sep() => Text(",");
+
+        public RowBuffer Text(string s)
+        {
+            Ensure(s.Length);
+            s.CopyTo(_chars.AsSpan(_length));
+            _length += s.Length;
+            return this;
+        }
+
+        public RowBuffer Integer(long v) => Format(v);
+
+        /// <summary>As <see cref="SafeCsvWriter.Number(double)"/>: round-trip text, empty for NaN/infinity.</summary>
+        public RowBuffer Number(double v) => double.IsFinite(v) ? Format(v) : this;
+
+        /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals.</summary>
+        public RowBuffer Rounded(double v) => double.IsFinite(v) ? Format(Math.Round(v, Decimals)) : this;
+
+        private RowBuffer Format<T>(T v) where T : ISpanFormattable
+        {
+            while (true)
+            {
+                Ensure(32);
+                if (v.TryFormat(_chars.AsSpan(_length), out int written, typeof(T) == typeof(double) ? "R" : default, CultureInfo.InvariantCulture))
+                {
+                    _length += written;
+                    return this;
+                }
+                Array.Resize(ref _chars, _chars.Length * 2);
+            }
+        }
+
+        private void Ensure(int extra)
+        {
+            if (_length + extra > _chars.Length) Array.Resize(ref _chars, Math.Max(_chars.Length * 2, _length + extra));
+        }
     }
 
     /// <summary>

@@ -62,6 +62,11 @@ public static class SummaryJson
                 ["replicates"] = d.Reference.Replicates,
                 ["percentile"] = Num(d.Reference.PercentileLevel),
             };
+            if (d.Reference.PermutedRespondents is int permuted)
+            {
+                root["parallelAnalysis"]!["permutedRespondents"] = permuted;
+                root["parallelAnalysis"]!["subsampled"] = d.Reference.Subsampled;
+            }
             root["kmo"] = Num(d.Kmo);
             root["msa"] = new JsonObject(r.Analysed.Items.Select((it, j) => KeyValuePair.Create(it.Name, Num(d.Msa[j]))));
             root["bartlett"] = new JsonObject { ["chi2"] = Num(d.Bartlett.ChiSquare), ["df"] = d.Bartlett.DegreesOfFreedom, ["p"] = Num(d.Bartlett.P) };

@@ -14,7 +14,7 @@ public class ReverseScoringTests
         // Rule x' = min + max − x: common practice, no source.
         var m = new ResponseMatrix(["r1", "r2"], [Forward, Reversed, Reversed07], [1, 1, 0, 4, double.NaN, 7]);
         var r = ReverseScoring.Apply(m);
-        Assert.Equal([1.0, 5.0, 7.0, 4.0, double.NaN, 0.0], r.Values.ToArray());
+        Assert.Equal([1.0, 5.0, 7.0, 4.0, double.NaN, 0.0], r.ToArray());
         Assert.Equal(1.0, m[0, 1]); // input untouched
     }
 
@@ -23,6 +23,6 @@ public class ReverseScoringTests
     {
         var m = new ResponseMatrix(["r1", "r2", "r3"], [Reversed, Reversed07], [1, 2, 3, 4, 5, 6]);
         var twice = ReverseScoring.Apply(ReverseScoring.Apply(m));
-        Assert.Equal(m.Values.ToArray(), twice.Values.ToArray());
+        Assert.Equal(m.ToArray(), twice.ToArray());
     }
 }

@@ -14,8 +14,12 @@ public class FastMcdTests
     private static double[] RobustD2(double[] x, int n, int p, FastMcdEstimate fit)
     {
         var d = new MahalanobisDistance(fit.Location, fit.Scatter);
-        return d.Compute(x, n).D2;
+        return d.Compute(Dense(x, n, p)).D2;
     }
+
+    private static ItemReduce.Core.Data.ResponseMatrix Dense(double[] x, int n, int p) =>
+        new(Enumerable.Range(1, n).Select(i => i.ToString(System.Globalization.CultureInfo.InvariantCulture)).ToList(),
+            Enumerable.Range(1, p).Select(j => new ItemReduce.Core.Data.ItemDefinition("x" + j, null, false, double.MinValue, double.MaxValue, null)).ToList(), x);
 
     [Theory]
     [InlineData("mcd_small.csv", false)]
@@ -75,7 +79,7 @@ public class FastMcdTests
         var (mean, flat) = RowMoments.MeanCovariance(x, p, all, n - 1);
         var cov = new double[p, p];
         for (int j = 0; j < p; j++) for (int k = 0; k < p; k++) cov[j, k] = flat[j * p + k];
-        var classical = new MahalanobisDistance(mean, cov).Compute(x, n).D2;
+        var classical = new MahalanobisDistance(mean, cov).Compute(Dense(x, n, p)).D2;
         var robust = RobustD2(x, n, p, FastMcd.Fit(x, n, p, new FastMcdSettings(Seed: 2)));
         double cut = ChiSquareTail.UpperQuantile(0.001, p);
         var planted = all.Where(i => rows[i][p] == 1).ToArray();

@@ -66,7 +66,7 @@ public class MahalanobisDistanceTests
         var data = Matrix(rows, 4);
         var (mean, cov, _) = PairwiseCovariance.Compute(data);
         var d = new MahalanobisDistance(mean, cov);
-        d.Compute(data.Storage, data.RespondentCount);
+        d.Compute(data);
         // Patterns in the fixture: one item missing (4 patterns) plus the empty row, which needs no factor.
         var patterns = rows.Select(r => string.Concat(r.Take(4).Select(x => double.IsNaN(x) ? '0' : '1')))
             .Where(s => s.Contains('0') && s.Contains('1')).Distinct().Count();

@@ -79,7 +79,7 @@ public class RespondentScreeningContractTests
         // One respondent ticks "5" on every item as presented; the reverse-keyed items then score 1 after reverse
         // scoring, so the analysed profile alternates and only the as-given answers show the straight line.
         var s = Survey(300, 0.0, 5, reverse: true);
-        var raw = s.Responses.Storage.ToArray();
+        var raw = s.Responses.ToArray();
         for (int j = 0; j < 12; j++) raw[j] = 5;
         var asGiven = s.Responses.WithValues(raw);
         var analysed = ReverseScoring.Apply(asGiven);

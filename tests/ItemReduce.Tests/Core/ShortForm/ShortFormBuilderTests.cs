@@ -32,7 +32,7 @@ public class ShortFormBuilderTests
         if (subscaleOverride is not null)
         {
             var items = data.Items.Select((it, j) => it with { Subscale = subscaleOverride[j] }).ToList();
-            data = new ResponseMatrix(data.RespondentIds, items, data.Values.ToArray());
+            data = new ResponseMatrix(data.RespondentIds, items, data.ToArray());
         }
         return (data, sim);
     }

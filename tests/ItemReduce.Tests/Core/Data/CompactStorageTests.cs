@@ -1,0 +1,242 @@
+using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Randomness;
+using ItemReduce.Core.Screening;
+using ItemReduce.Simulation;
+
+namespace ItemReduce.Tests.Core.Data;
+
+/// <summary>
+/// Compact (one byte per cell) storage against the dense double path on the same values: decoding, views,
+/// reverse scoring and the kernels must give the same doubles bit for bit (property checks: the two storages
+/// hold the same numbers, so every result must agree exactly; no outside values are needed).
+/// </summary>
+public class CompactStorageTests
+{
+    private static readonly ItemDefinition[] Items =
+    [
+        new("a", "S1", false, 1, 5, null), new("b", "S1", true, 1, 5, null), new("c", "S2", false, 0, 10, null),
+        new("d", "S2", true, 0, 6, null), new("e", "S3", false, -3, 3, null), new("f", "S3", true, 1, 7, null),
+        new("g", "S1", false, 1, 4, null),
+    ];
+
+    /// <summary>Random integer answers within each item's range, with <paramref name="missing"/> share missing.</summary>
+    private static (string[] Ids, double[] Values) RandomAnswers(int n, double missing, ulong seed)
+    {
+        var rng = new RandomStream(seed);
+        int p = Items.Length;
+        var v = new double[n * p];
+        for (int i = 0; i < n; i++)
+        {
+            // A common component makes the items correlate, so covariance matrices are well conditioned.
+            double common = rng.NextGaussian();
+            for (int j = 0; j < p; j++)
+            {
+                var it = Items[j];
+                int k = (int)(it.Max - it.Min) + 1;
+                double u = Math.Clamp(0.5 + 0.25 * common + 0.2 * rng.NextGaussian(), 0, 0.999999);
+                v[i * p + j] = rng.NextDouble() < missing ? double.NaN : it.Min + Math.Floor(u * k);
+            }
+        }
+        return (Enumerable.Range(1, n).Select(i => "r" + i).ToArray(), v);
+    }
+
+    private static (ResponseMatrix Compact, ResponseMatrix Dense) Both(int n, double missing, ulong seed)
+    {
+        var (ids, v) = RandomAnswers(n, missing, seed);
+        var builder = new ResponseMatrixBuilder(Items);
+        for (int i = 0; i < n; i++) builder.Add(ids[i], v.AsSpan(i * Items.Length, Items.Length));
+        Assert.True(builder.IsCompact);
+        var compact = builder.Build();
+        Assert.True(compact.IsCompact);
+        return (compact, new ResponseMatrix(ids, Items, v));
+    }
+
+    private static void AssertSameBits(double[] expected, double[] actual)
+    {
+        Assert.Equal(expected.Length, actual.Length);
+        for (int k = 0; k < expected.Length; k++)
+            Assert.True(BitConverter.DoubleToInt64Bits(expected[k]) == BitConverter.DoubleToInt64Bits(actual[k]),
+                $"cell {k}: expected {expected[k]:R}, got {actual[k]:R}");
+    }
+
+    private static void AssertSameBits(double[,] expected, double[,] actual) =>
+        AssertSameBits(expected.Cast<double>().ToArray(), actual.Cast<double>().ToArray());
+
+    [Theory]
+    [InlineData(0.0, 1UL)]
+    [InlineData(0.1, 2UL)]
+    public void Decoding_equals_the_stored_doubles_through_views_and_reverse_scoring(double missing, ulong seed)
+    {
+        var (compact, dense) = Both(1500, missing, seed);
+        AssertSameBits(dense.ToArray(), compact.ToArray());
+        Assert.Equal(dense.HasMissing(), compact.HasMissing());
+
+        var rc = ReverseScoring.Apply(compact);
+        var rd = ReverseScoring.Apply(dense);
+        Assert.True(rc.IsCompact); // only the decoding table changed
+        AssertSameBits(rd.ToArray(), rc.ToArray());
+
+        int[] rows = [1499, 3, 3, 700, 0];
+        int[] cols = [6, 1, 4];
+        var vc = rc.SelectRespondents(rows).SelectItems(cols);
+        var vd = rd.SelectRespondents(rows).SelectItems(cols);
+        AssertSameBits(vd.ToArray(), vc.ToArray());
+        Assert.Equal(vd.RespondentIds, vc.RespondentIds);
+        for (int i = 0; i < rows.Length; i++)
+            for (int j = 0; j < cols.Length; j++)
+                Assert.Equal(BitConverter.DoubleToInt64Bits(vd[i, j]), BitConverter.DoubleToInt64Bits(vc[i, j]));
+        var block = new double[2 * cols.Length];
+        AssertSameBits(vd.ToArray()[3..9], vc.Rows(1, 2, block).ToArray());
+    }
+
+    [Fact]
+    public void Complete_data_give_bit_identical_correlations_moments_and_distances()
+    {
+        var (c0, d0) = Both(3000, 0.0, 3);
+        var compact = ReverseScoring.Apply(c0);
+        var dense = ReverseScoring.Apply(d0);
+        foreach (var handling in new[] { MissingDataHandling.Pairwise, MissingDataHandling.Listwise })
+            AssertSameBits(PearsonCorrelation.Compute(dense, handling, 1), PearsonCorrelation.Compute(compact, handling, -1));
+        AssertSameMoments(dense, compact);
+
+        var (meanC, covC, _) = PairwiseCovariance.Compute(compact);
+        var (meanD, covD, _) = PairwiseCovariance.Compute(dense);
+        AssertSameBits(meanD, meanC);
+        AssertSameBits(covD, covC);
+        var (dc, ac) = new MahalanobisDistance(meanC, covC).Compute(compact);
+        var (dd, ad) = new MahalanobisDistance(meanD, covD).Compute(dense);
+        Assert.Equal(ad, ac);
+        AssertSameBits(dd, dc);
+
+        var sc = RespondentScreening.Run(compact, new ScreeningOptions(), c0);
+        var sd = RespondentScreening.Run(dense, new ScreeningOptions(), d0);
+        Assert.Equal(sd.Respondents, sc.Respondents, (x, y) =>
+            x.RespondentId == y.RespondentId && x.Reasons.SequenceEqual(y.Reasons) &&
+            (x with { Reasons = [] }).Equals(y with { Reasons = [] }));
+    }
+
+    private static void AssertSameMoments(ResponseMatrix dense, ResponseMatrix compact)
+    {
+        var mc = ItemMoments.Compute(compact);
+        var md = ItemMoments.Compute(dense);
+        Assert.Equal(md.Counts, mc.Counts);
+        AssertSameBits(md.Means, mc.Means);
+        AssertSameBits(md.StandardDeviations, mc.StandardDeviations);
+    }
+
+    /// <summary>Pairwise-complete covariance (m − 1) and correlation of items j, k in exact rational arithmetic:
+    /// an independent brute-force reference (BigInteger sums over the respondents answering both).</summary>
+    private static (double Cov, double R) ExactPair(ResponseMatrix d, int j, int k)
+    {
+        System.Numerics.BigInteger m = 0, sj = 0, sk = 0, sjj = 0, skk = 0, sjk = 0;
+        for (int i = 0; i < d.RespondentCount; i++)
+        {
+            double a = d[i, j], b = d[i, k];
+            if (double.IsNaN(a) || double.IsNaN(b)) continue;
+            var x = new System.Numerics.BigInteger(a);
+            var y = new System.Numerics.BigInteger(b);
+            m++; sj += x; sk += y; sjj += x * x; skk += y * y; sjk += x * y;
+        }
+        var cjk = m * sjk - sj * sk;       // m² × covariance × (m − 1) / m
+        var cjj = m * sjj - sj * sj;
+        var ckk = m * skk - sk * sk;
+        double cov = (double)cjk / ((double)m * (double)(m - 1));
+        double r = (double)cjk / Math.Sqrt((double)cjj * (double)ckk);
+        return (cov, r);
+    }
+
+    [Fact]
+    public void With_missing_answers_pairwise_moments_of_integer_data_are_exact()
+    {
+        var (c0, d0) = Both(3000, 0.08, 4);
+        var compact = ReverseScoring.Apply(c0);
+        var dense = ReverseScoring.Apply(d0);
+        AssertSameMoments(dense, compact);
+        // Listwise deletion still takes the complete-data path: bit-identical.
+        AssertSameBits(PearsonCorrelation.Compute(dense, MissingDataHandling.Listwise, 1), PearsonCorrelation.Compute(compact, MissingDataHandling.Listwise, -1));
+
+        // Pairwise: the compact path sums integers exactly and rounds once, so it matches the exact rational value to
+        // a few ulps; the dense two-pass path agrees to rounding error.
+        var rc = PearsonCorrelation.Compute(compact, MissingDataHandling.Pairwise, -1);
+        var rd = PearsonCorrelation.Compute(dense, MissingDataHandling.Pairwise, 1);
+        var (_, covC, withoutC) = PairwiseCovariance.Compute(compact);
+        var (_, covD, withoutD) = PairwiseCovariance.Compute(dense);
+        Assert.Equal(withoutD, withoutC);
+        int p = compact.ItemCount;
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k <= j; k++)
+            {
+                var (cov, r) = ExactPair(compact, j, k);
+                Assert.Equal(cov, covC[j, k], Math.Abs(cov) * 1e-15);
+                Assert.Equal(covD[j, k], covC[j, k], Math.Abs(cov) * 1e-12);
+                if (j == k) continue;
+                Assert.Equal(r, rc[j, k], 1e-15);
+                Assert.Equal(rd[j, k], rc[j, k], 1e-12);
+            }
+    }
+
+    [Fact]
+    public void Listwise_scale_covariance_of_integer_data_is_exact()
+    {
+        var (c0, d0) = Both(2500, 0.05, 6);
+        var compact = ReverseScoring.Apply(c0).SelectRespondents(Enumerable.Range(0, 2500).Where(i => i % 7 != 3).ToList());
+        var dense = ReverseScoring.Apply(d0).SelectRespondents(Enumerable.Range(0, 2500).Where(i => i % 7 != 3).ToList());
+        var all = Enumerable.Range(0, compact.ItemCount).ToArray();
+        var (covC, nC) = ItemReduce.Core.Reliability.ScaleReliability.ListwiseCovariance(compact, all);
+        var (covD, nD) = ItemReduce.Core.Reliability.ScaleReliability.ListwiseCovariance(dense, all);
+        Assert.Equal(nD, nC);
+        // Independent reference: exact rational covariance over the complete rows (BigInteger sums).
+        var complete = Enumerable.Range(0, compact.RespondentCount).Where(compact.IsComplete).ToList();
+        Assert.Equal(complete.Count, nC);
+        var listwise = compact.SelectRespondents(complete);
+        for (int a = 0; a < all.Length; a++)
+            for (int b = 0; b <= a; b++)
+            {
+                var (cov, _) = ExactPair(listwise, a, b);
+                Assert.Equal(cov, covC[a, b], Math.Abs(cov) * 1e-15);
+                Assert.Equal(covD[a, b], covC[a, b], Math.Abs(cov) * 1e-12);
+            }
+    }
+
+    [Fact]
+    public void The_builder_falls_back_to_doubles_for_values_without_an_exact_code()
+    {
+        var items = new ItemDefinition[] { new("x", null, false, 1, 5, null), new("y", null, false, 0, 100, null) };
+        var b = new ResponseMatrixBuilder(items);
+        b.Add("1", [3, 40]);
+        b.Add("2", [double.NaN, 0]);
+        Assert.True(b.IsCompact);
+        b.Add("3", [2.5, 7]); // not an integer code: switch to doubles, keeping earlier rows
+        Assert.False(b.IsCompact);
+        b.Add("4", [-0.0 + 1, double.NaN]);
+        var m = b.Build();
+        Assert.False(m.IsCompact);
+        AssertSameBits([3, 40, double.NaN, 0, 2.5, 7, 1, double.NaN], m.ToArray());
+
+        // Scales that cannot be coded in one byte are dense from the start.
+        Assert.False(ResponseMatrixBuilder.CanStoreCompact(new ItemDefinition("w", null, false, 0, 255, null)));
+        Assert.False(ResponseMatrixBuilder.CanStoreCompact(new ItemDefinition("h", null, false, 0.5, 4.5, null)));
+        Assert.True(ResponseMatrixBuilder.CanStoreCompact(new ItemDefinition("k", null, false, -127, 127, null)));
+    }
+
+    [Fact]
+    public void Simulated_surveys_read_through_the_builder_screen_identically()
+    {
+        // Planted factor model with careless respondents (our simulator), dense vs compact.
+        var s = FactorModelSimulator.Generate(FactorModelSpec.Simple(3, 4, 0.7, 0.3) with
+            { ReverseKeyed = Enumerable.Range(0, 12).Select(j => j % 4 == 1).ToArray() },
+            new FactorModelSimulator.Settings(800, 9, 0.03, 5, 5));
+        var dense = s.Responses;
+        var b = new ResponseMatrixBuilder(dense.Items);
+        var row = new double[dense.ItemCount];
+        for (int i = 0; i < dense.RespondentCount; i++) { dense.CopyRow(i, row); b.Add(dense.RespondentIds[i], row); }
+        var compact = b.Build();
+        Assert.True(compact.IsCompact);
+        var rc = RespondentScreening.Run(ReverseScoring.Apply(compact), new ScreeningOptions(), compact);
+        var rd = RespondentScreening.Run(ReverseScoring.Apply(dense), new ScreeningOptions(), dense);
+        Assert.Equal(rd.FlaggedRespondents, rc.FlaggedRespondents);
+        AssertSameBits(rd.Respondents.Select(x => x.RobustD2).ToArray(), rc.Respondents.Select(x => x.RobustD2).ToArray());
+        AssertSameBits(rd.Respondents.Select(x => x.EvenOdd).ToArray(), rc.Respondents.Select(x => x.EvenOdd).ToArray());
+    }
+}
