@@ -98,8 +98,10 @@ public static class SurveyPipeline
         {
             throw new AnalysisStoppedException(name, e.Message.Split(" (Parameter")[0], e);
         }
-        catch (Exception e) when (e.GetType().Name.Contains("Convergence", StringComparison.Ordinal))
+        catch (Exception e) when (e is Factoring.FactorNonConvergenceException or LinearAlgebra.NonConvergenceException
+                                       or LinearAlgebra.MatrixNotPositiveDefiniteException)
         {
+            // Data-driven numerical failures (an iteration cap, a singular matrix): a property of these data.
             throw new AnalysisStoppedException(name, e.Message, e);
         }
     }
