@@ -54,7 +54,8 @@ public static class FactorAnalysis
             warnings.Add($"{o.Rotation} rotation did not converge within {o.MaxIterations} iterations; treat the rotated loadings as provisional.");
         if (heywood.Count > 0)
             warnings.Add("Heywood case (communality at or above 1) for item(s) " +
-                         string.Join(", ", heywood.Select(j => (j + 1).ToString(CultureInfo.InvariantCulture))) +
+                         string.Join(", ", heywood.Select(j => o.ItemNames is { } names && names.Count == correlation.GetLength(0)
+                             ? names[j] : (j + 1).ToString(CultureInfo.InvariantCulture))) +
                          ": too many factors, too few respondents or a near-duplicate item; interpret with care.");
 
         var patternArray = pattern.ToArray();

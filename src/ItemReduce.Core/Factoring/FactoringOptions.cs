@@ -61,4 +61,7 @@ public sealed record FactoringOptions
     /// by their dominant subscale (see <see cref="FactorAlignment"/>); null = label F1..Fk.
     /// </summary>
     public IReadOnlyList<string?>? ItemSubscales { get; init; }
+
+    /// <summary>Optional item names (length p), used only in warnings; null = 1-based item numbers.</summary>
+    public IReadOnlyList<string>? ItemNames { get; init; }
 }

@@ -43,7 +43,7 @@ public static class ShortFormBuilder
         progress?.Invoke("short form: correlations");
         var r = PearsonCorrelation.Compute(sel, o.MissingData);
         progress?.Invoke("short form: factor solution");
-        var full = FactorAnalysis.Fit(r, sel.RespondentCount, factors, o.Factoring with { ItemSubscales = subscales });
+        var full = FactorAnalysis.Fit(r, sel.RespondentCount, factors, o.Factoring with { ItemSubscales = subscales, ItemNames = data.Items.Select(i => i.Name).ToList() });
         warnings.AddRange(full.Warnings.Select(w => "Full solution: " + w));
 
         var scales = AssignScales(data, full, subscales);
@@ -83,7 +83,7 @@ public static class ShortFormBuilder
 
         var judgements = Enumerable.Range(0, data.ItemCount).Select(j => Judge(data, full, flags[j], chosenAll.Contains(j), forcedAll.Contains(j))).ToList();
         var selected = chosenAll.Order().ToList();
-        var shortSolution = Refit(r, sel.RespondentCount, factors, selected, subscales, o, warnings);
+        var shortSolution = Refit(r, sel.RespondentCount, factors, selected, subscales, data.Items.Select(i => i.Name).ToList(), o, warnings);
 
         progress?.Invoke("short form: reliability of full and short forms");
         var rows = new List<ReliabilityRow>();
@@ -151,7 +151,7 @@ public static class ShortFormBuilder
             f.SecondaryLoading, f.Communality, f.ItemTotal, f.AlphaIfDeleted, f.ScaleAlpha);
     }
 
-    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, IReadOnlyList<string?> subscales, ShortFormOptions o, List<string> warnings)
+    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, IReadOnlyList<string?> subscales, IReadOnlyList<string> names, ShortFormOptions o, List<string> warnings)
     {
         if (selected.Count <= k || selected.Count < 3)
         {
@@ -163,7 +163,7 @@ public static class ShortFormBuilder
             for (int b = 0; b < selected.Count; b++) sub[a, b] = r[selected[a], selected[b]];
         try
         {
-            var s = FactorAnalysis.Fit(sub, n, k, o.Factoring with { ItemSubscales = selected.Select(j => subscales[j]).ToList() });
+            var s = FactorAnalysis.Fit(sub, n, k, o.Factoring with { ItemSubscales = selected.Select(j => subscales[j]).ToList(), ItemNames = selected.Select(j => names[j]).ToList() });
             warnings.AddRange(s.Warnings.Select(w => "Short-form refit: " + w));
             return s;
         }
