@@ -174,6 +174,22 @@ public class InputErrorTests
     }
 
     [Fact]
+    public void Unwritable_output_location_is_a_clear_one_line_error()
+    {
+        using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40));
+        string file = Path.Combine(s.Folder, "a-file");
+        File.WriteAllText(file, "x");
+        var under = TempSurvey.Cli("run", "--responses", s.Responses, "--codebook", s.Codebook, "--out", Path.Combine(file, "results"), "--replicates", "20");
+        Assert.Equal(2, under.Code);
+        Assert.Contains("could not be written", under.Err);
+        Assert.Contains("No partial results were kept", under.Err);
+        var onto = TempSurvey.Cli("run", "--responses", s.Responses, "--codebook", s.Codebook, "--out", file, "--replicates", "20");
+        Assert.Equal(2, onto.Code);
+        Assert.Contains("is a file, not a folder", onto.Err);
+        Assert.Equal("x", File.ReadAllText(file));
+    }
+
+    [Fact]
     public void Unknown_option_is_a_usage_error_with_exit_2()
     {
         var r = TempSurvey.Cli("run", "--replicatez", "5");
