@@ -28,11 +28,16 @@ public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Ite
     private const int SmallIntegerRange = 1024;
 
     /// <summary>Summarises <paramref name="data"/>.</summary>
-    public static DataSummary Of(ResponseMatrix data)
+    public static DataSummary Of(ResponseMatrix data) => Of(data, ItemMoments.Compute(data));
+
+    /// <summary>Summarises <paramref name="data"/> reusing its already computed <paramref name="m"/>
+    /// (<see cref="ItemMoments.Compute"/> of the same matrix), so the moments are not computed twice.</summary>
+    public static DataSummary Of(ResponseMatrix data, ItemMoments m)
     {
         ArgumentNullException.ThrowIfNull(data);
+        ArgumentNullException.ThrowIfNull(m);
         int n = data.RespondentCount, p = data.ItemCount;
-        var m = ItemMoments.Compute(data);
+        if (m.Counts.Length != p) throw new ArgumentException($"The moments cover {m.Counts.Length} items but the data have {p}.", nameof(m));
         var items = new ItemSummary[p];
         var lo = new double[p];
         var hi = new double[p];

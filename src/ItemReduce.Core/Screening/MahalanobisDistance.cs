@@ -21,6 +21,10 @@ internal sealed class MahalanobisDistance
     private readonly ScreeningCholesky? _full;
     private readonly ConcurrentDictionary<string, PatternFactor?> _cache = new(StringComparer.Ordinal);
 
+    /// <summary>Pattern cache keyed by the answered-item bit mask, used instead of <see cref="_cache"/> when p ≤ 64
+    /// (no key string to build per respondent).</summary>
+    private readonly ConcurrentDictionary<ulong, PatternFactor?> _maskCache = new();
+
     private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
 
     /// <summary>Most factor entries (doubles) kept in the pattern cache.</summary>
@@ -41,10 +45,10 @@ internal sealed class MahalanobisDistance
     }
 
     /// <summary>Number of distinct incomplete missing-data patterns factorised so far.</summary>
-    public int CachedPatterns => _cache.Count;
+    public int CachedPatterns => _cache.Count + _maskCache.Count;
 
     /// <summary>Number of patterns whose sub-matrix was not positive definite.</summary>
-    public int FailedPatterns => _cache.Values.Count(f => f is null);
+    public int FailedPatterns => _cache.Values.Count(f => f is null) + _maskCache.Values.Count(f => f is null);
 
     /// <summary>True when the full matrix could be factorised.</summary>
     public bool FullFactorAvailable => _full is not null;
@@ -81,7 +85,9 @@ internal sealed class MahalanobisDistance
     public double Row(double[] v, int offset, double[] diff, double[] work, out int answered)
     {
         answered = 0;
-        for (int j = 0; j < _p; j++) if (!double.IsNaN(v[offset + j])) answered++;
+        ulong mask = 0;
+        for (int j = 0; j < _p; j++)
+            if (!double.IsNaN(v[offset + j])) { answered++; mask |= 1UL << (j & 63); }
         if (answered == 0) return double.NaN;
         if (answered == _p)
         {
@@ -90,19 +96,40 @@ internal sealed class MahalanobisDistance
             return _full.QuadraticForm(diff, work);
         }
         var x = new ReadOnlySpan<double>(v, offset, _p);
-        string key = PatternKey(x);
-        if (!_cache.TryGetValue(key, out var factor))
+        PatternFactor? factor;
+        if (_p <= 64)
         {
-            factor = FactorPattern(x);
-            long size = (long)answered * answered;
-            if (Interlocked.Read(ref _cachedDoubles) + size <= CacheBudgetDoubles && _cache.TryAdd(key, factor))
-                Interlocked.Add(ref _cachedDoubles, size);
+            if (!_maskCache.TryGetValue(mask, out factor))
+            {
+                factor = FactorPattern(x);
+                if (TryReserve(answered) && !_maskCache.TryAdd(mask, factor)) Release(answered);
+            }
+        }
+        else
+        {
+            string key = PatternKey(x);
+            if (!_cache.TryGetValue(key, out factor))
+            {
+                factor = FactorPattern(x);
+                if (TryReserve(answered) && !_cache.TryAdd(key, factor)) Release(answered);
+            }
         }
         if (factor is null) return double.NaN;
         var idx = factor.Answered;
         for (int t = 0; t < idx.Length; t++) diff[t] = v[offset + idx[t]] - _location[idx[t]];
         return factor.Factor.QuadraticForm(diff, work);
     }
+
+    /// <summary>Reserves room for a factor of order <paramref name="q"/> in the cache budget; false when it is spent.</summary>
+    private bool TryReserve(int q)
+    {
+        long size = (long)q * q;
+        if (Interlocked.Read(ref _cachedDoubles) + size > CacheBudgetDoubles) return false;
+        Interlocked.Add(ref _cachedDoubles, size);
+        return true;
+    }
+
+    private void Release(int q) => Interlocked.Add(ref _cachedDoubles, -(long)q * q);
 
     private PatternFactor? FactorPattern(ReadOnlySpan<double> x)
     {

@@ -1,3 +1,6 @@
+using System.Runtime.CompilerServices;
+using System.Runtime.InteropServices;
+
 namespace ItemReduce.Core.Screening;
 
 /// <summary>
@@ -72,24 +75,29 @@ internal sealed class ScreeningCholesky
     public double QuadraticForm(double[] d, double[] work)
     {
         int q = _order;
-        var l = _l;
+        if (d.Length < q || work.Length < q) throw new ArgumentException($"d and work need length ≥ {q}; got {d.Length} and {work.Length}.");
+        // References instead of indexed arrays: the loop runs without bounds checks (lengths checked above; the
+        // arithmetic, and so every result bit, is the same as the indexed form).
+        ref double l0 = ref MemoryMarshal.GetArrayDataReference(_l);
+        ref double w0 = ref MemoryMarshal.GetArrayDataReference(work);
+        ref double d0 = ref MemoryMarshal.GetArrayDataReference(d);
         double sum = 0;
         for (int i = 0; i < q; i++)
         {
-            int oi = i * q;
-            double s = d[i];
+            ref double li = ref Unsafe.Add(ref l0, i * q);
+            double s = Unsafe.Add(ref d0, i);
             int t = 0;
             // Two accumulators: fewer dependent additions (helps unoptimised builds most).
             double s2 = 0;
             for (; t + 1 < i; t += 2)
             {
-                s -= l[oi + t] * work[t];
-                s2 -= l[oi + t + 1] * work[t + 1];
+                s -= Unsafe.Add(ref li, t) * Unsafe.Add(ref w0, t);
+                s2 -= Unsafe.Add(ref li, t + 1) * Unsafe.Add(ref w0, t + 1);
             }
-            if (t < i) s -= l[oi + t] * work[t];
+            if (t < i) s -= Unsafe.Add(ref li, t) * Unsafe.Add(ref w0, t);
             s += s2;
-            double z = s / l[oi + i];
-            work[i] = z;
+            double z = s / Unsafe.Add(ref li, i);
+            Unsafe.Add(ref w0, i) = z;
             sum += z * z;
         }
         return sum;
