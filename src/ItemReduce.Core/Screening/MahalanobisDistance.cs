@@ -65,19 +65,50 @@ internal sealed class MahalanobisDistance
         var answered = new int[n];
         const int block = 4096;
         int blocks = (n + block - 1) / block;
+        const int lanes = ScreeningCholesky.Lanes;
         Parallel.For(0, blocks, b =>
         {
             var work = new double[_p];
             var diff = new double[_p];
             var row = new double[_p];
+            // Complete rows are gathered Lanes at a time (interleaved) and share the full factor.
+            var group = new double[_p * lanes];
+            var groupWork = new double[_p * lanes];
+            var groupRows = new int[lanes];
+            var forms = new double[lanes];
+            int filled = 0;
             int end = Math.Min(n, (b + 1) * block);
             for (int i = b * block; i < end; i++)
             {
                 data.CopyRow(i, row);
-                d2[i] = Row(row, 0, diff, work, out answered[i]);
+                if (_full is null || !IsComplete(row))
+                {
+                    d2[i] = Row(row, 0, diff, work, out answered[i]);
+                    continue;
+                }
+                for (int j = 0; j < _p; j++) group[j * lanes + filled] = row[j] - _location[j];
+                answered[i] = _p;
+                groupRows[filled++] = i;
+                if (filled < lanes) continue;
+                _full.QuadraticForms(group, groupWork, forms);
+                for (int k = 0; k < lanes; k++) d2[groupRows[k]] = forms[k];
+                filled = 0;
+            }
+            if (filled > 0)
+            {
+                for (int j = 0; j < _p; j++)
+                    for (int k = filled; k < lanes; k++) group[j * lanes + k] = 0;
+                _full!.QuadraticForms(group, groupWork, forms);
+                for (int k = 0; k < filled; k++) d2[groupRows[k]] = forms[k];
             }
         });
         return (d2, answered);
+    }
+
+    private static bool IsComplete(double[] row)
+    {
+        foreach (double x in row) if (double.IsNaN(x)) return false;
+        return true;
     }
 
     /// <summary>D² of the row starting at <paramref name="offset"/> of <paramref name="v"/> (NaN = missing);
