@@ -28,11 +28,16 @@ public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Ite
     private const int SmallIntegerRange = 1024;
 
     /// <summary>Summarises <paramref name="data"/>.</summary>
-    public static DataSummary Of(ResponseMatrix data)
+    public static DataSummary Of(ResponseMatrix data) => Of(data, ItemMoments.Compute(data));
+
+    /// <summary>Summarises <paramref name="data"/> reusing its already computed <paramref name="m"/>
+    /// (<see cref="ItemMoments.Compute"/> of the same matrix), so the moments are not computed twice.</summary>
+    public static DataSummary Of(ResponseMatrix data, ItemMoments m)
     {
         ArgumentNullException.ThrowIfNull(data);
+        ArgumentNullException.ThrowIfNull(m);
         int n = data.RespondentCount, p = data.ItemCount;
-        var m = ItemMoments.Compute(data);
+        if (m.Counts.Length != p) throw new ArgumentException($"The moments cover {m.Counts.Length} items but the data have {p}.", nameof(m));
         var items = new ItemSummary[p];
         var lo = new double[p];
         var hi = new double[p];
@@ -44,30 +49,48 @@ public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Ite
         var smallCount = new int[p];
         for (int j = 0; j < p; j++) { distinct[j] = []; small[j] = new bool[2 * SmallIntegerRange]; }
         int none = 0, complete = 0;
-        data.ForEachBlock(ItemMoments.BlockRows, (v, rows) =>
+        void Observe(int j, double x)
         {
-            for (int o = 0; o < rows * p; o += p)
+            lo[j] = Math.Min(lo[j], x);
+            hi[j] = Math.Max(hi[j], x);
+            if (smallCount[j] + distinct[j].Count >= DistinctCap) return;
+            if (x >= -SmallIntegerRange && x < SmallIntegerRange && Math.Floor(x) == x)
             {
-                int answered = 0;
-                for (int j = 0; j < p; j++)
-                {
-                    double x = v[o + j];
-                    if (double.IsNaN(x)) continue;
-                    answered++;
-                    lo[j] = Math.Min(lo[j], x);
-                    hi[j] = Math.Max(hi[j], x);
-                    if (smallCount[j] + distinct[j].Count >= DistinctCap) continue;
-                    if (x >= -SmallIntegerRange && x < SmallIntegerRange && Math.Floor(x) == x)
-                    {
-                        ref bool seen = ref small[j][(int)x + SmallIntegerRange];
-                        if (!seen) { seen = true; smallCount[j]++; }
-                    }
-                    else distinct[j].Add(x);
-                }
-                if (answered == 0) none++;
-                if (answered == p) complete++;
+                ref bool seen = ref small[j][(int)x + SmallIntegerRange];
+                if (!seen) { seen = true; smallCount[j]++; }
             }
-        });
+            else distinct[j].Add(x);
+        }
+        if (data.CodeHistogram() is var (codeCounts, decode, noAnswers, completeRows))
+        {
+            // Compact data: every answer an item received is one of at most 256 codes, so the values that occur come
+            // from the code counts (min, max and distinct values do not depend on the order they are met in).
+            for (int j = 0; j < p; j++)
+                for (int c = 0; c < ResponseMatrix.TableSize; c++)
+                {
+                    double x = decode[j * ResponseMatrix.TableSize + c];
+                    if (codeCounts[j * ResponseMatrix.TableSize + c] > 0 && !double.IsNaN(x)) Observe(j, x);
+                }
+            none = noAnswers;
+            complete = completeRows;
+        }
+        else
+            data.ForEachBlock(ItemMoments.BlockRows, (v, rows) =>
+            {
+                for (int o = 0; o < rows * p; o += p)
+                {
+                    int answered = 0;
+                    for (int j = 0; j < p; j++)
+                    {
+                        double x = v[o + j];
+                        if (double.IsNaN(x)) continue;
+                        answered++;
+                        Observe(j, x);
+                    }
+                    if (answered == 0) none++;
+                    if (answered == p) complete++;
+                }
+            });
         long missingCells = 0;
         for (int j = 0; j < p; j++)
         {

@@ -1,3 +1,5 @@
+using System.Runtime.Intrinsics;
+
 namespace ItemReduce.Core.Data;
 
 /// <summary>
@@ -20,28 +22,53 @@ public sealed record ItemMoments(int[] Counts, double[] Means, double[] Standard
         var counts = new int[p];
         var sums = new double[p];
         // Rows are visited in order, so every column's sum is accumulated in the same order as a plain loop.
+        var answered = new double[p]; // whole numbers, exact in a double far beyond int range
+        int width = Vector256<double>.Count;
         data.ForEachBlock(BlockRows, (v, rows) =>
         {
             for (int o = 0; o < rows * p; o += p)
-                for (int j = 0; j < p; j++)
+            {
+                int j = 0;
+                // Several columns per instruction; a missing value adds exactly +0 (the sum starts at +0, so it never
+                // becomes −0), which leaves each column's sum bit-identical to skipping it.
+                for (; j + width <= p; j += width)
+                {
+                    var x = Vector256.Create(v.Slice(o + j, width));
+                    var nan = Vector256.IsNaN(x);
+                    (Vector256.Create(answered.AsSpan(j, width)) + Vector256.ConditionalSelect(nan, Vector256<double>.Zero, Vector256<double>.One))
+                        .CopyTo(answered.AsSpan(j, width));
+                    (Vector256.Create(sums.AsSpan(j, width)) + Vector256.ConditionalSelect(nan, Vector256<double>.Zero, x)).CopyTo(sums.AsSpan(j, width));
+                }
+                for (; j < p; j++)
                 {
                     double x = v[o + j];
                     if (double.IsNaN(x)) continue;
-                    counts[j]++;
+                    answered[j]++;
                     sums[j] += x;
                 }
+            }
         });
+        for (int j = 0; j < p; j++) counts[j] = (int)answered[j];
         var means = new double[p];
         for (int j = 0; j < p; j++) means[j] = counts[j] > 0 ? sums[j] / counts[j] : double.NaN;
         var ss = new double[p];
         data.ForEachBlock(BlockRows, (v, rows) =>
         {
             for (int o = 0; o < rows * p; o += p)
-                for (int j = 0; j < p; j++)
+            {
+                int j = 0;
+                for (; j + width <= p; j += width)
+                {
+                    var d = Vector256.Create(v.Slice(o + j, width)) - Vector256.Create(means.AsSpan(j, width));
+                    (Vector256.Create(ss.AsSpan(j, width)) + Vector256.ConditionalSelect(Vector256.IsNaN(d), Vector256<double>.Zero, d * d))
+                        .CopyTo(ss.AsSpan(j, width));
+                }
+                for (; j < p; j++)
                 {
                     double d = v[o + j] - means[j];
                     if (!double.IsNaN(d)) ss[j] += d * d;
                 }
+            }
         });
         var sd = new double[p];
         for (int j = 0; j < p; j++) sd[j] = counts[j] > 1 ? Math.Sqrt(ss[j] / (counts[j] - 1)) : double.NaN;

@@ -19,9 +19,15 @@ public sealed record ExcludedItem(string Item, ItemExclusionReason Reason, strin
 public static class ItemScreen
 {
     /// <summary>Returns the indices of usable items and the list of excluded ones.</summary>
-    public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data)
+    public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data) => Find(data, ItemMoments.Compute(data));
+
+    /// <summary>As <see cref="Find(ResponseMatrix)"/>, reusing the already computed <paramref name="m"/>
+    /// (<see cref="ItemMoments.Compute"/> of the same matrix).</summary>
+    public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data, ItemMoments m)
     {
-        var m = ItemMoments.Compute(data);
+        ArgumentNullException.ThrowIfNull(data);
+        ArgumentNullException.ThrowIfNull(m);
+        if (m.Counts.Length != data.ItemCount) throw new ArgumentException($"The moments cover {m.Counts.Length} items but the data have {data.ItemCount}.", nameof(m));
         var kept = new List<int>();
         var excluded = new List<ExcludedItem>();
         for (int j = 0; j < data.ItemCount; j++)

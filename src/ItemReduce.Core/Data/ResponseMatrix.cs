@@ -96,6 +96,36 @@ public sealed class ResponseMatrix
     public long StorageBytes => _codes?.LongLength ?? (_values!.LongLength * sizeof(double));
 
     /// <summary>
+    /// Compact storage without row or column mapping only (null otherwise): for each item how many respondents hold
+    /// each code (p × <see cref="TableSize"/>, item-major), the decoding table (same layout; NaN = missing), and the
+    /// numbers of rows with no answer and with every item answered. One pass over the bytes, no decoding.
+    /// </summary>
+    internal (long[] CodeCounts, double[] Decode, int NoAnswers, int Complete)? CodeHistogram()
+    {
+        if (_codes is null || _rowMap is not null || !_identityColumns) return null;
+        int n = RespondentCount, p = ItemCount;
+        var decode = _decode!;
+        var missing = new bool[p * TableSize];
+        for (int t = 0; t < missing.Length; t++) missing[t] = double.IsNaN(decode[t]);
+        var counts = new long[p * TableSize];
+        int none = 0, complete = 0;
+        for (int i = 0; i < n; i++)
+        {
+            var row = _codes.AsSpan((int)((long)i * _stride), p);
+            int skipped = 0;
+            for (int k = 0, o = 0; k < p; k++, o += TableSize)
+            {
+                int t = o + row[k];
+                counts[t]++;
+                if (missing[t]) skipped++;
+            }
+            if (skipped == p) none++;
+            if (skipped == 0) complete++;
+        }
+        return (counts, decode, none, complete);
+    }
+
+    /// <summary>
     /// For compact storage whose decoded answers are all integers: the largest absolute value any valid answer can
     /// take (from the decoding tables over each item's [min, max]); null otherwise (dense storage, or a reverse-keyed
     /// item with non-integer bounds).

@@ -21,8 +21,10 @@ public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, Res
     public static PreparedData From(ResponseMatrix raw)
     {
         ArgumentNullException.ThrowIfNull(raw);
-        var summary = DataSummary.Of(raw);
-        var (kept, excluded) = ItemScreen.Find(raw);
+        // One pass pair for the item moments, shared by the summary and the item screen.
+        var moments = ItemMoments.Compute(raw);
+        var summary = DataSummary.Of(raw, moments);
+        var (kept, excluded) = ItemScreen.Find(raw, moments);
         var warnings = new List<string>();
         foreach (var e in excluded)
             warnings.Add($"Item {e.Item} was left out of the analysis: {e.Detail}.");

@@ -279,12 +279,28 @@ internal static class FastMcd
     /// <summary>D² of each of <paramref name="rows"/> from the candidate's mean and covariance.</summary>
     private static double[] Distances(double[] x, int p, int[] rows, Candidate c)
     {
+        const int lanes = ScreeningCholesky.Lanes;
         var d = new double[rows.Length];
         var diff = new double[p];
         var work = new double[p];
+        var group = new double[p * lanes];
+        var groupWork = new double[p * lanes];
+        Span<double> forms = stackalloc double[lanes];
         var mean = c.Mean;
         var factor = c.Factor;
-        for (int i = 0; i < rows.Length; i++)
+        int i = 0;
+        // Lanes rows at a time (bit-identical to the scalar form, see ScreeningCholesky.QuadraticForms), then the rest.
+        for (; i + lanes <= rows.Length; i += lanes)
+        {
+            for (int k = 0; k < lanes; k++)
+            {
+                int o = rows[i + k] * p;
+                for (int j = 0; j < p; j++) group[j * lanes + k] = x[o + j] - mean[j];
+            }
+            factor.QuadraticForms(group, groupWork, forms);
+            for (int k = 0; k < lanes; k++) d[i + k] = forms[k];
+        }
+        for (; i < rows.Length; i++)
         {
             int o = rows[i] * p;
             for (int j = 0; j < p; j++) diff[j] = x[o + j] - mean[j];

@@ -21,6 +21,10 @@ internal sealed class MahalanobisDistance
     private readonly ScreeningCholesky? _full;
     private readonly ConcurrentDictionary<string, PatternFactor?> _cache = new(StringComparer.Ordinal);
 
+    /// <summary>Pattern cache keyed by the answered-item bit mask, used instead of <see cref="_cache"/> when p ≤ 64
+    /// (no key string to build per respondent).</summary>
+    private readonly ConcurrentDictionary<ulong, PatternFactor?> _maskCache = new();
+
     private sealed record PatternFactor(int[] Answered, ScreeningCholesky Factor);
 
     /// <summary>Most factor entries (doubles) kept in the pattern cache.</summary>
@@ -41,10 +45,10 @@ internal sealed class MahalanobisDistance
     }
 
     /// <summary>Number of distinct incomplete missing-data patterns factorised so far.</summary>
-    public int CachedPatterns => _cache.Count;
+    public int CachedPatterns => _cache.Count + _maskCache.Count;
 
     /// <summary>Number of patterns whose sub-matrix was not positive definite.</summary>
-    public int FailedPatterns => _cache.Values.Count(f => f is null);
+    public int FailedPatterns => _cache.Values.Count(f => f is null) + _maskCache.Values.Count(f => f is null);
 
     /// <summary>True when the full matrix could be factorised.</summary>
     public bool FullFactorAvailable => _full is not null;
@@ -61,19 +65,50 @@ internal sealed class MahalanobisDistance
         var answered = new int[n];
         const int block = 4096;
         int blocks = (n + block - 1) / block;
+        const int lanes = ScreeningCholesky.Lanes;
         Parallel.For(0, blocks, b =>
         {
             var work = new double[_p];
             var diff = new double[_p];
             var row = new double[_p];
+            // Complete rows are gathered Lanes at a time (interleaved) and share the full factor.
+            var group = new double[_p * lanes];
+            var groupWork = new double[_p * lanes];
+            var groupRows = new int[lanes];
+            var forms = new double[lanes];
+            int filled = 0;
             int end = Math.Min(n, (b + 1) * block);
             for (int i = b * block; i < end; i++)
             {
                 data.CopyRow(i, row);
-                d2[i] = Row(row, 0, diff, work, out answered[i]);
+                if (_full is null || !IsComplete(row))
+                {
+                    d2[i] = Row(row, 0, diff, work, out answered[i]);
+                    continue;
+                }
+                for (int j = 0; j < _p; j++) group[j * lanes + filled] = row[j] - _location[j];
+                answered[i] = _p;
+                groupRows[filled++] = i;
+                if (filled < lanes) continue;
+                _full.QuadraticForms(group, groupWork, forms);
+                for (int k = 0; k < lanes; k++) d2[groupRows[k]] = forms[k];
+                filled = 0;
+            }
+            if (filled > 0)
+            {
+                for (int j = 0; j < _p; j++)
+                    for (int k = filled; k < lanes; k++) group[j * lanes + k] = 0;
+                _full!.QuadraticForms(group, groupWork, forms);
+                for (int k = 0; k < filled; k++) d2[groupRows[k]] = forms[k];
             }
         });
         return (d2, answered);
+    }
+
+    private static bool IsComplete(double[] row)
+    {
+        foreach (double x in row) if (double.IsNaN(x)) return false;
+        return true;
     }
 
     /// <summary>D² of the row starting at <paramref name="offset"/> of <paramref name="v"/> (NaN = missing);
@@ -81,7 +116,9 @@ internal sealed class MahalanobisDistance
     public double Row(double[] v, int offset, double[] diff, double[] work, out int answered)
     {
         answered = 0;
-        for (int j = 0; j < _p; j++) if (!double.IsNaN(v[offset + j])) answered++;
+        ulong mask = 0;
+        for (int j = 0; j < _p; j++)
+            if (!double.IsNaN(v[offset + j])) { answered++; mask |= 1UL << (j & 63); }
         if (answered == 0) return double.NaN;
         if (answered == _p)
         {
@@ -90,19 +127,40 @@ internal sealed class MahalanobisDistance
             return _full.QuadraticForm(diff, work);
         }
         var x = new ReadOnlySpan<double>(v, offset, _p);
-        string key = PatternKey(x);
-        if (!_cache.TryGetValue(key, out var factor))
+        PatternFactor? factor;
+        if (_p <= 64)
         {
-            factor = FactorPattern(x);
-            long size = (long)answered * answered;
-            if (Interlocked.Read(ref _cachedDoubles) + size <= CacheBudgetDoubles && _cache.TryAdd(key, factor))
-                Interlocked.Add(ref _cachedDoubles, size);
+            if (!_maskCache.TryGetValue(mask, out factor))
+            {
+                factor = FactorPattern(x);
+                if (TryReserve(answered) && !_maskCache.TryAdd(mask, factor)) Release(answered);
+            }
+        }
+        else
+        {
+            string key = PatternKey(x);
+            if (!_cache.TryGetValue(key, out factor))
+            {
+                factor = FactorPattern(x);
+                if (TryReserve(answered) && !_cache.TryAdd(key, factor)) Release(answered);
+            }
         }
         if (factor is null) return double.NaN;
         var idx = factor.Answered;
         for (int t = 0; t < idx.Length; t++) diff[t] = v[offset + idx[t]] - _location[idx[t]];
         return factor.Factor.QuadraticForm(diff, work);
     }
+
+    /// <summary>Reserves room for a factor of order <paramref name="q"/> in the cache budget; false when it is spent.</summary>
+    private bool TryReserve(int q)
+    {
+        long size = (long)q * q;
+        if (Interlocked.Read(ref _cachedDoubles) + size > CacheBudgetDoubles) return false;
+        Interlocked.Add(ref _cachedDoubles, size);
+        return true;
+    }
+
+    private void Release(int q) => Interlocked.Add(ref _cachedDoubles, -(long)q * q);
 
     private PatternFactor? FactorPattern(ReadOnlySpan<double> x)
     {

@@ -116,6 +116,28 @@ public class CompactStorageTests
             (x with { Reasons = [] }).Equals(y with { Reasons = [] }));
     }
 
+    [Theory]
+    [InlineData(0.0, 41UL)]
+    [InlineData(0.05, 42UL)]
+    [InlineData(0.9, 43UL)]
+    public void Data_summary_from_code_counts_equals_the_row_pass(double missing, ulong seed)
+    {
+        // Property: compact storage summarises from per-code counts, dense storage by a pass over the rows; both see
+        // the same values, so every field (min, max, distinct answers, empty and complete rows) must agree exactly.
+        var (compact, dense) = Both(600, missing, seed);
+        var sc = DataSummary.Of(compact);
+        var sd = DataSummary.Of(dense);
+        Assert.Equal(sd.Items, sc.Items);
+        Assert.Equal(sd.RespondentsWithNoAnswers, sc.RespondentsWithNoAnswers);
+        Assert.Equal(sd.CompleteRespondents, sc.CompleteRespondents);
+        Assert.Equal(sd.MissingShare, sc.MissingShare);
+        if (missing >= 0.9) Assert.True(sc.RespondentsWithNoAnswers > 0);
+        if (missing == 0) Assert.Equal(600, sc.CompleteRespondents);
+        // A view (row map) takes the row pass again and must still agree with the dense rows it selects.
+        var rows = Enumerable.Range(0, 300).Select(i => 2 * i).ToList();
+        Assert.Equal(DataSummary.Of(dense.SelectRespondents(rows)).Items, DataSummary.Of(compact.SelectRespondents(rows)).Items);
+    }
+
     private static void AssertSameMoments(ResponseMatrix dense, ResponseMatrix compact)
     {
         var mc = ItemMoments.Compute(compact);
