@@ -138,22 +138,27 @@ public static class PolychoricCorrelation
     /// <summary>ln L(ρ) = Σ n_ij ln π_ij(ρ) (Olsson eq. 4 without the constant); π clamped at 1e-300.</summary>
     internal static double LogLikelihood(int[,] t, double[] a, double[] b, double rho)
     {
-        int r = t.GetLength(0), c = t.GetLength(1);
-        // Corner grid Φ₂(a_i, b_j), i = 0..r, j = 0..c.
-        var grid = new double[r + 1, c + 1];
-        for (int i = 0; i <= r; i++)
-            for (int j = 0; j <= c; j++)
-                grid[i, j] = BivariateNormalDistribution.Cdf(a[i], b[j], rho);
+        var cdf = CornerGrid(a, b, rho, BivariateNormalDistribution.Cdf);
         double ll = 0;
-        for (int i = 0; i < r; i++)
-            for (int j = 0; j < c; j++)
-            {
-                if (t[i, j] == 0) continue;
-                double pi = grid[i + 1, j + 1] - grid[i, j + 1] - grid[i + 1, j] + grid[i, j];
-                ll += t[i, j] * Math.Log(Math.Max(pi, 1e-300));
-            }
+        for (int i = 0; i < t.GetLength(0); i++)
+            for (int j = 0; j < t.GetLength(1); j++)
+                if (t[i, j] != 0) ll += t[i, j] * Math.Log(Math.Max(CellDifference(cdf, i, j), 1e-300));
         return ll;
     }
+
+    /// <summary>Corner grid f(a_i, b_j, ρ), i = 0..r, j = 0..c (f = Φ₂ or φ₂).</summary>
+    private static double[,] CornerGrid(double[] a, double[] b, double rho, Func<double, double, double, double> f)
+    {
+        var grid = new double[a.Length, b.Length];
+        for (int i = 0; i < a.Length; i++)
+            for (int j = 0; j < b.Length; j++)
+                grid[i, j] = f(a[i], b[j], rho);
+        return grid;
+    }
+
+    /// <summary>Rectangle difference over cell (i, j): g(i+1, j+1) − g(i, j+1) − g(i+1, j) + g(i, j); with g = Φ₂
+    /// it is the cell probability π_ij, with g = φ₂ its derivative in ρ.</summary>
+    private static double CellDifference(double[,] g, int i, int j) => g[i + 1, j + 1] - g[i, j + 1] - g[i + 1, j] + g[i, j];
 
     /// <summary>Step 2: ρ̂ = argmax ln L on [−<see cref="RhoBound"/>, <see cref="RhoBound"/>]: Brent's search on
     /// ln L, then up to three Newton steps on the score (Olsson eq. 8), because ln L is flat at its maximum and
@@ -178,24 +183,12 @@ public static class PolychoricCorrelation
     /// <summary>d ln L / dρ = Σ n_ij / π_ij · dπ_ij/dρ, with dΦ₂/dρ = φ₂ (Olsson 1979, eq. 8).</summary>
     internal static double Score(int[,] t, double[] a, double[] b, double rho)
     {
-        int r = t.GetLength(0), c = t.GetLength(1);
-        var cdf = new double[r + 1, c + 1];
-        var pdf = new double[r + 1, c + 1];
-        for (int i = 0; i <= r; i++)
-            for (int j = 0; j <= c; j++)
-            {
-                cdf[i, j] = BivariateNormalDistribution.Cdf(a[i], b[j], rho);
-                pdf[i, j] = BivariateNormalDistribution.Density(a[i], b[j], rho);
-            }
+        var cdf = CornerGrid(a, b, rho, BivariateNormalDistribution.Cdf);
+        var pdf = CornerGrid(a, b, rho, BivariateNormalDistribution.Density);
         double score = 0;
-        for (int i = 0; i < r; i++)
-            for (int j = 0; j < c; j++)
-            {
-                if (t[i, j] == 0) continue;
-                double pi = cdf[i + 1, j + 1] - cdf[i, j + 1] - cdf[i + 1, j] + cdf[i, j];
-                double dpi = pdf[i + 1, j + 1] - pdf[i, j + 1] - pdf[i + 1, j] + pdf[i, j];
-                score += t[i, j] * dpi / Math.Max(pi, 1e-300);
-            }
+        for (int i = 0; i < t.GetLength(0); i++)
+            for (int j = 0; j < t.GetLength(1); j++)
+                if (t[i, j] != 0) score += t[i, j] * CellDifference(pdf, i, j) / Math.Max(CellDifference(cdf, i, j), 1e-300);
         return score;
     }
 }
