@@ -23,7 +23,6 @@ public static class SurveyJob
                 "Fix: check the data with 'itemreduce check', or adjust the options of that stage (see --help).");
         }
 
-        log.Step("writing results");
         var files = new List<string>();
         using var staging = OutputStaging.Begin(settings.Out, settings.Force);
         void Write(string name, string text)
@@ -33,10 +32,12 @@ public static class SurveyJob
         }
         if (result.Screening is { } s)
         {
+            log.Step("writing respondent-flags.csv");
             staging.WriteText("respondent-flags.csv", w => ScreeningTables.WriteRespondentFlags(s, w));
             files.Add("respondent-flags.csv");
             Write("centre-share-by-items.csv", ScreeningTables.CentreShare(s));
         }
+        log.Step("writing tables and summary");
         if (result.Dimensions is { } d)
         {
             Write("eigenvalues.csv", DimensionTables.Eigenvalues(d));
