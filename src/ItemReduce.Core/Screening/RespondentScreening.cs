@@ -54,18 +54,15 @@ public static class RespondentScreening
                          "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
         var classical = new MahalanobisDistance(mean, cov);
-        progress?.Invoke("screening: classical distances");
-        var (d2, answered) = classical.Compute(data);
 
-        // 2. Robust distances from FAST-MCD on complete rows.
-        var (robust, robustD2) = RobustDistances(data, options, warnings, progress);
+        // 2. Robust location and scatter from FAST-MCD on complete rows.
+        var (robust, robustDistance) = RobustFit(data, options, warnings, progress);
 
-        // 3. Cutoffs and p-values, df = items answered.
+        // 3. Cutoffs, df = items answered.
         var cutoffByDf = new double[p + 1];
         cutoffByDf[0] = double.NaN;
         for (int k = 1; k <= p; k++) cutoffByDf[k] = ChiSquareTail.UpperQuantile(options.CutoffP, k);
 
-        // 4. Careless-response indices.
         var subscales = data.Items.Select(i => i.Subscale).ToList();
         var evenOdd = new EvenOddConsistency(subscales, options.EvenOddMinSubscales);
         if (!evenOdd.Applicable)
@@ -76,21 +73,33 @@ public static class RespondentScreening
         if (options.UseRobust && !robust.Available)
             warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
 
-        progress?.Invoke("screening: careless-response indices");
+        // 4. One pass over the respondents: each block of rows is decoded once and gets both distances, their
+        //    p-values and the careless-response indices.
+        progress?.Invoke("screening: distances, p-values and careless-response indices");
+        var d2 = new double[n];
+        var robustD2 = new double[n];
+        var answered = new int[n];
+        if (robustDistance is null) Array.Fill(robustD2, double.NaN);
         var rows = new ScreeningRowStore(data.RespondentIds, p, answered, d2, robustD2, cutoffByDf);
         var raw = asAnswered ?? data;
-        Parallel.For(0, (n + 4095) / 4096, b =>
-        {
-            var x = new double[p];
-            var rawRow = new double[p];
-            int end = Math.Min(n, (b + 1) * 4096);
-            for (int i = b * 4096; i < end; i++)
+        const int blockRows = MahalanobisDistance.BlockRows;
+        Parallel.For(0, (n + blockRows - 1) / blockRows,
+            () => (Scratch: new MahalanobisDistance.Scratch(p), Rows: new double[blockRows * p], Raw: new double[blockRows * p], Answered: new int[blockRows]),
+            (b, _, local) =>
             {
-                data.CopyRow(i, x);
-                raw.CopyRow(i, rawRow);
-                ScreenOne(i, rows, x, rawRow, d2[i], robustD2[i], answered[i], cutoffByDf, evenOdd, runLimit, useRobust, options);
-            }
-        });
+                int first = b * blockRows, count = Math.Min(blockRows, n - first);
+                var block = data.Rows(first, count, local.Rows);
+                var rawBlock = ReferenceEquals(raw, data) ? block : raw.Rows(first, count, local.Raw);
+                classical.ComputeBlock(block, count, d2.AsSpan(first, count), answered.AsSpan(first, count), local.Scratch);
+                robustDistance?.ComputeBlock(block, count, robustD2.AsSpan(first, count), local.Answered, local.Scratch);
+                for (int r = 0; r < count; r++)
+                {
+                    int i = first + r;
+                    ScreenOne(i, rows, block.Slice(r * p, p), rawBlock.Slice(r * p, p), d2[i], robustD2[i], answered[i], cutoffByDf,
+                        evenOdd, runLimit, useRobust, options);
+                }
+                return local;
+            }, _ => { });
 
         int nanDistance = 0;
         for (int i = 0; i < n; i++) if (answered[i] > 0 && double.IsNaN(d2[i])) nanDistance++;
@@ -146,16 +155,14 @@ public static class RespondentScreening
     private static readonly int HalvesBit = ScreeningRowStore.Bit(ScreeningReasons.HalvesDisagree);
     private static readonly int UnansweredBit = ScreeningRowStore.Bit(ScreeningReasons.MostlyUnanswered);
 
-    /// <summary>FAST-MCD on the complete rows (subsampled above the cap), then robust D² on each respondent's answered items.</summary>
-    private static (RobustEstimatorDetails Details, double[] D2) RobustDistances(ResponseMatrix data, ScreeningOptions o, List<string> warnings,
+    /// <summary>FAST-MCD on the complete rows (subsampled above the cap); the distance object is null when robust distances are unavailable.</summary>
+    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance) RobustFit(ResponseMatrix data, ScreeningOptions o, List<string> warnings,
         Action<string>? progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
         var complete = new List<int>();
         for (int i = 0; i < n; i++)
             if (data.IsComplete(i)) complete.Add(i);
-        var nan = new double[n];
-        Array.Fill(nan, double.NaN);
         RobustEstimatorDetails Unavailable(string note, int used = 0, bool sub = false)
         {
             warnings.Add(note);
@@ -163,7 +170,7 @@ public static class RespondentScreening
         }
         int minimum = Math.Max(2 * (p + 1), p + 2);
         if (complete.Count < minimum)
-            return (Unavailable($"Robust distances need at least {minimum} respondents who answered every item (2 × (items + 1)); only {complete.Count} did."), nan);
+            return (Unavailable($"Robust distances need at least {minimum} respondents who answered every item (2 × (items + 1)); only {complete.Count} did."), null);
 
         var rowsUsed = complete;
         bool subsampled = false;
@@ -186,19 +193,17 @@ public static class RespondentScreening
         }
         catch (FastMcdExactFitException e)
         {
-            return (Unavailable("Robust fit failed: " + e.Message + " This happens when more than half the respondents give identical answers on some items.", m, subsampled), nan);
+            return (Unavailable("Robust fit failed: " + e.Message + " This happens when more than half the respondents give identical answers on some items.", m, subsampled), null);
         }
         if (!fit.Converged) warnings.Add("FAST-MCD reached its C-step cap before the determinant stopped decreasing; robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         if (!dist.FullFactorAvailable)
-            return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), nan);
-        progress?.Invoke("screening: robust distances");
-        var (robustD2, _) = dist.Compute(data);
+            return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), null);
         string note = subsampled
             ? $"FAST-MCD fitted to a seeded random subsample of {m} of the {complete.Count} complete respondents; robust distances computed for everyone."
             : $"FAST-MCD fitted to the {m} complete respondents; robust distances of respondents with missing answers use the matching parts of the robust location and scatter.";
         return (new RobustEstimatorDetails(true, complete.Count, subsampled, m, fit.SupportSize, fit.ConsistencyFactor, fit.ReweightingFactor,
-            fit.ReweightedCount, fit.Nested, fit.SubsetCount, fit.MergedSize, fit.Trials, fit.Converged, fit.Location, fit.Scatter, note), robustD2);
+            fit.ReweightedCount, fit.Nested, fit.SubsetCount, fit.MergedSize, fit.Trials, fit.Converged, fit.Location, fit.Scatter, note), dist);
     }
 
     private static string Meaning(string code) => code switch

@@ -142,4 +142,53 @@ internal sealed class ScreeningCholesky
         }
         sum.CopyTo(result);
     }
+
+    /// <summary>
+    /// Solves <c>Lᵀ u = w</c> (back substitution) for <see cref="Lanes"/> vectors at once, interleaved as in
+    /// <see cref="QuadraticForms"/> (<c>w[j · Lanes + lane]</c>); after <see cref="QuadraticForms"/> left
+    /// <c>w = L⁻¹ d</c> in its work array, this gives <c>u = A⁻¹ d</c>. Every lane performs the same operations in
+    /// the same order, so a vector's result does not depend on the vectors sharing its call.
+    /// </summary>
+    public void BackSubstitutions(double[] w, double[] u)
+    {
+        int q = _order;
+        if (w.Length < q * Lanes || u.Length < q * Lanes)
+            throw new ArgumentException($"w and u need length ≥ {q * Lanes}; got {w.Length} and {u.Length}.");
+        ref double l0 = ref MemoryMarshal.GetArrayDataReference(_l);
+        ref double w0 = ref MemoryMarshal.GetArrayDataReference(w);
+        ref double u0 = ref MemoryMarshal.GetArrayDataReference(u);
+        for (int i = q - 1; i >= 0; i--)
+        {
+            var s = Vector256.LoadUnsafe(ref w0, (nuint)(i * Lanes));
+            for (int t = i + 1; t < q; t++)
+                s -= Vector256.Create(Unsafe.Add(ref l0, t * q + i)) * Vector256.LoadUnsafe(ref u0, (nuint)(t * Lanes));
+            (s / Vector256.Create(Unsafe.Add(ref l0, i * q + i))).StoreUnsafe(ref u0, (nuint)(i * Lanes));
+        }
+    }
+
+    /// <summary><c>A⁻¹</c> (row-major q × q) as <c>L⁻ᵀ L⁻¹</c>, with <c>L⁻¹</c> from forward substitution on the identity.</summary>
+    public double[] Inverse()
+    {
+        int q = _order;
+        var inv = new double[q * q]; // L⁻¹, lower triangular, row-major
+        for (int c = 0; c < q; c++)
+        {
+            inv[c * q + c] = 1 / _l[c * q + c];
+            for (int i = c + 1; i < q; i++)
+            {
+                double s = 0;
+                for (int t = c; t < i; t++) s -= _l[i * q + t] * inv[t * q + c];
+                inv[i * q + c] = s / _l[i * q + i];
+            }
+        }
+        var a = new double[q * q];
+        for (int j = 0; j < q; j++)
+            for (int k = 0; k <= j; k++)
+            {
+                double s = 0;
+                for (int i = j; i < q; i++) s += inv[i * q + j] * inv[i * q + k];
+                a[j * q + k] = a[k * q + j] = s;
+            }
+        return a;
+    }
 }

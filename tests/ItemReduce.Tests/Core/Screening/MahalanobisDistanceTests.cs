@@ -62,16 +62,53 @@ public class MahalanobisDistanceTests
     [Fact]
     public void Each_missing_pattern_is_factorised_once()
     {
+        // Iris (Fisher 1936, public domain) with one answer missing in some rows: those rows take the precision-matrix
+        // route, so no pattern needs its own factor (their values are checked against numpy in the test above).
         var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
         var data = Matrix(rows, 4);
         var (mean, cov, _) = PairwiseCovariance.Compute(data);
         var d = new MahalanobisDistance(mean, cov);
         d.Compute(data);
-        // Patterns in the fixture: one item missing (4 patterns) plus the empty row, which needs no factor.
-        var patterns = rows.Select(r => string.Concat(r.Take(4).Select(x => double.IsNaN(x) ? '0' : '1')))
-            .Where(s => s.Contains('0') && s.Contains('1')).Distinct().Count();
-        Assert.Equal(patterns, d.CachedPatterns);
+        Assert.Equal(0, d.CachedPatterns);
         Assert.Equal(0, d.FailedPatterns);
+    }
+
+    [Fact]
+    public void Precision_route_matches_each_rows_own_factor()
+    {
+        // Identity (Schur complement of a partitioned inverse, common practice, no source): the D² of a row with m
+        // missing answers from the full precision matrix equals the D² from the answered block's own Cholesky factor.
+        // Correlated data (p = 12) with 0..11 missing answers per row; rows with more than MaxRouteMissing missing
+        // answers factorise their pattern, so exactly their patterns are cached.
+        const int p = 12, n = 600;
+        var rng = new ItemReduce.Core.Randomness.RandomStream(20261202);
+        var values = new double[n * p];
+        for (int i = 0; i < n; i++)
+        {
+            double g = rng.NextGaussian();
+            for (int j = 0; j < p; j++) values[i * p + j] = 3 + 0.6 * g + (0.5 + 0.05 * j) * rng.NextGaussian();
+            int missing = i % p;
+            var order = Enumerable.Range(0, p).ToArray();
+            rng.Shuffle(order.AsSpan());
+            for (int t = 0; t < missing; t++) values[i * p + order[t]] = double.NaN;
+        }
+        var items = Enumerable.Range(1, p).Select(j => new ItemDefinition($"x{j}", null, false, -1e9, 1e9, null)).ToList();
+        var data = new ResponseMatrix(Enumerable.Range(1, n).Select(i => $"r{i}").ToList(), items, values);
+        var (mean, cov, _) = PairwiseCovariance.Compute(data);
+        var dist = new MahalanobisDistance(mean, cov);
+        var (d2, answered) = dist.Compute(data);
+        int longPatterns = Enumerable.Range(0, n).Where(i => i % p > MahalanobisDistance.MaxRouteMissing)
+            .Select(i => string.Concat(Enumerable.Range(0, p).Select(j => double.IsNaN(values[i * p + j]) ? '0' : '1'))).Distinct().Count();
+        Assert.Equal(longPatterns, dist.CachedPatterns);
+        var own = new MahalanobisDistance(mean, cov);
+        double[] diff = new double[p], work = new double[p];
+        for (int i = 0; i < n; i++)
+        {
+            double reference = own.Row(values, i * p, diff, work, out int k);
+            Assert.Equal(p - i % p, answered[i]);
+            Assert.Equal(k, answered[i]);
+            Assert.True(Math.Abs(d2[i] - reference) <= 1e-11 * reference, $"row {i}: {d2[i]} vs {reference}");
+        }
     }
 
     [Fact]
