@@ -33,7 +33,7 @@ public static class SurveyJob
         if (result.Screening is { } s)
         {
             log.Step("writing respondent-flags.csv");
-            staging.WriteText("respondent-flags.csv", w => ScreeningTables.WriteRespondentFlags(s, w));
+            staging.WriteStream("respondent-flags.csv", stream => ScreeningTables.WriteRespondentFlags(s, stream));
             files.Add("respondent-flags.csv");
             Write("centre-share-by-items.csv", ScreeningTables.CentreShare(s));
         }

@@ -15,23 +15,26 @@ public static class ScreeningTables
     /// </summary>
     public static string RespondentFlags(ScreeningResult r)
     {
-        using var text = new StringWriter(System.Globalization.CultureInfo.InvariantCulture) { NewLine = "\n" };
-        WriteRespondentFlags(r, text);
-        return text.ToString();
+        using var bytes = new MemoryStream();
+        WriteRespondentFlags(r, bytes);
+        return Utf8NoBom.GetString(bytes.GetBuffer(), 0, (int)bytes.Length);
     }
 
-    /// <summary>Streams <c>respondent-flags.csv</c> (same bytes as <see cref="RespondentFlags"/>) to
-    /// <paramref name="sink"/> row by row, so a large panel never becomes one string in memory.</summary>
-    public static void WriteRespondentFlags(ScreeningResult r, TextWriter sink)
+    private static readonly System.Text.UTF8Encoding Utf8NoBom = new(false);
+
+    /// <summary>Streams <c>respondent-flags.csv</c> as UTF-8 (no BOM; same text as <see cref="RespondentFlags"/>) to
+    /// <paramref name="sink"/> block by block, so a large panel never becomes one string in memory.</summary>
+    public static void WriteRespondentFlags(ScreeningResult r, Stream sink)
     {
         ArgumentNullException.ThrowIfNull(r);
         ArgumentNullException.ThrowIfNull(sink);
-        _ = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
-            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"], sink);
-        // Rows are formatted straight into reused buffers with the same cell rules as SafeCsvWriter (Text, Integer,
+        var header = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
+            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"]);
+        sink.Write(Utf8NoBom.GetBytes(header.ToString()));
+        // Rows are formatted straight into reused UTF-8 buffers with the same cell rules as SafeCsvWriter (Text, Integer,
         // Number, Bool), so no per-cell strings are made; reason cells are cached per reason list. Blocks of rows are
         // formatted in parallel and written in input order.
-        var reasonCells = new System.Collections.Concurrent.ConcurrentDictionary<IReadOnlyList<string>, string>(ReferenceEqualityComparer.Instance);
+        var reasonCells = new System.Collections.Concurrent.ConcurrentDictionary<IReadOnlyList<string>, byte[]>(ReferenceEqualityComparer.Instance);
         var rows = r.Respondents;
         int n = rows.Count, blocks = Math.Max(1, Environment.ProcessorCount) * 2;
         var buffers = new RowBuffer[blocks];
@@ -47,37 +50,46 @@ public static class ScreeningTables
                 for (int i = first + b * FormatBlockRows; i < end; i++)
                 {
                     var x = rows[i];
-                    string reasons = reasonCells.GetOrAdd(x.Reasons, list => Text(string.Join(';', list)));
+                    byte[] reasons = reasonCells.GetOrAdd(x.Reasons, list => Utf8NoBom.GetBytes(Text(string.Join(';', list))));
                     line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
                         .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
-                        .Text(Bool(x.Flagged)).Sep().Text(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Text("\n");
+                        .Bytes(x.Flagged ? True : False).Sep().Bytes(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Bytes("\n"u8);
                 }
             });
             foreach (var line in buffers) sink.Write(line.Span);
         }
     }
 
+    private static readonly byte[] True = Utf8NoBom.GetBytes(Bool(true)), False = Utf8NoBom.GetBytes(Bool(false));
+
     /// <summary>Rows formatted per parallel block of <see cref="WriteRespondentFlags"/>.</summary>
     private const int FormatBlockRows = 8192;
 
-    /// <summary>A growable character buffer for CSV rows; numbers are formatted as <see cref="SafeCsvWriter.Number(double)"/>
+    /// <summary>A growable UTF-8 buffer for CSV rows; numbers are formatted as <see cref="SafeCsvWriter.Number(double)"/>
     /// and <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> would format them.</summary>
     private sealed class RowBuffer
     {
-        private char[] _chars = new char[1 << 16];
+        private byte[] _bytes = new byte[1 << 20];
         private int _length;
 
-        public ReadOnlySpan<char> Span => _chars.AsSpan(0, _length);
+        public ReadOnlySpan<byte> Span => _bytes.AsSpan(0, _length);
 
         public void Clear() => _length = 0;
 
-        public RowBuffer Sep() => Text(",");
+        public RowBuffer Sep() => Bytes(","u8);
+
+        public RowBuffer Bytes(ReadOnlySpan<byte> b)
+        {
+            Ensure(b.Length);
+            b.CopyTo(_bytes.AsSpan(_length));
+            _length += b.Length;
+            return this;
+        }
 
         public RowBuffer Text(string s)
         {
-            Ensure(s.Length);
-            s.CopyTo(_chars.AsSpan(_length));
-            _length += s.Length;
+            Ensure(Utf8NoBom.GetMaxByteCount(s.Length));
+            _length += Utf8NoBom.GetBytes(s, _bytes.AsSpan(_length));
             return this;
         }
 
@@ -89,23 +101,23 @@ public static class ScreeningTables
         /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals.</summary>
         public RowBuffer Rounded(double v) => double.IsFinite(v) ? Format(Math.Round(v, Decimals)) : this;
 
-        private RowBuffer Format<T>(T v) where T : ISpanFormattable
+        private RowBuffer Format<T>(T v) where T : IUtf8SpanFormattable
         {
             while (true)
             {
                 Ensure(32);
-                if (v.TryFormat(_chars.AsSpan(_length), out int written, typeof(T) == typeof(double) ? "R" : default, CultureInfo.InvariantCulture))
+                if (v.TryFormat(_bytes.AsSpan(_length), out int written, typeof(T) == typeof(double) ? "R" : default, CultureInfo.InvariantCulture))
                 {
                     _length += written;
                     return this;
                 }
-                Array.Resize(ref _chars, _chars.Length * 2);
+                Array.Resize(ref _bytes, _bytes.Length * 2);
             }
         }
 
         private void Ensure(int extra)
         {
-            if (_length + extra > _chars.Length) Array.Resize(ref _chars, Math.Max(_chars.Length * 2, _length + extra));
+            if (_length + extra > _bytes.Length) Array.Resize(ref _bytes, Math.Max(_bytes.Length * 2, _length + extra));
         }
     }
 

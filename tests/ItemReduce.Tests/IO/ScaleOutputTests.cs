@@ -39,7 +39,7 @@ public class ScaleOutputTests
         {
             using (var staging = OutputStaging.Begin(dir, force: false))
             {
-                staging.WriteText("respondent-flags.csv", t => ScreeningTables.WriteRespondentFlags(r, t));
+                staging.WriteStream("respondent-flags.csv", stream => ScreeningTables.WriteRespondentFlags(r, stream));
                 staging.Commit();
             }
             Assert.Equal(expected, File.ReadAllBytes(Path.Combine(dir, "respondent-flags.csv")));
