@@ -18,6 +18,7 @@ public sealed record ItemMoments(int[] Counts, double[] Means, double[] Standard
     public static ItemMoments Compute(ResponseMatrix data)
     {
         ArgumentNullException.ThrowIfNull(data);
+        if (data.CodeHistogram() is var (codeCounts, decode, _, _)) return FromHistogram(codeCounts, decode, data.ItemCount);
         int n = data.RespondentCount, p = data.ItemCount;
         var counts = new int[p];
         var sums = new double[p];
@@ -72,6 +73,43 @@ public sealed record ItemMoments(int[] Counts, double[] Means, double[] Standard
         });
         var sd = new double[p];
         for (int j = 0; j < p; j++) sd[j] = counts[j] > 1 ? Math.Sqrt(ss[j] / (counts[j] - 1)) : double.NaN;
+        return new ItemMoments(counts, means, sd);
+    }
+
+    /// <summary>Moments from the code counts of compact storage (one pass over the bytes, no decoding): the sum is
+    /// <c>Σ_c n_c v_c</c> and the centred sum of squares <c>Σ_c n_c (v_c − mean)²</c> over the codes c with value v_c,
+    /// the same two-pass formula as for rows, with one term per code instead of one per answer.</summary>
+    private static ItemMoments FromHistogram(long[] codeCounts, double[] decode, int p)
+    {
+        const int size = ResponseMatrix.TableSize;
+        var counts = new int[p];
+        var means = new double[p];
+        var sd = new double[p];
+        for (int j = 0; j < p; j++)
+        {
+            long answered = 0;
+            double sum = 0;
+            for (int c = 0; c < size; c++)
+            {
+                long k = codeCounts[j * size + c];
+                double v = decode[j * size + c];
+                if (k == 0 || double.IsNaN(v)) continue;
+                answered += k;
+                sum += k * v;
+            }
+            counts[j] = (int)answered;
+            double mean = answered > 0 ? sum / answered : double.NaN;
+            double ss = 0;
+            for (int c = 0; c < size; c++)
+            {
+                long k = codeCounts[j * size + c];
+                double v = decode[j * size + c];
+                if (k == 0 || double.IsNaN(v)) continue;
+                ss += k * ((v - mean) * (v - mean));
+            }
+            means[j] = mean;
+            sd[j] = answered > 1 ? Math.Sqrt(ss / (answered - 1)) : double.NaN;
+        }
         return new ItemMoments(counts, means, sd);
     }
 }

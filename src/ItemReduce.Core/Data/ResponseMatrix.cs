@@ -103,6 +103,14 @@ public sealed class ResponseMatrix
     internal (long[] CodeCounts, double[] Decode, int NoAnswers, int Complete)? CodeHistogram()
     {
         if (_codes is null || _rowMap is not null || !_identityColumns) return null;
+        // The matrix is immutable, so the histogram is computed once (the summary and the item moments both use it).
+        return _histogram ??= ComputeHistogram();
+    }
+
+    private (long[] CodeCounts, double[] Decode, int NoAnswers, int Complete)? _histogram;
+
+    private (long[] CodeCounts, double[] Decode, int NoAnswers, int Complete) ComputeHistogram()
+    {
         int n = RespondentCount, p = ItemCount;
         var decode = _decode!;
         var missing = new bool[p * TableSize];

@@ -13,8 +13,14 @@ namespace ItemReduce.Core.Pipeline;
 public static class SurveyPipeline
 {
     /// <summary>Runs the stages selected by <see cref="PipelineSettings.Scope"/>.</summary>
+    /// <param name="prepared">The prepared data.</param>
+    /// <param name="settings">Stages and options.</param>
+    /// <param name="progress">Optional callback told when each step starts.</param>
+    /// <param name="screened">Optional callback given the screening result as soon as it exists (before the later stages
+    /// run), e.g. so that the caller can write the respondent table while the analysis goes on.</param>
     /// <exception cref="AnalysisStoppedException">A stage cannot run on these data.</exception>
-    public static PipelineResult Run(PreparedData prepared, PipelineSettings settings, Action<string>? progress = null)
+    public static PipelineResult Run(PreparedData prepared, PipelineSettings settings, Action<string>? progress = null,
+        Action<ScreeningResult>? screened = null)
     {
         ArgumentNullException.ThrowIfNull(prepared);
         ArgumentNullException.ThrowIfNull(settings);
@@ -28,6 +34,7 @@ public static class SurveyPipeline
         {
             progress?.Invoke($"screening {prepared.Scored.RespondentCount} respondents");
             screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered, progress));
+            screened?.Invoke(screening);
             if (settings.Scope == PipelineScope.All)
             {
                 var keep = new List<int>();

@@ -12,19 +12,31 @@ public static class SurveyJob
         OutputStaging.CheckDestination(settings.Out, settings.Force);
         var survey = SurveyLoader.Load(settings, log);
         var pipelineSettings = settings.Pipeline with { Seed = settings.Seed, Scope = scope };
+        var files = new List<string>();
+        using var staging = OutputStaging.Begin(settings.Out, settings.Force);
+        // The respondent table (one row per respondent, the largest output) is written while the later stages run.
+        Task? flags = null;
         PipelineResult result;
         try
         {
-            result = SurveyPipeline.Run(survey.Prepared, pipelineSettings, log.Step);
+            result = SurveyPipeline.Run(survey.Prepared, pipelineSettings, log.Step, screening => flags = Task.Run(() =>
+            {
+                log.Step("writing respondent-flags.csv");
+                staging.WriteStream("respondent-flags.csv", stream => ScreeningTables.WriteRespondentFlags(screening, stream));
+            }));
         }
         catch (AnalysisStoppedException e)
         {
+            WaitQuietly(flags);
             throw new SurveyInputException($"{Path.GetFileName(settings.Responses)}: {e.Message.TrimEnd('.')}. " +
                 "Fix: check the data with 'itemreduce check', or adjust the options of that stage (see --help).");
         }
+        catch
+        {
+            WaitQuietly(flags);
+            throw;
+        }
 
-        var files = new List<string>();
-        using var staging = OutputStaging.Begin(settings.Out, settings.Force);
         void Write(string name, string text)
         {
             staging.WriteText(name, text);
@@ -32,8 +44,6 @@ public static class SurveyJob
         }
         if (result.Screening is { } s)
         {
-            log.Step("writing respondent-flags.csv");
-            staging.WriteStream("respondent-flags.csv", stream => ScreeningTables.WriteRespondentFlags(s, stream));
             files.Add("respondent-flags.csv");
             Write("centre-share-by-items.csv", ScreeningTables.CentreShare(s));
         }
@@ -70,6 +80,7 @@ public static class SurveyJob
                 files.Add("appendix.pdf");
             }
         }
+        flags?.GetAwaiter().GetResult();
         staging.Commit();
 
         string outDir = Path.GetFullPath(settings.Out);
@@ -77,6 +88,14 @@ public static class SurveyJob
         stdout.WriteLine($"Results written to {outDir}:");
         foreach (string f in files.Order(StringComparer.Ordinal)) stdout.WriteLine("  " + Path.Combine(outDir, f));
         return result;
+    }
+
+    /// <summary>Waits for a background write before the staging folder is removed; its own error is superseded by the one
+    /// being reported.</summary>
+    private static void WaitQuietly(Task? task)
+    {
+        try { task?.Wait(); }
+        catch (AggregateException) { }
     }
 
     private static string Headline(PipelineResult r)
