@@ -101,4 +101,39 @@ public class RunCommandTests
         Assert.Equal(0, s.Run("--force").Code);
         Assert.Equal(first, File.ReadAllText(Path.Combine(s.Out, "summary.json")));
     }
+
+    [Fact]
+    public void A_stage_stopping_after_screening_leaves_no_outputs_although_the_flags_table_was_being_written()
+    {
+        // 11 straight-liners among 14 respondents on 10 items: they are set aside, 3 remain for 10 items (fewer than the
+        // 11 needed), so the run stops at the dimensions stage after respondent-flags.csv was started in the background.
+        var sb = new System.Text.StringBuilder("respondent," + string.Join(',', Enumerable.Range(1, 10).Select(j => $"q{j}")) + "\n");
+        for (int i = 0; i < 11; i++) sb.Append($"s{i}," + string.Join(',', Enumerable.Repeat("3", 10)) + "\n");
+        for (int i = 0; i < 3; i++) sb.Append($"v{i}," + string.Join(',', Enumerable.Range(0, 10).Select(j => ((i * 7 + j * 3 + j * j) % 5 + 1).ToString())) + "\n");
+        using var t = new TempSurvey().WithCodebook(10).WithResponses(sb.ToString());
+        var (code, _, err) = t.Run("--replicates", "20");
+        Assert.Equal(2, code);
+        Assert.Contains("remain after screening", err);
+        Assert.Single(err.Trim().Split('\n'));
+        Assert.False(Directory.Exists(t.Out));
+        Assert.DoesNotContain(Directory.GetDirectories(t.Folder), d => Path.GetFileName(d).Contains("partial", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void Progress_goes_to_stderr_only_when_asked_and_never_with_quiet()
+    {
+        using var t = new TempSurvey().WithCodebook(6).WithResponses(TempSurvey.ValidResponses(60, 6));
+        // Not a terminal (the test's writer) and no --progress: no progress lines.
+        var plain = t.Run("--replicates", "20", "--no-pdf");
+        Assert.Equal(0, plain.Code);
+        Assert.DoesNotContain("itemreduce: [", plain.Err);
+        var asked = t.Run("--replicates", "20", "--no-pdf", "--force", "--progress");
+        Assert.Equal(0, asked.Code);
+        var lines = asked.Err.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        Assert.Contains(lines, l => l.StartsWith("itemreduce: [", StringComparison.Ordinal) && l.Contains(" s] screening", StringComparison.Ordinal));
+        Assert.Contains(lines, l => l.Contains("writing respondent-flags.csv", StringComparison.Ordinal));
+        var quiet = t.Run("--replicates", "20", "--no-pdf", "--force", "--progress", "--quiet");
+        Assert.Equal(0, quiet.Code);
+        Assert.Equal("", quiet.Err);
+    }
 }
