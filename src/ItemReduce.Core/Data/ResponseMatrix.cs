@@ -96,13 +96,13 @@ public sealed class ResponseMatrix
     public long StorageBytes => _codes?.LongLength ?? (_values!.LongLength * sizeof(double));
 
     /// <summary>
-    /// Compact storage without row or column mapping only (null otherwise): for each item how many respondents hold
+    /// Compact storage only, views included (null for dense storage): for each item how many respondents hold
     /// each code (p × <see cref="TableSize"/>, item-major), the decoding table (same layout; NaN = missing), and the
     /// numbers of rows with no answer and with every item answered. One pass over the bytes, no decoding.
     /// </summary>
     internal (long[] CodeCounts, double[] Decode, int NoAnswers, int Complete)? CodeHistogram()
     {
-        if (_codes is null || _rowMap is not null || !_identityColumns) return null;
+        if (_codes is null) return null;
         // The matrix is immutable, so the histogram is computed once (the summary and the item moments both use it).
         return _histogram ??= ComputeHistogram();
     }
@@ -117,19 +117,34 @@ public sealed class ResponseMatrix
         for (int t = 0; t < missing.Length; t++) missing[t] = double.IsNaN(decode[t]);
         var counts = new long[p * TableSize];
         int none = 0, complete = 0;
-        for (int i = 0; i < n; i++)
+        var gate = new Lock();
+        // Fixed row segments counted in parallel and added up: integer counts, so the result does not depend on the order.
+        const int segmentRows = 1 << 16;
+        Parallel.For(0, (n + segmentRows - 1) / segmentRows, s =>
         {
-            var row = _codes.AsSpan((int)((long)i * _stride), p);
-            int skipped = 0;
-            for (int k = 0, o = 0; k < p; k++, o += TableSize)
+            var local = new long[p * TableSize];
+            int localNone = 0, localComplete = 0;
+            int end = Math.Min(n, (s + 1) * segmentRows);
+            for (int i = s * segmentRows; i < end; i++)
             {
-                int t = o + row[k];
-                counts[t]++;
-                if (missing[t]) skipped++;
+                var row = _codes.AsSpan((int)((long)Physical(i) * _stride), _stride);
+                int skipped = 0;
+                for (int k = 0, o = 0; k < p; k++, o += TableSize)
+                {
+                    int t = o + row[_colMap[k]];
+                    local[t]++;
+                    if (missing[t]) skipped++;
+                }
+                if (skipped == p) localNone++;
+                if (skipped == 0) localComplete++;
             }
-            if (skipped == p) none++;
-            if (skipped == 0) complete++;
-        }
+            lock (gate)
+            {
+                for (int t = 0; t < local.Length; t++) counts[t] += local[t];
+                none += localNone;
+                complete += localComplete;
+            }
+        });
         return (counts, decode, none, complete);
     }
 
