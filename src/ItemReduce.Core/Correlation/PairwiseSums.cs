@@ -78,7 +78,34 @@ internal sealed class PairwiseSums
     {
         // Matrices are immutable, so sums computed once for a matrix (dimensions, pairwise counts and the short form
         // all use the same analysed matrix) can be reused; the table holds its keys weakly.
-        return Cache.GetValue(data, d => Accumulate(d, maxDegreeOfParallelism));
+        return Cache.GetValue(data, d => FromParent(d, maxDegreeOfParallelism) ?? Accumulate(d, maxDegreeOfParallelism));
+    }
+
+    /// <summary>
+    /// For a respondent subset of a matrix whose sums are already known (the respondents kept after screening): the
+    /// parent's sums minus those of the rows left out, when fewer rows are left out than kept. Every entry is an exact
+    /// integer, so the difference equals the directly accumulated sum bit for bit. Null when this does not apply.
+    /// </summary>
+    private static PairwiseSums? FromParent(ResponseMatrix data, int maxDegreeOfParallelism)
+    {
+        if (data.Selection is not var (parent, rows) || !Cache.TryGetValue(parent, out var whole)) return null;
+        int n = parent.RespondentCount;
+        var kept = new bool[n];
+        foreach (int i in rows)
+        {
+            if (kept[i]) return null; // a row chosen twice: not a subset
+            kept[i] = true;
+        }
+        var left = new List<int>(n - rows.Length);
+        for (int i = 0; i < n; i++) if (!kept[i]) left.Add(i);
+        if (left.Count >= rows.Length) return null;
+        var zz = (double[])whole._zz.Clone();
+        if (left.Count > 0)
+        {
+            var removed = Accumulate(parent.SelectRespondents(left), maxDegreeOfParallelism);
+            for (int t = 0; t < zz.Length; t++) zz[t] -= removed._zz[t];
+        }
+        return new PairwiseSums(whole._p, zz, whole._padded);
     }
 
     private static readonly System.Runtime.CompilerServices.ConditionalWeakTable<ResponseMatrix, PairwiseSums> Cache = new();

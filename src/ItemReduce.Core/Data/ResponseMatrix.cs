@@ -317,8 +317,12 @@ public sealed class ResponseMatrix
             map[r] = Physical(i);
             ids[r] = RespondentIds[i];
         }
-        return new ResponseMatrix(ids, Items, _values, _codes, _stride, map, _colMap, _decode);
+        return new ResponseMatrix(ids, Items, _values, _codes, _stride, map, _colMap, _decode) { Selection = (this, rows.ToArray()) };
     }
+
+    /// <summary>For a view made by <see cref="SelectRespondents"/>: the matrix it was selected from and the rows chosen
+    /// (so that sums over the view can be derived from the parent's sums minus the rows left out); null otherwise.</summary>
+    internal (ResponseMatrix Parent, int[] Rows)? Selection { get; private init; }
 
     /// <summary>A view holding the given columns (in the given order); the cells are shared, not copied.</summary>
     public ResponseMatrix SelectItems(IReadOnlyList<int> columns)

@@ -293,4 +293,23 @@ public class CompactStorageTests
         AssertSameBits(rd.Respondents.Select(x => x.RobustD2).ToArray(), rc.Respondents.Select(x => x.RobustD2).ToArray());
         AssertSameBits(rd.Respondents.Select(x => x.EvenOdd).ToArray(), rc.Respondents.Select(x => x.EvenOdd).ToArray());
     }
+
+    [Fact]
+    public void Pairwise_correlations_of_a_kept_subset_are_the_same_whether_derived_from_the_whole_or_computed_afresh()
+    {
+        // Property: for integer answers the pairwise sums are exact integers, so the kept respondents' sums obtained as
+        // (all respondents) − (respondents left out) equal the sums accumulated over the kept rows bit for bit.
+        var (compact, _) = Both(3000, 0.1, 77);
+        var whole = PearsonCorrelation.Compute(compact, MissingDataHandling.Pairwise, -1); // caches the whole matrix's sums
+        Assert.Equal(3000, compact.RespondentCount);
+        var keep = Enumerable.Range(0, 3000).Where(i => i % 7 != 3).ToList();
+        var derived = PearsonCorrelation.Compute(compact.SelectRespondents(keep), MissingDataHandling.Pairwise, -1);
+        // A fresh matrix holding only the kept rows (no parent to derive from).
+        var (ids, v) = RandomAnswers(3000, 0.1, 77);
+        var builder = new ResponseMatrixBuilder(Items);
+        foreach (int i in keep) builder.Add(ids[i], v.AsSpan(i * Items.Length, Items.Length));
+        var fresh = PearsonCorrelation.Compute(builder.Build(), MissingDataHandling.Pairwise, -1);
+        AssertSameBits(fresh, derived);
+        Assert.NotEqual(whole[0, 1], derived[0, 1]);
+    }
 }
