@@ -48,6 +48,9 @@ internal static class ChiSquareTail
     /// <summary>Cap on lower-tail series terms (x &lt; k ≤ 400 needs about 130 at most).</summary>
     private const int MaxLowerTerms = 5000;
 
+    /// <summary>√½.</summary>
+    private const double SqrtHalf = 0.70710678118654757;
+
     /// <summary>2/√π.</summary>
     private const double TwoOverSqrtPi = 1.1283791670955126;
 
@@ -85,12 +88,13 @@ internal static class ChiSquareTail
     /// (even k, j0 = 0, J = k/2 − 1) or <c>t_j = e^{−h/2}·h^{j−1/2}/Γ(j+1/2)</c> (odd k, j0 = 1, J = (k−1)/2);
     /// <paramref name="next"/> is <c>t_{J+1}</c>, the first term of the lower tail, <paramref name="half"/> = e^{−h/2}.
     /// </summary>
-    private static double ScaledHead(double h, double half, int k, out double next)
+    private static double ScaledHead(double x, double half, int k, out double next)
     {
+        double h = 0.5 * x;
         bool odd = (k & 1) == 1;
         double shift = odd ? 0.5 : 0; // t_{j+1} = t_j · h / (j + 1 − shift)
         int j = odd ? 1 : 0, last = odd ? (k - 1) / 2 : k / 2 - 1;
-        double term = odd ? half * TwoOverSqrtPi * Math.Sqrt(h) : half;
+        double term = odd ? half * TwoOverSqrtPi * RootOfHalf(x) : half;
         double sum = 0;
         for (; j <= last; j++)
         {
@@ -107,23 +111,25 @@ internal static class ChiSquareTail
     /// </summary>
     private static double WholeDfUpperTail(double x, int k)
     {
-        double h = 0.5 * x;
         double half = Math.Exp(-0.25 * x); // e^{−h/2}; e^{−h} = half², applied in two steps so that it cannot underflow
-        double head = half * ScaledHead(h, half, k, out _);
-        return (k & 1) == 1 ? ErfcOfRoot(h, half) + head : head;
+        double head = half * ScaledHead(x, half, k, out _);
+        return (k & 1) == 1 ? ErfcOfRoot(x, half) + head : head;
     }
 
     /// <summary>
-    /// erfc(√h). The rounding of √h alone would cost a relative error of about h·1e−16 in the far tail (1e−13 at
-    /// Q = 1e−300), so the rounding residual d = √h − z (z the computed root) is corrected to first order:
-    /// erfc(z + d) ≈ erfc(z) − d·(2/√π)·e^{−h}.
+    /// erfc(√h), h = x/2. The rounding of the computed root z alone would cost a relative error of about h·1e−16 in
+    /// the far tail (1e−13 at Q = 1e−300), so the residual d = √h − z is corrected to first order:
+    /// erfc(z + d) ≈ erfc(z) − d·(2/√π)·e^{−h}, with d = (h − z²)/(2z) and h − z² taken with a single rounding (FMA).
     /// </summary>
-    private static double ErfcOfRoot(double h, double half)
+    private static double ErfcOfRoot(double x, double half)
     {
-        double z = Math.Sqrt(h);
-        double d = Math.FusedMultiplyAdd(-z, z, h) / (2 * z); // (h − z²)/(2z), h − z² exact via FMA
+        double z = RootOfHalf(x);
+        double d = Math.FusedMultiplyAdd(-z, z, 0.5 * x) / (2 * z);
         return SpecialFunctions.Erfc(z) - d * TwoOverSqrtPi * half * half;
     }
+
+    /// <summary>√(x/2), taken as √x·√½ so that it stays positive even when x/2 underflows (x = 4.9e−324).</summary>
+    private static double RootOfHalf(double x) => Math.Sqrt(x) * SqrtHalf;
 
     /// <summary>
     /// Whole k, 0 &lt; x &lt; k: the lower tail as the rest of the same series, <c>e^{−h} Σ_{j&gt;J} t_j</c> (all terms
@@ -134,7 +140,7 @@ internal static class ChiSquareTail
     {
         double h = 0.5 * x;
         double half = Math.Exp(-0.25 * x);
-        ScaledHead(h, half, k, out double term);
+        ScaledHead(x, half, k, out double term);
         double shift = (k & 1) == 1 ? 0.5 : 0;
         double j = (k & 1) == 1 ? (k + 1) / 2 : k / 2; // index of term
         double sum = 0;

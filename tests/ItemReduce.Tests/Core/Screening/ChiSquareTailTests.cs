@@ -135,6 +135,20 @@ public class ChiSquareTailTests
     }
 
     [Theory]
+    [InlineData(4.9406564584124654e-324)]
+    [InlineData(1e-300)]
+    [InlineData(1e-200)]
+    public void Tiny_x_gives_the_leading_term_of_the_lower_tail(double x)
+    {
+        // Expected: for df = 1, P = erf(√(x/2)) ≈ √(2x/π) once x is tiny (leading term of the Maclaurin series of erf;
+        // standard, from memory); for df = 2, P = 1 − e^{−x/2} ≈ x/2. Q stays 1.
+        Assert.Equal(1.0, ChiSquareTail.UpperTail(x, 1));
+        Assert.Equal(1.0, ChiSquareTail.UpperTail(x, 2));
+        Assert.Equal(1.0, ChiSquareTail.Cdf(x, 1) / (Math.Sqrt(2 / Math.PI) * Math.Sqrt(x)), 1e-12);
+        if (x >= 1e-300) Assert.Equal(1.0, ChiSquareTail.Cdf(x, 2) / (x / 2), 1e-12);
+    }
+
+    [Theory]
     [InlineData(1, 1e-12)]
     [InlineData(7, 0.3)]
     [InlineData(50, 1e-8)]
