@@ -37,14 +37,7 @@ public static class SurveyPipeline
             screened?.Invoke(screening);
             if (settings.Scope == PipelineScope.All)
             {
-                var keep = new List<int>();
-                for (int i = 0; i < screening.Respondents.Count; i++)
-                {
-                    var row = screening.Respondents[i];
-                    if (row.ItemsAnswered == 0) continue; // nothing to analyse
-                    if (!settings.KeepFlagged && row.Flagged) continue;
-                    keep.Add(i);
-                }
+                var keep = screening.RespondentsToAnalyse(settings.KeepFlagged);
                 if (keep.Count < prepared.Scored.RespondentCount) analysed = prepared.Scored.SelectRespondents(keep);
                 if (!settings.KeepFlagged && screening.FlaggedRespondents > 0)
                     warnings.Add(string.Create(ci, $"{screening.FlaggedRespondents} flagged respondent(s) were set aside for the later stages; {analysed.RespondentCount} were analysed. Review the flags: they are prompts for human judgement, not proof of careless answering."));

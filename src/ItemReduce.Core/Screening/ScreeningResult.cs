@@ -88,4 +88,30 @@ public sealed record ScreeningResult(
     RobustEstimatorDetails Robust,
     IReadOnlyList<HalfPeakRegionRow> HalfPeakRegion,
     IReadOnlyList<string> Warnings,
-    ScreeningOptions Options);
+    ScreeningOptions Options)
+{
+    /// <summary>Indices of the respondents who answered at least one item and, unless <paramref name="keepFlagged"/>,
+    /// carry no flag: the respondents the later stages analyse.</summary>
+    public List<int> RespondentsToAnalyse(bool keepFlagged)
+    {
+        if (Respondents is ScreeningRowStore store) return store.RespondentsToAnalyse(keepFlagged);
+        var keep = new List<int>();
+        for (int i = 0; i < Respondents.Count; i++)
+        {
+            var row = Respondents[i];
+            if (row.ItemsAnswered > 0 && (keepFlagged || !row.Flagged)) keep.Add(i);
+        }
+        return keep;
+    }
+
+    /// <summary>The finite robust (or classical) squared distances of the respondents who answered all
+    /// <paramref name="items"/> items, in ascending order (for Q–Q plots).</summary>
+    public double[] SortedDistances(bool robust, int items)
+    {
+        double[] values = Respondents is ScreeningRowStore store
+            ? store.DistancesOfRespondentsAnswering(robust, items)
+            : Respondents.Where(x => x.ItemsAnswered == items).Select(x => robust ? x.RobustD2 : x.D2).Where(double.IsFinite).ToArray();
+        Array.Sort(values);
+        return values;
+    }
+}

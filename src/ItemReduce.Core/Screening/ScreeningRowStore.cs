@@ -72,6 +72,25 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
         }
     }
 
+    /// <summary>See <see cref="ScreeningResult.RespondentsToAnalyse"/>.</summary>
+    public List<int> RespondentsToAnalyse(bool keepFlagged)
+    {
+        var keep = new List<int>(_answered.Length);
+        for (int i = 0; i < _answered.Length; i++)
+            if (_answered[i] > 0 && (keepFlagged || ReasonMask[i] == 0)) keep.Add(i);
+        return keep;
+    }
+
+    /// <summary>Finite robust or classical D² of the respondents who answered exactly <paramref name="items"/> items, in input order.</summary>
+    public double[] DistancesOfRespondentsAnswering(bool robust, int items)
+    {
+        var source = robust ? _robustD2 : _d2;
+        var list = new List<double>();
+        for (int i = 0; i < source.Length; i++)
+            if (_answered[i] == items && double.IsFinite(source[i])) list.Add(source[i]);
+        return list.ToArray();
+    }
+
     /// <summary>Respondents carrying the reason with bit <paramref name="bit"/>.</summary>
     public int CountWith(byte bit)
     {

@@ -159,10 +159,10 @@ public static class AppendixBuilder
 
         // Q–Q plot of the distances used for flagging, for respondents who answered every item.
         bool robust = s.Options.UseRobust && s.Robust.Available;
-        var complete = s.Respondents.Where(x => x.ItemsAnswered == p).Select(x => robust ? x.RobustD2 : x.D2).Where(double.IsFinite).Order().ToList();
-        if (complete.Count >= 10)
+        var complete = s.SortedDistances(robust, p);
+        if (complete.Length >= 10)
         {
-            int n = complete.Count;
+            int n = complete.Length;
             var ranks = QqRanks(n);
             var q = ranks.Select(i => ChiSquared.InvCDF(p, (i + 0.5) / n)).ToList();
             var d2 = ranks.Select(i => complete[i]).ToList();

@@ -77,4 +77,25 @@ public class RespondentScreeningTests(ITestOutputHelper output)
         Assert.InRange(robust, 15, 70);
         Assert.Equal(robust, r.ReasonCounts.Single(c => c.Code == ScreeningReasons.RobustDistance).Count);
     }
+
+    [Fact]
+    public void Row_array_shortcuts_agree_with_the_respondent_rows()
+    {
+        // Property: the array-based helpers (respondents to analyse, sorted distances for the Q–Q plot) give what a plain
+        // walk over the respondent rows gives (the path used when the rows are an ordinary list).
+        var s = Likert(2, 600, 25, 10, 0.10, 303);
+        var r = RespondentScreening.Run(ReverseScoring.Apply(s.Responses), new ScreeningOptions());
+        var copy = r with { Respondents = r.Respondents.ToList() };
+        foreach (bool keep in new[] { false, true })
+            Assert.Equal(copy.RespondentsToAnalyse(keep), r.RespondentsToAnalyse(keep));
+        Assert.True(r.RespondentsToAnalyse(false).Count < r.RespondentsToAnalyse(true).Count);
+        int p = s.Responses.ItemCount;
+        foreach (bool robust in new[] { false, true })
+        {
+            var fast = r.SortedDistances(robust, p);
+            Assert.Equal(copy.SortedDistances(robust, p), fast);
+            Assert.True(fast.Length > 100);
+            Assert.True(fast.Zip(fast.Skip(1)).All(t => t.First <= t.Second));
+        }
+    }
 }
