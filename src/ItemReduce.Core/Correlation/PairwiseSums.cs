@@ -120,13 +120,22 @@ internal sealed class PairwiseSums
         return AccumulateStacked(data, maxDegreeOfParallelism);
     }
 
-    /// <summary>Share of missing cells (from the code counts of compact storage; 1 when unknown).</summary>
+    /// <summary>Share of missing cells among up to 4096 evenly spaced rows. Only the choice of route depends on it, and
+    /// both routes give the same exact sums, so an estimate is enough (and it is deterministic).</summary>
     private static double MissingShare(ResponseMatrix data)
     {
-        if (data.CodeHistogram() is not var (counts, decode, _, _) || data.RespondentCount == 0 || data.ItemCount == 0) return 1;
-        long missing = 0;
-        for (int t = 0; t < counts.Length; t++) if (double.IsNaN(decode[t])) missing += counts[t];
-        return missing / ((double)data.RespondentCount * data.ItemCount);
+        int n = data.RespondentCount, p = data.ItemCount;
+        if (n == 0 || p == 0) return 0;
+        int step = Math.Max(1, n / 4096);
+        var row = new double[p];
+        long missing = 0, cells = 0;
+        for (int i = 0; i < n; i += step)
+        {
+            data.CopyRow(i, row);
+            foreach (double x in row) if (double.IsNaN(x)) missing++;
+            cells += p;
+        }
+        return missing / (double)cells;
     }
 
     /// <summary>
