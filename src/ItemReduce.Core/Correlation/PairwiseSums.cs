@@ -1,3 +1,4 @@
+using System.Runtime.Intrinsics;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Correlation;
@@ -150,46 +151,60 @@ internal sealed class PairwiseSums
         int pp = (p + 3) & ~3;
         var products = PearsonCorrelation.AccumulateSegments(data.Rows, n, p, pp, maxDegreeOfParallelism,
             (block, rows, tile) => FillAnswerTile(block, p, rows, tile, tileRows));
-        // Column totals and corrections, per fixed row segment (integers: the merge order does not matter).
-        var total = new long[3 * p];          // Σ x, Σ x², answers; per item
-        var removed = new long[3 * p * p];    // [(s · p + k) · p + j]: Σ over rows missing k of x_j, x_j², 1 (s = 0, 1, 2)
+        // Column totals and corrections, per fixed row segment. Every partial sum is an integer below 2⁵³ (Applies), so
+        // double accumulators are exact and the merge order does not matter.
+        var total = new double[3 * pp];       // Σ x, Σ x², answers; per item (blocks of pp)
+        var removed = new double[3 * p * p];  // [(s · p + k) · p + j]: Σ over rows missing k of x_j, x_j², 1 (s = 0, 1, 2)
         var gate = new Lock();
         const int segmentRows = 1 << 15;
         var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
+        int width = Vector256<double>.Count;
         Parallel.For(0, (n + segmentRows - 1) / segmentRows, options, seg =>
         {
-            var t = new long[3 * p];
-            var r = new long[3 * p * p];
-            var block = new double[tileRows * p];
+            var t = new double[3 * pp];
+            var r = new double[3 * p * p];
+            var scratch = new double[tileRows * p];
             var skipped = new int[p];
             int end = Math.Min(n, (seg + 1) * segmentRows);
             for (int i0 = seg * segmentRows; i0 < end; i0 += tileRows)
             {
                 int rows = Math.Min(tileRows, end - i0);
-                var v = data.Rows(i0, rows, block);
+                var v = data.Rows(i0, rows, scratch);
                 for (int o = 0; o < rows * p; o += p)
                 {
-                    int m = 0;
-                    for (int j = 0; j < p; j++)
+                    var row = v.Slice(o, p);
+                    int j = 0;
+                    // Totals a vector of items at a time; a missing answer adds exactly 0.
+                    for (; j + width <= p; j += width)
                     {
-                        double x = v[o + j];
+                        var x = Vector256.Create(row.Slice(j, width));
+                        var nan = Vector256.IsNaN(x);
+                        var x0 = Vector256.ConditionalSelect(nan, Vector256<double>.Zero, x);
+                        (Vector256.Create(t.AsSpan(j, width)) + x0).CopyTo(t.AsSpan(j, width));
+                        (Vector256.Create(t.AsSpan(pp + j, width)) + x0 * x0).CopyTo(t.AsSpan(pp + j, width));
+                        (Vector256.Create(t.AsSpan(2 * pp + j, width)) + Vector256.ConditionalSelect(nan, Vector256<double>.Zero, Vector256<double>.One))
+                            .CopyTo(t.AsSpan(2 * pp + j, width));
+                    }
+                    int m = 0;
+                    for (int q = 0; q < j; q++) if (double.IsNaN(row[q])) skipped[m++] = q;
+                    for (; j < p; j++)
+                    {
+                        double x = row[j];
                         if (double.IsNaN(x)) { skipped[m++] = j; continue; }
-                        long a = (long)x;
-                        t[j] += a;
-                        t[p + j] += a * a;
-                        t[2 * p + j]++;
+                        t[j] += x;
+                        t[pp + j] += x * x;
+                        t[2 * pp + j]++;
                     }
                     for (int q = 0; q < m; q++)
                     {
                         int k = skipped[q];
-                        for (int j = 0; j < p; j++)
+                        for (int c = 0; c < p; c++)
                         {
-                            double x = v[o + j];
+                            double x = row[c];
                             if (double.IsNaN(x)) continue;
-                            long a = (long)x;
-                            r[k * p + j] += a;
-                            r[(p + k) * p + j] += a * a;
-                            r[(2 * p + k) * p + j]++;
+                            r[k * p + c] += x;
+                            r[(p + k) * p + c] += x * x;
+                            r[(2 * p + k) * p + c]++;
                         }
                     }
                 }
@@ -207,9 +222,9 @@ internal sealed class PairwiseSums
         for (int k = 0; k < p; k++)
             for (int j = 0; j < p; j++)
             {
-                zz[(p + k) * padded + j] = total[j] - removed[k * p + j];                       // Sum(j, k)
-                zz[(2 * p + j) * padded + p + k] = total[p + j] - removed[(p + k) * p + j];    // SumSquares(j, k)
-                if (j >= k) zz[(p + j) * padded + p + k] = total[2 * p + j] - removed[(2 * p + k) * p + j]; // Count(j, k)
+                zz[(p + k) * padded + j] = total[j] - removed[k * p + j];                        // Sum(j, k)
+                zz[(2 * p + j) * padded + p + k] = total[pp + j] - removed[(p + k) * p + j];    // SumSquares(j, k)
+                if (j >= k) zz[(p + j) * padded + p + k] = total[2 * pp + j] - removed[(2 * p + k) * p + j]; // Count(j, k)
             }
         return new PairwiseSums(p, zz, padded);
     }
