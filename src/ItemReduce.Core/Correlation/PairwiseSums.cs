@@ -83,6 +83,10 @@ internal sealed class PairwiseSums
 
     private static readonly System.Runtime.CompilerServices.ConditionalWeakTable<ResponseMatrix, PairwiseSums> Cache = new();
 
+    /// <summary>The sums of this very matrix object if an earlier <see cref="Compute"/> left them in the cache; null
+    /// otherwise (never computes).</summary>
+    public static PairwiseSums? Cached(ResponseMatrix data) => Cache.TryGetValue(data, out var sums) ? sums : null;
+
     private static PairwiseSums Accumulate(ResponseMatrix data, int maxDegreeOfParallelism)
     {
         int n = data.RespondentCount, p = data.ItemCount, q = 3 * p;
