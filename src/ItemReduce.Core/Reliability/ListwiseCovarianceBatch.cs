@@ -117,17 +117,13 @@ internal static class ListwiseCovarianceBatch
         {
             int r0 = (int)((long)n * seg / segments), r1 = (int)((long)n * (seg + 1) / segments);
             var acc = local.Select(c => new Incomplete(c.Length)).ToArray();
-            var scratch = new double[tileRows * p];
-            for (int t0 = r0; t0 < r1; t0 += tileRows)
+            var row = new double[p];
+            for (int i = r0; i < r1; i++)
             {
-                int rows = Math.Min(tileRows, r1 - t0);
-                var block = source.Rows(t0, rows, scratch);
-                for (int o = 0; o < rows * p; o += p)
-                {
-                    if (!HasMissing(block.Slice(o, p))) continue;
-                    for (int s = 0; s < sets; s++)
-                        if (!CompleteOn(block, o, local[s])) acc[s].Add(block, o, local[s]);
-                }
+                if (source.IsComplete(i)) continue;   // scans the stored cells; only incomplete rows are decoded
+                source.CopyRow(i, row);
+                for (int s = 0; s < sets; s++)
+                    if (!CompleteOn(row, 0, local[s])) acc[s].Add(row, 0, local[s]);
             }
             partial[seg] = acc;
         });
@@ -142,12 +138,6 @@ internal static class ListwiseCovarianceBatch
                 (a, b) => totals.Product(g[a], g[b]) - drop.Products[a * k + b]);
         }
         return results;
-    }
-
-    private static bool HasMissing(ReadOnlySpan<double> row)
-    {
-        foreach (double x in row) if (double.IsNaN(x)) return true;
-        return false;
     }
 
     /// <summary>Integer sums over rows incomplete on one set, answers of missing cells counted as 0.</summary>
