@@ -114,3 +114,51 @@ internal static class ShortFormPanel
         }
     }
 }
+
+/// <summary>
+/// The listwise covariances behind the short-form reliability rows on the panel of <see cref="ShortFormBenchmarks"/>:
+/// 10 column sets (5 scales of 8 items and a 4-item short form of each) on a 500,000-row holdout-like view, read once
+/// per set (as before the batch) or once for all; and the 5 full scales of the whole panel once its pairwise sums are
+/// cached (as for the selection sample after its correlations).
+/// </summary>
+[SimpleJob(launchCount: 1, warmupCount: 1, iterationCount: 5)]
+[MemoryDiagnoser]
+public class ListwiseBenchmarks
+{
+    private ResponseMatrix _panel = null!, _half = null!;
+    private List<IReadOnlyList<int>> _scales = [], _sets = [];
+
+    [GlobalSetup]
+    public void Setup()
+    {
+        _panel = ShortFormPanel.Make(1_000_000, 7);
+        _half = _panel.SelectRespondents(Enumerable.Range(0, _panel.RespondentCount).Where(i => i % 2 == 0).ToList());
+        _scales = Enumerable.Range(0, 5).Select(f => (IReadOnlyList<int>)Enumerable.Range(0, 40).Where(j => j % 5 == f).ToArray()).ToList();
+        _sets = [.. _scales, .. _scales.Select(s => (IReadOnlyList<int>)s.Take(4).ToArray())];
+        ItemReduce.Core.Correlation.PairwiseSums.Compute(_panel, -1);
+    }
+
+    [Benchmark(Baseline = true, Description = "10 sets, 500000 rows, one read per set")]
+    public int OneReadPerSet()
+    {
+        int n = 0;
+        foreach (var s in _sets)
+            n += ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_half.SelectItems(s), [Enumerable.Range(0, s.Count).ToArray()])[0].Respondents;
+        return n;
+    }
+
+    [Benchmark(Description = "10 sets, 500000 rows, one read")]
+    public int OneRead() => ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_half, _sets).Sum(c => c.Respondents);
+
+    [Benchmark(Description = "5 scales, 1000000 rows, one read per set")]
+    public int FullScalesPerSet()
+    {
+        int n = 0;
+        foreach (var s in _scales)
+            n += ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_panel.SelectItems(s), [Enumerable.Range(0, s.Count).ToArray()])[0].Respondents;
+        return n;
+    }
+
+    [Benchmark(Description = "5 scales, 1000000 rows, one read, cached sums")]
+    public int FullScalesCached() => ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_panel, _scales).Sum(c => c.Respondents);
+}

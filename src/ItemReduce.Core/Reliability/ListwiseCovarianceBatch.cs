@@ -15,12 +15,13 @@ internal sealed record ListwiseCovariance(double[,] Covariance, int Respondents)
 /// rows instead of one per set (common practice, no source).
 /// <list type="bullet">
 /// <item>Compact integer data small enough for exact sums (<see cref="PairwiseSums.Applies"/> on the set's columns):
-/// with Z = [X | 1] on the rows complete on the set (zero rows elsewhere), Zᵀ Z holds n, Σx and Σxy as exact
-/// integers; each block of rows is decoded once and one tile per set is accumulated by the tiled kernel of
-/// <see cref="PearsonCorrelation"/>, in parallel over fixed row segments. <c>n·C_ab = n·Σx_a x_b − Σx_a Σx_b</c> is
-/// formed in 128-bit integers and rounded once, so the result does not depend on grouping or thread count. When the
-/// matrix's all-rows pairwise sums are already cached (<see cref="PairwiseSums.Cached"/>), the same integer sums are
-/// obtained by subtracting the rows incomplete on each set from them, so only those rows need arithmetic.</item>
+/// with missing answers counted as 0, the sums n, Σx_a and Σx_a x_b over the rows complete on a set equal the all-rows
+/// sums minus those over the rows missing some answer of the set. The all-rows sums come from the matrix's cached
+/// pairwise sums (<see cref="PairwiseSums.Cached"/>) or from one read of the rows that accumulates Zᵀ Z of
+/// Z = [X₀_G | 1] per group G of nested sets (a short form inside its scale) with the tiled kernel of
+/// <see cref="PearsonCorrelation"/>; a second, cheap read decodes only the incomplete rows. Both run in parallel over
+/// fixed row segments; all terms are integers below 2⁵³, and <c>n·C_ab = n·Σx_a x_b − Σx_a Σx_b</c> is formed in
+/// 128-bit integers and rounded once, so the result does not depend on grouping, order or thread count.</item>
 /// <item>Other data: two passes (means, then centred cross-products) over blocks of rows taken in order, each
 /// row serving every set; each set's sums run over its complete rows in row order, exactly as a separate row loop
 /// per set would.</item>
@@ -58,9 +59,12 @@ internal static class ListwiseCovarianceBatch
         {
             var sets = exact.Select(s => columnSets[s].ToArray()).ToArray();
             var (source, local) = Narrow(data, sets);
-            var sums = PairwiseSums.Cached(data) is { } totals
-                ? FromTotals(source, local, totals, sets, maxDegreeOfParallelism)
-                : ExactSums(source, local, maxDegreeOfParallelism);
+            ListwiseCovariance[] sums;
+            if (PairwiseSums.Cached(data) is { } totals)
+                sums = SubtractIncomplete(source, local, (s, a) => totals.Sum(sets[s][a], sets[s][a]),
+                    (s, a, b) => totals.Product(sets[s][a], sets[s][b]), maxDegreeOfParallelism);
+            else
+                sums = ExactSums(source, local, maxDegreeOfParallelism);
             for (int e = 0; e < exact.Count; e++) results[exact[e]] = sums[e];
         }
         if (twoPass.Count > 0)
@@ -83,32 +87,64 @@ internal static class ListwiseCovarianceBatch
         return (used.Length < p ? data.SelectItems(used) : data, sets.Select(set => set.Select(c => position[c]).ToArray()).ToArray());
     }
 
-    /// <summary>Exact path: one Zᵀ Z per set (Z = [X_set | 1] on the set's complete rows) from one read of the rows.</summary>
+    /// <summary>
+    /// Exact path without cached sums: sets are grouped so that each set's columns lie within its group's columns
+    /// (a short form within its scale); one read of the rows accumulates, per group G, Zᵀ Z of Z = [X₀_G | 1] over all
+    /// rows (missing answers as 0) with the tiled kernel, and <see cref="SubtractIncomplete"/> removes the rows
+    /// incomplete on each set.
+    /// </summary>
     private static ListwiseCovariance[] ExactSums(ResponseMatrix data, int[][] sets, int maxDegreeOfParallelism)
     {
-        int p = data.ItemCount, tileRows = PearsonCorrelation.TileRows;
-        var padded = sets.Select(c => (c.Length + 1 + 3) & ~3).ToArray();
-        var zz = PearsonCorrelation.AccumulateSegments(data.Rows, data.RespondentCount, p, padded, maxDegreeOfParallelism,
-            (block, rows, s, tile) => FillTile(block, p, rows, sets[s], tile.AsSpan(0, padded[s] * tileRows), tileRows));
-        var results = new ListwiseCovariance[sets.Length];
-        for (int s = 0; s < sets.Length; s++)
+        var groups = new List<int[]>();
+        var groupOf = new int[sets.Length];
+        foreach (int s in Enumerable.Range(0, sets.Length).OrderByDescending(s => sets[s].Length))
         {
-            int k = sets[s].Length, q = padded[s];
-            var z = zz[s];
-            results[s] = FromExactSums(k, (long)z[k * q + k], a => (long)z[k * q + a], (a, b) => (long)z[a * q + b]);
+            int g = groups.FindIndex(cols => sets[s].All(cols.Contains));
+            if (g < 0) { g = groups.Count; groups.Add(sets[s]); }
+            groupOf[s] = g;
         }
-        return results;
+        int p = data.ItemCount, tileRows = PearsonCorrelation.TileRows;
+        var padded = groups.Select(c => (c.Length + 1 + 3) & ~3).ToArray();
+        var zz = PearsonCorrelation.AccumulateSegments(data.Rows, data.RespondentCount, p, padded, maxDegreeOfParallelism,
+            (block, rows, g, tile) => FillTile(block, p, rows, groups[g], tile.AsSpan(0, padded[g] * tileRows), tileRows));
+        // Position of each set's columns within its group; the group's sums are the lower triangle of its Zᵀ Z.
+        var position = sets.Select((cols, s) => cols.Select(c => Array.IndexOf(groups[groupOf[s]], c)).ToArray()).ToArray();
+        long At(int s, int i, int j)
+        {
+            int g = groupOf[s];
+            return (long)zz[g][Math.Max(i, j) * padded[g] + Math.Min(i, j)];
+        }
+        return SubtractIncomplete(data, sets, (s, a) => At(s, groups[groupOf[s]].Length, position[s][a]),
+            (s, a, b) => At(s, position[s][a], position[s][b]), maxDegreeOfParallelism);
+    }
+
+    /// <summary>Variable-major tile of Z = [X₀ | 1] (missing answers as 0) of the given columns for a row-major block.</summary>
+    private static void FillTile(ReadOnlySpan<double> block, int p, int rows, int[] cols, Span<double> tile, int tileRows)
+    {
+        tile.Clear();
+        int k = cols.Length;
+        for (int a = 0; a < k; a++)
+        {
+            var dst = tile.Slice(a * tileRows, rows);
+            for (int t = 0, o = cols[a]; t < rows; t++, o += p)
+            {
+                double x = block[o];
+                dst[t] = double.IsNaN(x) ? 0 : x;
+            }
+        }
+        tile.Slice(k * tileRows, rows).Fill(1);
     }
 
     /// <summary>
-    /// Exact path when the all-rows sums of the matrix are cached (<see cref="PairwiseSums.Cached"/>, left by the
-    /// pairwise correlations of the same matrix): with missing answers counted as 0, the sums over the rows complete
-    /// on a set are the all-rows sums (n, Σx_a = <see cref="PairwiseSums.Sum"/>(a, a), Σx_a x_b =
-    /// <see cref="PairwiseSums.Product"/>(a, b)) minus those over the rows missing some answer of the set. Only those
-    /// rows need arithmetic; the read runs in parallel over fixed row segments and all terms are integers, so the
-    /// result equals <see cref="ExactSums"/> exactly.
+    /// Exact sums over the rows complete on each set from all-rows sums with missing answers counted as 0
+    /// (n, Σx_a = <paramref name="totalSum"/>(set, a), Σx_a x_b = <paramref name="totalProduct"/>(set, a, b); from
+    /// <see cref="PairwiseSums.Cached"/> or <see cref="ExactSums"/>) minus the same sums over the rows missing some
+    /// answer of the set. Only those rows are decoded (found by <see cref="ResponseMatrix.IsComplete"/>, which scans the
+    /// stored cells); the read runs in parallel over fixed row segments and every term is an integer, so the result
+    /// equals summing the complete rows directly, exactly.
     /// </summary>
-    private static ListwiseCovariance[] FromTotals(ResponseMatrix source, int[][] local, PairwiseSums totals, int[][] global, int maxDegreeOfParallelism)
+    private static ListwiseCovariance[] SubtractIncomplete(ResponseMatrix source, int[][] local, Func<int, int, long> totalSum,
+        Func<int, int, int, long> totalProduct, int maxDegreeOfParallelism)
     {
         int n = source.RespondentCount, p = source.ItemCount, sets = local.Length, tileRows = PearsonCorrelation.TileRows;
         int segments = Math.Clamp((n + 4 * tileRows - 1) / (4 * tileRows), 1, 16);
@@ -120,7 +156,7 @@ internal static class ListwiseCovarianceBatch
             var row = new double[p];
             for (int i = r0; i < r1; i++)
             {
-                if (source.IsComplete(i)) continue;   // scans the stored cells; only incomplete rows are decoded
+                if (source.IsComplete(i)) continue;
                 source.CopyRow(i, row);
                 for (int s = 0; s < sets; s++)
                     if (!CompleteOn(row, 0, local[s])) acc[s].Add(row, 0, local[s]);
@@ -130,12 +166,11 @@ internal static class ListwiseCovarianceBatch
         var results = new ListwiseCovariance[sets];
         for (int s = 0; s < sets; s++)
         {
-            var g = global[s];
-            int k = g.Length;
+            int k = local[s].Length, set = s;
             var drop = new Incomplete(k);
             foreach (var part in partial) drop.Merge(part[s]);
-            results[s] = FromExactSums(k, n - drop.Rows, a => totals.Sum(g[a], g[a]) - drop.Sums[a],
-                (a, b) => totals.Product(g[a], g[b]) - drop.Products[a * k + b]);
+            results[s] = FromExactSums(k, n - drop.Rows, a => totalSum(set, a) - drop.Sums[a],
+                (a, b) => totalProduct(set, a, b) - drop.Products[a * k + b]);
         }
         return results;
     }
@@ -169,19 +204,6 @@ internal static class ListwiseCovarianceBatch
             Rows += other.Rows;
             for (int a = 0; a < Sums.Length; a++) Sums[a] += other.Sums[a];
             for (int c = 0; c < Products.Length; c++) Products[c] += other.Products[c];
-        }
-    }
-
-    /// <summary>Variable-major tile of Z = [X_set | 1] for a row-major block: rows incomplete on the set stay 0.</summary>
-    private static void FillTile(ReadOnlySpan<double> block, int p, int rows, int[] cols, Span<double> tile, int tileRows)
-    {
-        tile.Clear();
-        int k = cols.Length;
-        for (int t = 0, o = 0; t < rows; t++, o += p)
-        {
-            if (!CompleteOn(block, o, cols)) continue;
-            for (int a = 0; a < k; a++) tile[a * tileRows + t] = block[o + cols[a]];
-            tile[k * tileRows + t] = 1;
         }
     }
 
