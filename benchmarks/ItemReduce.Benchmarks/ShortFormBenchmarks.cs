@@ -139,25 +139,16 @@ public class ListwiseBenchmarks
     }
 
     [Benchmark(Baseline = true, Description = "10 sets, 500000 rows, one read per set")]
-    public int OneReadPerSet()
-    {
-        int n = 0;
-        foreach (var s in _sets)
-            n += ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_half.SelectItems(s), [Enumerable.Range(0, s.Count).ToArray()])[0].Respondents;
-        return n;
-    }
+    public int OneReadPerSet() => PerSet(_half, _sets);
+
+    private static int PerSet(ResponseMatrix data, List<IReadOnlyList<int>> sets) =>
+        sets.Sum(s => ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(data.SelectItems(s), [Enumerable.Range(0, s.Count).ToArray()])[0].Respondents);
 
     [Benchmark(Description = "10 sets, 500000 rows, one read")]
     public int OneRead() => ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_half, _sets).Sum(c => c.Respondents);
 
     [Benchmark(Description = "5 scales, 1000000 rows, one read per set")]
-    public int FullScalesPerSet()
-    {
-        int n = 0;
-        foreach (var s in _scales)
-            n += ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_panel.SelectItems(s), [Enumerable.Range(0, s.Count).ToArray()])[0].Respondents;
-        return n;
-    }
+    public int FullScalesPerSet() => PerSet(_panel, _scales);
 
     [Benchmark(Description = "5 scales, 1000000 rows, one read, cached sums")]
     public int FullScalesCached() => ItemReduce.Core.Reliability.ListwiseCovarianceBatch.Compute(_panel, _scales).Sum(c => c.Respondents);
