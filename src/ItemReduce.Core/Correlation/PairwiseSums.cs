@@ -115,6 +115,10 @@ internal sealed class PairwiseSums
     /// about 3 m p scalar operations for a row missing m answers, against about 4 p² vector operations saved per row.</summary>
     internal const double FewMissingShare = 0.05;
 
+    /// <summary>The sums of this very matrix object if an earlier <see cref="Compute"/> left them in the cache; null
+    /// otherwise (never computes).</summary>
+    public static PairwiseSums? Cached(ResponseMatrix data) => Cache.TryGetValue(data, out var sums) ? sums : null;
+
     private static PairwiseSums Accumulate(ResponseMatrix data, int maxDegreeOfParallelism)
     {
         if (MissingShare(data) <= FewMissingShare) return AccumulateFewMissing(data, maxDegreeOfParallelism);

@@ -106,30 +106,49 @@ public static class PearsonCorrelation
     /// sums are added in segment order, so the result does not depend on the thread count.
     /// </summary>
     internal static double[] AccumulateSegments(RowBlockSource source, int n, int p, int padded, int maxDegreeOfParallelism, TileFill fill)
+        => AccumulateSegments(source, n, p, [padded], maxDegreeOfParallelism, (block, rows, _, tile) => fill(block, rows, tile))[0];
+
+    /// <summary>Writes tile number <paramref name="set"/> (variable-major, padded[set] × <see cref="TileRows"/>, unused
+    /// entries 0) of a row-major block of rows.</summary>
+    internal delegate void MultiTileFill(ReadOnlySpan<double> block, int rows, int set, double[] tile);
+
+    /// <summary>
+    /// As <see cref="AccumulateSegments(RowBlockSource, int, int, int, int, TileFill)"/> for several vectors z⁽ˢ⁾ per row
+    /// at once: each block of rows is read (decoded) once and turned into one tile per set s, whose Σ zᵢ⁽ˢ⁾ zᵢ⁽ˢ⁾ᵀ is
+    /// accumulated separately (leading dimension padded[s], a multiple of 4). Same fixed segments and merge order.
+    /// </summary>
+    internal static double[][] AccumulateSegments(RowBlockSource source, int n, int p, int[] padded, int maxDegreeOfParallelism, MultiTileFill fill)
     {
         int segments = Math.Clamp((n + 4 * TileRows - 1) / (4 * TileRows), 1, 16);
-        var partial = new double[segments][];
+        int sets = padded.Length, widest = padded.Length == 0 ? 0 : padded.Max();
+        var partial = new double[segments][][];
         var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
         Parallel.For(0, segments, options, s =>
         {
             int r0 = (int)((long)n * s / segments), r1 = (int)((long)n * (s + 1) / segments);
-            var acc = new double[padded * padded];
-            var tile = new double[padded * TileRows];
+            var acc = new double[sets][];
+            for (int q = 0; q < sets; q++) acc[q] = new double[padded[q] * padded[q]];
+            var tile = new double[widest * TileRows];
             var rowScratch = new double[TileRows * p];
             for (int t0 = r0; t0 < r1; t0 += TileRows)
             {
                 int rows = Math.Min(TileRows, r1 - t0);
-                fill(source(t0, rows, rowScratch), rows, tile);
-                AccumulateTile(tile, padded, acc);
+                var block = source(t0, rows, rowScratch);
+                for (int q = 0; q < sets; q++)
+                {
+                    fill(block, rows, q, tile);
+                    AccumulateTile(tile, padded[q], acc[q]);
+                }
             }
             partial[s] = acc;
         });
         var total = partial[0];
         for (int s = 1; s < segments; s++)
-        {
-            var ps = partial[s];
-            for (int k = 0; k < total.Length; k++) total[k] += ps[k];
-        }
+            for (int q = 0; q < sets; q++)
+            {
+                double[] sum = total[q], ps = partial[s][q];
+                for (int k = 0; k < sum.Length; k++) sum[k] += ps[k];
+            }
         return total;
     }
 

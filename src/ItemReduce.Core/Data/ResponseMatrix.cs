@@ -296,6 +296,7 @@ public sealed class ResponseMatrix
     public bool IsComplete(int row)
     {
         long o = (long)Physical(row) * _stride;
+        if (_codes is not null && _identityColumns) return !_codes.AsSpan((int)o, ItemCount).Contains(MissingCode);
         for (int k = 0; k < ItemCount; k++)
         {
             long c = o + _colMap[k];

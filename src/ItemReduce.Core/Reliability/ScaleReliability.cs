@@ -1,4 +1,3 @@
-using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Reliability;
@@ -17,7 +16,23 @@ public static class ScaleReliability
     {
         ArgumentNullException.ThrowIfNull(items);
         var (cov, n) = ListwiseCovariance(items, Enumerable.Range(0, items.ItemCount).ToArray());
-        int k = items.ItemCount;
+        return FromCovariance(cov, n, confidence);
+    }
+
+    /// <summary>
+    /// Reliability of a scale from its listwise covariance matrix, for callers that computed it already (several
+    /// scales from one read of the data). Gives the same values as <see cref="Compute"/> on the data the covariance
+    /// came from.
+    /// </summary>
+    /// <param name="covariance">k × k sample covariance (n − 1) of the scale's items over the rows complete on them.</param>
+    /// <param name="respondents">Number n of those rows, ≥ 0 (below 2 every statistic is NaN).</param>
+    /// <param name="confidence">Coverage of the alpha interval, in (0, 1).</param>
+    /// <exception cref="ArgumentException">A non-square or empty matrix, or n &lt; 0.</exception>
+    public static ReliabilityEstimate FromCovariance(double[,] covariance, int respondents, double confidence = 0.95)
+    {
+        ValidateCovariance(covariance, respondents);
+        var cov = covariance;
+        int n = respondents, k = cov.GetLength(0);
         double alpha = n >= 2 ? CronbachAlpha.FromCovariance(cov) : double.NaN;
         var (lo, hi) = FeldtInterval.Compute(alpha, n, k, confidence);
         var corr = ToCorrelation(cov);
@@ -45,92 +60,36 @@ public static class ScaleReliability
     {
         ArgumentNullException.ThrowIfNull(fullItems);
         ArgumentNullException.ThrowIfNull(shortItems);
-        var all = Enumerable.Range(0, fullItems.ItemCount).ToArray();
-        var (cov, n) = ListwiseCovariance(fullItems, all);
-        return n >= 3 ? LevyOverlapCorrection.FromCovariance(cov, shortItems, all) : (double.NaN, double.NaN);
+        var (cov, n) = ListwiseCovariance(fullItems, Enumerable.Range(0, fullItems.ItemCount).ToArray());
+        return ShortFullCorrelation(cov, n, shortItems);
     }
 
-    /// <summary>Sample covariance (n − 1, two-pass) of the given columns over rows complete on them.</summary>
+    /// <summary>As <see cref="ShortFullCorrelation(ResponseMatrix, IReadOnlyList{int})"/> from the full scale's listwise
+    /// covariance <paramref name="fullCovariance"/> (k × k, n − 1) over <paramref name="respondents"/> rows; NaN for n &lt; 3.</summary>
+    /// <exception cref="ArgumentException">A non-square or empty matrix, or n &lt; 0.</exception>
+    public static (double Observed, double Corrected) ShortFullCorrelation(double[,] fullCovariance, int respondents, IReadOnlyList<int> shortItems)
+    {
+        ValidateCovariance(fullCovariance, respondents);
+        ArgumentNullException.ThrowIfNull(shortItems);
+        var all = Enumerable.Range(0, fullCovariance.GetLength(0)).ToArray();
+        return respondents >= 3 ? LevyOverlapCorrection.FromCovariance(fullCovariance, shortItems, all) : (double.NaN, double.NaN);
+    }
+
+    private static void ValidateCovariance(double[,] covariance, int respondents)
+    {
+        ArgumentNullException.ThrowIfNull(covariance);
+        int k = covariance.GetLength(0);
+        if (k == 0 || covariance.GetLength(1) != k)
+            throw new ArgumentException($"Covariance is {k}×{covariance.GetLength(1)}; a square matrix with at least 1 row is needed.", nameof(covariance));
+        if (respondents < 0) throw new ArgumentException($"respondents = {respondents}; must be ≥ 0.", nameof(respondents));
+    }
+
+    /// <summary>Sample covariance (n − 1) of the given columns over rows complete on them
+    /// (<see cref="ListwiseCovarianceBatch"/> with one set).</summary>
     internal static (double[,] Covariance, int N) ListwiseCovariance(ResponseMatrix data, IReadOnlyList<int> columns)
     {
-        if (columns.Count == data.ItemCount && columns.Select((c, i) => c == i).All(b => b) && PairwiseSums.Applies(data))
-            return ExactListwiseCovariance(data);
-        int k = columns.Count, p = data.ItemCount;
-        var cols = columns.ToArray();
-        // Rows are decoded in blocks and visited in order, so the sums run in the same order as a row loop.
-        const int blockRows = 1024;
-        int n = 0;
-        var mean = new double[k];
-        data.ForEachBlock(blockRows, (v, rows) =>
-        {
-            for (int o = 0; o < rows * p; o += p)
-            {
-                if (!CompleteOn(v, o, cols)) continue;
-                n++;
-                for (int a = 0; a < k; a++) mean[a] += v[o + cols[a]];
-            }
-        });
-        for (int a = 0; a < k; a++) mean[a] = n > 0 ? mean[a] / n : double.NaN;
-        var cov = new double[k, k];
-        var d = new double[k];
-        data.ForEachBlock(blockRows, (v, rows) =>
-        {
-            for (int o = 0; o < rows * p; o += p)
-            {
-                if (!CompleteOn(v, o, cols)) continue;
-                for (int a = 0; a < k; a++) d[a] = v[o + cols[a]] - mean[a];
-                for (int a = 0; a < k; a++)
-                    for (int b = 0; b <= a; b++) cov[a, b] += d[a] * d[b];
-            }
-        });
-        for (int a = 0; a < k; a++)
-            for (int b = 0; b <= a; b++)
-                cov[a, b] = cov[b, a] = n > 1 ? cov[a, b] / (n - 1) : double.NaN;
-        return (cov, n);
-    }
-
-    /// <summary>
-    /// The same covariance for compact integer-valued data from exact sums over the complete rows: with Z = [X | 1] on
-    /// complete rows (zero rows elsewhere), Zᵀ Z holds n, Σx and Σxy as exact integers (accumulated in parallel by the
-    /// tiled kernel); <c>n·C_ab = n·Σx_a x_b − Σx_a Σx_b</c> is formed in 128-bit integers and rounded once.
-    /// </summary>
-    private static (double[,] Covariance, int N) ExactListwiseCovariance(ResponseMatrix data)
-    {
-        int k = data.ItemCount, rowsTotal = data.RespondentCount, tileRows = PearsonCorrelation.TileRows;
-        int padded = (k + 1 + 3) & ~3;
-        var zz = PearsonCorrelation.AccumulateSegments(data.Rows, rowsTotal, k, padded, -1, (block, rows, tile) =>
-        {
-            Array.Clear(tile);
-            for (int t = 0; t < rows; t++)
-            {
-                if (!CompleteOn(block, t * k, k)) continue;
-                for (int a = 0; a < k; a++) tile[a * tileRows + t] = block[t * k + a];
-                tile[k * tileRows + t] = 1;
-            }
-        });
-        long n = (long)zz[k * padded + k];
-        var sum = new long[k];
-        for (int a = 0; a < k; a++) sum[a] = (long)zz[k * padded + a];
-        var cov = new double[k, k];
-        for (int a = 0; a < k; a++)
-            for (int b = 0; b <= a; b++)
-            {
-                Int128 scaled = n * (Int128)(long)zz[a * padded + b] - (Int128)sum[a] * sum[b];
-                cov[a, b] = cov[b, a] = n > 1 ? (double)scaled / ((double)n * (n - 1)) : double.NaN;
-            }
-        return (cov, (int)n);
-    }
-
-    private static bool CompleteOn(ReadOnlySpan<double> v, int offset, int count)
-    {
-        for (int c = 0; c < count; c++) if (double.IsNaN(v[offset + c])) return false;
-        return true;
-    }
-
-    private static bool CompleteOn(ReadOnlySpan<double> v, int offset, int[] cols)
-    {
-        foreach (int c in cols) if (double.IsNaN(v[offset + c])) return false;
-        return true;
+        var r = ListwiseCovarianceBatch.Compute(data, [columns])[0];
+        return (r.Covariance, r.Respondents);
     }
 
     internal static double[,] ToCorrelation(double[,] cov)

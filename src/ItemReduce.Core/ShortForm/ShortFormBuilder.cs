@@ -50,9 +50,14 @@ public static class ShortFormBuilder
         WarnSharedHomes(scales, warnings);
         progress?.Invoke("short form: scale reliability and item judgements");
         var flags = new ItemFlags[data.ItemCount];
-        foreach (var sc in scales)
+        // One read of the selection rows gives every scale's listwise covariance; the estimates are reused for the
+        // full-form rows of the selection sample below.
+        var selFull = ListwiseCovarianceBatch.Compute(sel, scales.Select(sc => (IReadOnlyList<int>)sc.Items).ToList())
+            .Select(c => ScaleReliability.FromCovariance(c.Covariance, c.Respondents, o.Confidence)).ToList();
+        for (int s = 0; s < scales.Count; s++)
         {
-            var rel = ScaleReliability.Compute(sel.SelectItems(sc.Items), o.Confidence);
+            var sc = scales[s];
+            var rel = selFull[s];
             for (int a = 0; a < sc.Items.Count; a++)
             {
                 int j = sc.Items[a];
@@ -87,9 +92,9 @@ public static class ShortFormBuilder
 
         progress?.Invoke("short form: reliability of full and short forms");
         var rows = new List<ReliabilityRow>();
-        AddRows(rows, sel, scales, scaleResults, data, holdRows.Length > 0 ? SampleRole.Selection : SampleRole.All, o.Confidence);
+        AddRows(rows, sel, scales, scaleResults, data, holdRows.Length > 0 ? SampleRole.Selection : SampleRole.All, o.Confidence, selFull);
         if (holdRows.Length > 0)
-            AddRows(rows, data.SelectRespondents(holdRows), scales, scaleResults, data, SampleRole.Holdout, o.Confidence);
+            AddRows(rows, data.SelectRespondents(holdRows), scales, scaleResults, data, SampleRole.Holdout, o.Confidence, null);
         warnings.Add(ValidationCaution);
 
         return new ShortFormResult
@@ -174,21 +179,35 @@ public static class ShortFormBuilder
         }
     }
 
+    /// <summary>Full- and short-form rows of one sample. All column sets the sample needs (each scale's full items unless
+    /// <paramref name="knownFull"/> gives their estimates, and each short form) come from one read of its rows; each set
+    /// stays listwise on its own items.</summary>
     private static void AddRows(List<ReliabilityRow> rows, ResponseMatrix sample, List<ScaleDefinition> scales, List<ShortFormScale> chosen,
-        ResponseMatrix data, SampleRole role, double confidence)
+        ResponseMatrix data, SampleRole role, double confidence, IReadOnlyList<ReliabilityEstimate>? knownFull)
     {
         string suffix = role == SampleRole.Holdout ? "-holdout" : "";
+        var shortPositions = new List<int>[scales.Count];
+        var sets = new List<IReadOnlyList<int>>();
+        var fullSet = new int[scales.Count];
+        var shortSet = new int[scales.Count];
         for (int s = 0; s < scales.Count; s++)
         {
             var fullIdx = scales[s].Items;
             var shortNames = chosen[s].SelectedItems;
-            var shortPositions = fullIdx.Select((j, pos) => (j, pos)).Where(t => shortNames.Contains(data.Items[t.j].Name)).Select(t => t.pos).ToList();
-            var fullData = sample.SelectItems(fullIdx);
-            var f = ScaleReliability.Compute(fullData, confidence);
+            shortPositions[s] = fullIdx.Select((j, pos) => (j, pos)).Where(t => shortNames.Contains(data.Items[t.j].Name)).Select(t => t.pos).ToList();
+            fullSet[s] = shortSet[s] = -1;
+            if (knownFull is null) { fullSet[s] = sets.Count; sets.Add(fullIdx); }
+            if (shortPositions[s].Count > 0) { shortSet[s] = sets.Count; sets.Add(shortPositions[s].Select(pos => fullIdx[pos]).ToList()); }
+        }
+        var cov = ListwiseCovarianceBatch.Compute(sample, sets);
+        for (int s = 0; s < scales.Count; s++)
+        {
+            var f = knownFull?[s] ?? ScaleReliability.FromCovariance(cov[fullSet[s]].Covariance, cov[fullSet[s]].Respondents, confidence);
             rows.Add(Row(scales[s].Name, ScaleForm.Full, role, "full" + suffix, f, double.NaN, double.NaN));
-            if (shortPositions.Count == 0) continue;
-            var sh = ScaleReliability.Compute(fullData.SelectItems(shortPositions), confidence);
-            var (observed, corrected) = ScaleReliability.ShortFullCorrelation(fullData, shortPositions);
+            if (shortSet[s] < 0) continue;
+            var c = cov[shortSet[s]];
+            var sh = ScaleReliability.FromCovariance(c.Covariance, c.Respondents, confidence);
+            var (observed, corrected) = ScaleReliability.ShortFullCorrelation(f.Covariance, f.Respondents, shortPositions[s]);
             rows.Add(Row(scales[s].Name, ScaleForm.Short, role, "short" + suffix, sh, corrected, observed));
         }
     }
