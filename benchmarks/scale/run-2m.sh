@@ -36,6 +36,7 @@ measure() { # label, then the command
 
 echo "== machine: $(nproc) cores, $(free -g | awk '/Mem:/{print $2}') GiB RAM, load $(cut -d' ' -f1-3 /proc/loadavg)"
 measure parse-only dotnet "$cli" check --responses "$work/responses.csv" --codebook "$work/codebook.csv"
+rm -rf "$work/results"   # so the run does not also time deleting an earlier run's outputs
 measure full-run dotnet "$cli" run --responses "$work/responses.csv" --codebook "$work/codebook.csv" \
   --out "$work/results" --force --progress
 echo "== steps of the full run (stderr with --progress):"
