@@ -80,8 +80,12 @@ public static class PearsonCorrelation
     /// cross-product matrix Σ_i (x_i − x̄)(x_i − x̄)ᵀ of complete data.
     /// </summary>
     internal static double[] CentredCrossProducts(RowBlockSource source, int n, int p, int maxDegreeOfParallelism, out int pp)
+        => CentredCrossProducts(source, n, p, maxDegreeOfParallelism, out pp, out _);
+
+    /// <summary>As above, also giving the column means (summed in row order).</summary>
+    internal static double[] CentredCrossProducts(RowBlockSource source, int n, int p, int maxDegreeOfParallelism, out int pp, out double[] mean)
     {
-        var mean = new double[p];
+        mean = new double[p];
         var scratch = new double[TileRows * p];
         for (int t0 = 0; t0 < n; t0 += TileRows)
         {
@@ -93,8 +97,9 @@ public static class PearsonCorrelation
 
         int padded = (p + 3) & ~3;
         pp = padded;
+        var centre = mean;
         return AccumulateSegments(source, n, p, padded, maxDegreeOfParallelism,
-            (block, rows, tile) => FillCentredTile(block, p, mean, rows, tile));
+            (block, rows, tile) => FillCentredTile(block, p, centre, rows, tile));
     }
 
     /// <summary>Writes the variable-major tile (padded × <see cref="TileRows"/>) of a row-major block of rows.</summary>

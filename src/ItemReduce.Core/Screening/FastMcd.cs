@@ -251,16 +251,15 @@ internal static class FastMcd
     private static Candidate? SmallestH(double[] x, int p, int[] rows, int h, Candidate c)
     {
         var d = Distances(x, p, rows, c);
-        var pos = new int[rows.Length];
-        for (int i = 0; i < pos.Length; i++) pos[i] = i;
-        Array.Sort(d, pos); // ties keep no particular order; break them by row number below for determinism
-        double cutoff = d[h - 1];
+        // The h-th smallest distance by selection (no full sort); rows below it are chosen, ties at it are broken by row number.
+        double cutoff = Select((double[])d.Clone(), h - 1);
         var chosen = new List<int>(h);
-        int firstTie = Array.BinarySearch(d, cutoff);
-        while (firstTie > 0 && d[firstTie - 1] == cutoff) firstTie--;
-        for (int i = 0; i < firstTie; i++) chosen.Add(rows[pos[i]]);
         var tied = new List<int>();
-        for (int i = firstTie; i < d.Length && d[i] == cutoff; i++) tied.Add(rows[pos[i]]);
+        for (int i = 0; i < d.Length; i++)
+        {
+            if (d[i] < cutoff) chosen.Add(rows[i]);
+            else if (d[i] == cutoff) tied.Add(rows[i]);
+        }
         tied.Sort();
         chosen.AddRange(tied.Take(h - chosen.Count));
         var support = chosen.ToArray();
@@ -279,8 +278,21 @@ internal static class FastMcd
     /// <summary>D² of each of <paramref name="rows"/> from the candidate's mean and covariance.</summary>
     private static double[] Distances(double[] x, int p, int[] rows, Candidate c)
     {
-        const int lanes = ScreeningCholesky.Lanes;
         var d = new double[rows.Length];
+        // Large sets (the C-steps on all rows) are split into chunks computed in parallel; each row's distance depends
+        // only on that row, so the result is the same as one sequential pass.
+        const int chunk = 4096;
+        if (rows.Length >= 2 * chunk)
+            ParallelFor((rows.Length + chunk - 1) / chunk, b => DistancesOf(x, p, rows, c, d, b * chunk, Math.Min(rows.Length, (b + 1) * chunk)));
+        else
+            DistancesOf(x, p, rows, c, d, 0, rows.Length);
+        return d;
+    }
+
+    /// <summary>Distances of rows[first..end) into d.</summary>
+    private static void DistancesOf(double[] x, int p, int[] rows, Candidate c, double[] d, int first, int end)
+    {
+        const int lanes = ScreeningCholesky.Lanes;
         var diff = new double[p];
         var work = new double[p];
         var group = new double[p * lanes];
@@ -288,9 +300,9 @@ internal static class FastMcd
         Span<double> forms = stackalloc double[lanes];
         var mean = c.Mean;
         var factor = c.Factor;
-        int i = 0;
+        int i = first;
         // Lanes rows at a time (bit-identical to the scalar form, see ScreeningCholesky.QuadraticForms), then the rest.
-        for (; i + lanes <= rows.Length; i += lanes)
+        for (; i + lanes <= end; i += lanes)
         {
             for (int k = 0; k < lanes; k++)
             {
@@ -300,13 +312,38 @@ internal static class FastMcd
             factor.QuadraticForms(group, groupWork, forms);
             for (int k = 0; k < lanes; k++) d[i + k] = forms[k];
         }
-        for (; i < rows.Length; i++)
+        for (; i < end; i++)
         {
             int o = rows[i] * p;
             for (int j = 0; j < p; j++) diff[j] = x[o + j] - mean[j];
             d[i] = factor.QuadraticForm(diff, work);
         }
-        return d;
+    }
+
+    /// <summary>The value of rank <paramref name="k"/> (0-based) of <paramref name="a"/> (reordered in place): Hoare's
+    /// selection with median-of-three pivots; values must not be NaN.</summary>
+    internal static double Select(double[] a, int k)
+    {
+        int lo = 0, hi = a.Length - 1;
+        while (lo < hi)
+        {
+            int mid = lo + (hi - lo) / 2;
+            if (a[mid] < a[lo]) (a[mid], a[lo]) = (a[lo], a[mid]);
+            if (a[hi] < a[lo]) (a[hi], a[lo]) = (a[lo], a[hi]);
+            if (a[hi] < a[mid]) (a[hi], a[mid]) = (a[mid], a[hi]);
+            double pivot = a[mid];
+            int i = lo, j = hi;
+            while (i <= j)
+            {
+                while (a[i] < pivot) i++;
+                while (pivot < a[j]) j--;
+                if (i <= j) { (a[i], a[j]) = (a[j], a[i]); i++; j--; }
+            }
+            if (k <= j) hi = j;
+            else if (k >= i) lo = i;
+            else return a[k];
+        }
+        return a[k];
     }
 
     private static List<Candidate> KeepBest(List<Candidate> candidates, int count) =>

@@ -42,7 +42,12 @@ public static class RespondentScreening
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new List<string>();
 
-        // 1. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
+        // 1. Robust location and scatter from FAST-MCD on complete rows, fitted on another thread while the classical
+        //    moments are accumulated (the two do not depend on each other; FAST-MCD leaves cores idle between its steps).
+        var robustWarnings = new List<string>();
+        var robustFit = Task.Run(() => RobustFit(data, options, robustWarnings, progress));
+
+        // 2. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
         progress?.Invoke("screening: item means and covariances");
         var (mean, rawCov, noOverlap) = PairwiseCovariance.Compute(data);
         if (noOverlap > 0)
@@ -55,8 +60,8 @@ public static class RespondentScreening
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
         var classical = new MahalanobisDistance(mean, cov);
 
-        // 2. Robust location and scatter from FAST-MCD on complete rows.
-        var (robust, robustDistance) = RobustFit(data, options, warnings, progress);
+        var (robust, robustDistance) = robustFit.GetAwaiter().GetResult();
+        warnings.AddRange(robustWarnings);
 
         // 3. Cutoffs, df = items answered.
         var cutoffByDf = new double[p + 1];

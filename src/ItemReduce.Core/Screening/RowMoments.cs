@@ -57,6 +57,7 @@ internal static class RowMoments
     /// <summary>Two-pass mean and cross-product matrix of the given rows divided by <paramref name="divisor"/>; row-major p × p.</summary>
     public static (double[] Mean, double[] Cov) MeanCovariance(double[] x, int p, int[] rows, int divisor)
     {
+        if (rows.Length >= KernelRows) return MeanCovarianceByTiles(x, p, rows, divisor);
         var mean = new double[p];
         foreach (int r in rows)
             for (int j = 0; j < p; j++) mean[j] += x[r * p + j];
@@ -70,6 +71,26 @@ internal static class RowMoments
         }
         for (int j = 0; j < p; j++)
             for (int k = 0; k <= j; k++) cov[k * p + j] = cov[j * p + k] /= divisor;
+        return (mean, cov);
+    }
+
+    /// <summary>Row count from which <see cref="MeanCovariance(double[], int, int[], int)"/> uses the tiled cross-product kernel.</summary>
+    internal const int KernelRows = 2048;
+
+    /// <summary>The same moments for many rows: the mean in row order, then the centred cross-products by the tiled,
+    /// parallel kernel of <see cref="ItemReduce.Core.Correlation.PearsonCorrelation"/> (fixed row segments, so the result
+    /// does not depend on the thread count; it differs from the row loop only by rounding).</summary>
+    private static (double[] Mean, double[] Cov) MeanCovarianceByTiles(double[] x, int p, int[] rows, int divisor)
+    {
+        ReadOnlySpan<double> Source(int first, int count, Span<double> scratch)
+        {
+            for (int r = 0; r < count; r++) x.AsSpan(rows[first + r] * p, p).CopyTo(scratch.Slice(r * p, p));
+            return scratch[..(count * p)];
+        }
+        var lower = ItemReduce.Core.Correlation.PearsonCorrelation.CentredCrossProducts(Source, rows.Length, p, -1, out int pp, out var mean);
+        var cov = new double[p * p];
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k <= j; k++) cov[k * p + j] = cov[j * p + k] = lower[j * pp + k] / divisor;
         return (mean, cov);
     }
 }

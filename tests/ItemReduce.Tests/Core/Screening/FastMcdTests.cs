@@ -137,4 +137,19 @@ public class FastMcdTests
         Assert.Throws<ArgumentException>(() => FastMcd.Fit(new double[6], 2, 3, new FastMcdSettings()));
         Assert.Throws<ArgumentException>(() => FastMcd.Fit(new double[30], 10, 3, new FastMcdSettings(SupportSize: 3)));
     }
+
+    [Fact]
+    public void Selection_returns_the_order_statistic_of_a_sort()
+    {
+        // Property: Select(a, k) equals the k-th value of the sorted array, with many ties and without.
+        var rng = new ItemReduce.Core.Randomness.RandomStream(11);
+        foreach (int n in new[] { 1, 2, 3, 10, 101, 5000 })
+            foreach (bool ties in new[] { false, true })
+            {
+                var a = Enumerable.Range(0, n).Select(_ => ties ? rng.NextInt(7) : rng.NextGaussian()).ToArray();
+                var sorted = a.Order().ToArray();
+                foreach (int k in new[] { 0, n / 3, n / 2, n - 1 })
+                    Assert.Equal(sorted[k], FastMcd.Select((double[])a.Clone(), k));
+            }
+    }
 }
