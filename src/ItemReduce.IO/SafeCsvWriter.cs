@@ -77,9 +77,11 @@ public sealed class SafeCsvWriter
         return value;
     }
 
+    private static readonly System.Buffers.SearchValues<char> NeedQuotes = System.Buffers.SearchValues.Create(",\"\n\r");
+
     internal static string Quote(string value)
     {
-        if (value.IndexOfAny([',', '"', '\n', '\r']) < 0) return value;
+        if (value.AsSpan().IndexOfAny(NeedQuotes) < 0) return value;
         return "\"" + value.Replace("\"", "\"\"") + "\"";
     }
 }

@@ -62,6 +62,42 @@ public static class ScreeningTables
 
     private static readonly byte[] True = Utf8NoBom.GetBytes(Bool(true)), False = Utf8NoBom.GetBytes(Bool(false));
 
+    /// <summary>
+    /// Writes the text <c>Math.Round(v, 6).ToString("R")</c> (v finite) as UTF-8 into <paramref name="destination"/>
+    /// (≥ 64 bytes) and returns its length. Fast path: when x = Math.Round(v, 6) is exactly the double nearest to m / 10⁶
+    /// for the integer m = round(x · 10⁶) and 10⁻⁴ ≤ |x| &lt; 10⁹, the shortest round-trip text of x is m / 10⁶ in plain
+    /// notation without trailing zeros (at most 15 significant digits: no other decimal that short lies within half an
+    /// ulp of x), so m is printed directly; otherwise the general formatter is used.
+    /// </summary>
+    internal static int FormatRounded(double v, Span<byte> destination)
+    {
+        double x = Math.Round(v, Decimals);
+        double a = Math.Abs(x);
+        if (a >= 1e-4 && a < 1e9)
+        {
+            long m = (long)Math.Round(x * 1e6);
+            if (m / 1e6 == x) return Fixed(m, destination);
+        }
+        x.TryFormat(destination, out int written, "R", CultureInfo.InvariantCulture);
+        return written;
+    }
+
+    /// <summary>Writes m / 10⁶ in plain decimal notation without trailing zeros; returns the length.</summary>
+    private static int Fixed(long m, Span<byte> span)
+    {
+        int n = 0;
+        if (m < 0) { span[n++] = (byte)'-'; m = -m; }
+        long whole = m / 1_000_000, frac = m % 1_000_000;
+        whole.TryFormat(span[n..], out int w, default, CultureInfo.InvariantCulture);
+        n += w;
+        if (frac == 0) return n;
+        span[n++] = (byte)'.';
+        int digits = 6;
+        while (frac % 10 == 0) { frac /= 10; digits--; }
+        for (int d = digits - 1; d >= 0; d--) { span[n + d] = (byte)('0' + frac % 10); frac /= 10; }
+        return n + digits;
+    }
+
     /// <summary>Rows formatted per parallel block of <see cref="WriteRespondentFlags"/>.</summary>
     private const int FormatBlockRows = 8192;
 
@@ -98,8 +134,14 @@ public static class ScreeningTables
         /// <summary>As <see cref="SafeCsvWriter.Number(double)"/>: round-trip text, empty for NaN/infinity.</summary>
         public RowBuffer Number(double v) => double.IsFinite(v) ? Format(v) : this;
 
-        /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals.</summary>
-        public RowBuffer Rounded(double v) => double.IsFinite(v) ? Format(Math.Round(v, Decimals)) : this;
+        /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals (see <see cref="FormatRounded"/>).</summary>
+        public RowBuffer Rounded(double v)
+        {
+            if (!double.IsFinite(v)) return this;
+            Ensure(64);
+            _length += FormatRounded(v, _bytes.AsSpan(_length));
+            return this;
+        }
 
         private RowBuffer Format<T>(T v) where T : IUtf8SpanFormattable
         {

@@ -112,4 +112,29 @@ public class ScaleOutputTests
         Assert.Equal(capped, ParallelAnalysis.SubsampleRows(600, 200, 4)); // seeded
         Assert.NotEqual(capped, ParallelAnalysis.SubsampleRows(600, 200, 5));
     }
+
+    [Fact]
+    public void Rounded_numbers_are_written_exactly_as_the_general_round_trip_formatter_writes_them()
+    {
+        // Property (the reference is .NET's own "R" formatting of Math.Round(v, 6), the rule of SafeCsvWriter.Number):
+        // the integer fast path must give the same text for every value, including exponent-range, tie and boundary cases.
+        var rng = new ItemReduce.Core.Randomness.RandomStream(404);
+        var values = new List<double> { 0, -0.0, 1, -1, 0.5, 1e-4, -1e-4, 9.99995e-5, 0.000049999, 1e-7, 123456.0000005, 0.1 + 0.2,
+            999999999.999999, 1e9, 1e15, 2.5e-6, 72.05466300000001, double.Epsilon, double.MaxValue, -double.MaxValue };
+        for (int i = 0; i < 200_000; i++)
+        {
+            double magnitude = Math.Pow(10, rng.NextDouble() * 16 - 7);
+            double v = (rng.NextDouble() < 0.5 ? -1 : 1) * magnitude * rng.NextDouble();
+            values.Add(v);
+            values.Add(Math.Round(v, 6));                 // already on the 6-decimal grid
+            values.Add(Math.Round(v, 6) + 5e-7);          // a tie, or close to one
+        }
+        var buffer = new byte[64];
+        foreach (double v in values)
+        {
+            string expected = Math.Round(v, 6).ToString("R", System.Globalization.CultureInfo.InvariantCulture);
+            int n = ScreeningTables.FormatRounded(v, buffer);
+            Assert.Equal(expected, Encoding.UTF8.GetString(buffer, 0, n));
+        }
+    }
 }
