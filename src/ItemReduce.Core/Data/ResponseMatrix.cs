@@ -125,13 +125,14 @@ public sealed class ResponseMatrix
             var local = new long[p * TableSize];
             int localNone = 0, localComplete = 0;
             int end = Math.Min(n, (s + 1) * segmentRows);
+            var columns = _colMap.AsSpan();
             for (int i = s * segmentRows; i < end; i++)
             {
                 var row = _codes.AsSpan((int)((long)Physical(i) * _stride), _stride);
                 int skipped = 0;
-                for (int k = 0, o = 0; k < p; k++, o += TableSize)
+                for (int k = 0, o = 0; k < columns.Length; k++, o += TableSize)
                 {
-                    int t = o + row[_colMap[k]];
+                    int t = o + row[columns[k]];
                     local[t]++;
                     if (missing[t]) skipped++;
                 }
@@ -296,12 +297,16 @@ public sealed class ResponseMatrix
     public bool IsComplete(int row)
     {
         long o = (long)Physical(row) * _stride;
-        if (_codes is not null && _identityColumns) return !_codes.AsSpan((int)o, ItemCount).Contains(MissingCode);
-        for (int k = 0; k < ItemCount; k++)
+        int p = _colMap.Length;
+        if (_codes is not null)
         {
-            long c = o + _colMap[k];
-            if (_codes is null ? double.IsNaN(_values![c]) : _codes[c] == MissingCode) return false;
+            var cells = _codes.AsSpan((int)o, _stride);
+            if (_identityColumns) return !cells[..p].Contains(MissingCode);
+            foreach (int c in _colMap) if (cells[c] == MissingCode) return false;
+            return true;
         }
+        var values = _values.AsSpan((int)o, _stride);
+        foreach (int c in _colMap) if (double.IsNaN(values[c])) return false;
         return true;
     }
 

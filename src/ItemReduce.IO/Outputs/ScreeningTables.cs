@@ -87,16 +87,25 @@ public static class ScreeningTables
     {
         int n = 0;
         if (m < 0) { span[n++] = (byte)'-'; m = -m; }
-        long whole = m / 1_000_000, frac = m % 1_000_000;
+        long whole = m / 1_000_000;
+        int frac = (int)(m - whole * 1_000_000);
         whole.TryFormat(span[n..], out int w, default, CultureInfo.InvariantCulture);
         n += w;
         if (frac == 0) return n;
-        span[n++] = (byte)'.';
-        int digits = 6;
-        while (frac % 10 == 0) { frac /= 10; digits--; }
-        for (int d = digits - 1; d >= 0; d--) { span[n + d] = (byte)('0' + frac % 10); frac /= 10; }
-        return n + digits;
+        span[n] = (byte)'.';
+        // Six digits from two three-digit groups, then the trailing zeros dropped.
+        int high = frac / 1000, low = frac - high * 1000;
+        var digits = ThreeDigits.AsSpan();
+        digits.Slice(high * 3, 3).CopyTo(span[(n + 1)..]);
+        digits.Slice(low * 3, 3).CopyTo(span[(n + 4)..]);
+        int end = n + 7;
+        while (span[end - 1] == (byte)'0') end--;
+        return end;
     }
+
+    /// <summary>"000", "001", … "999" as ASCII.</summary>
+    private static readonly byte[] ThreeDigits = Enumerable.Range(0, 1000)
+        .SelectMany(v => System.Text.Encoding.ASCII.GetBytes(v.ToString("000", CultureInfo.InvariantCulture))).ToArray();
 
     /// <summary>Rows formatted per parallel block of <see cref="WriteRespondentFlags"/>.</summary>
     private const int FormatBlockRows = 8192;
