@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
 using ItemReduce.Core.Data;
 
@@ -163,7 +164,7 @@ internal sealed class PairwiseSums
         const int segmentRows = 1 << 15;
         var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
         int width = Vector256<double>.Count;
-        Parallel.For(0, (n + segmentRows - 1) / segmentRows, options, seg =>
+        Parallel.For(0, (n + segmentRows - 1) / segmentRows, options, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (seg) =>
         {
             var t = new double[3 * pp];
             var r = new double[3 * p * p];
@@ -234,6 +235,7 @@ internal sealed class PairwiseSums
     }
 
     /// <summary>Writes the variable-major tile of X₀ (answers, missing → 0) for a row-major block; unused rows and padding are 0.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void FillAnswerTile(ReadOnlySpan<double> v, int p, int count, double[] tile, int tileRows)
     {
         if (count < tileRows) Array.Clear(tile);
@@ -260,6 +262,7 @@ internal sealed class PairwiseSums
     }
 
     /// <summary>Writes the variable-major tile of Z = [X₀ | M | X₀²] for a row-major block; unused rows and padding are 0.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void FillTile(ReadOnlySpan<double> v, int p, int count, double[] tile, int tileRows)
     {
         if (count < tileRows) Array.Clear(tile);

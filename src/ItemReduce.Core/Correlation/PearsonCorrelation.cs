@@ -128,7 +128,7 @@ public static class PearsonCorrelation
         int sets = padded.Length, widest = padded.Length == 0 ? 0 : padded.Max();
         var partial = new double[segments][][];
         var options = new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism };
-        Parallel.For(0, segments, options, s =>
+        Parallel.For(0, segments, options, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (s) =>
         {
             int r0 = (int)((long)n * s / segments), r1 = (int)((long)n * (s + 1) / segments);
             var acc = new double[sets][];
@@ -163,6 +163,7 @@ public static class PearsonCorrelation
     }
 
     /// <summary>Transposes a row-major block of <paramref name="rows"/> rows into variable-major tile rows, centred; pads with zeros.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void FillCentredTile(ReadOnlySpan<double> v, int p, double[] mean, int rows, double[] tile)
     {
         if (rows < TileRows) Array.Clear(tile);
@@ -178,6 +179,7 @@ public static class PearsonCorrelation
     }
 
     /// <summary>acc[j, k] += Σ_t tile[j, t] tile[k, t] for the 4 × 2 blocks on or below the diagonal.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void AccumulateTile(double[] tile, int padded, double[] acc)
     {
         if (Fma.IsSupported && Vector256.IsHardwareAccelerated)
@@ -213,6 +215,7 @@ public static class PearsonCorrelation
     }
 
     /// <summary>The same kernel with 256-bit fused multiply-add intrinsics (x86 FMA3).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void AccumulateTileFma(double[] tile, int padded, double[] acc)
     {
         ref double t0 = ref MemoryMarshal.GetArrayDataReference(tile);

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Data;
 
 /// <summary>
@@ -120,7 +121,7 @@ public sealed class ResponseMatrix
         var gate = new Lock();
         // Fixed row segments counted in parallel and added up: integer counts, so the result does not depend on the order.
         const int segmentRows = 1 << 16;
-        Parallel.For(0, (n + segmentRows - 1) / segmentRows, s =>
+        Parallel.For(0, (n + segmentRows - 1) / segmentRows, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (s) =>
         {
             var local = new long[p * TableSize];
             int localNone = 0, localComplete = 0;
@@ -186,6 +187,7 @@ public sealed class ResponseMatrix
     }
 
     /// <summary>Decodes the answers of respondent <paramref name="row"/> into <paramref name="destination"/> (length ≥ p).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void CopyRow(int row, Span<double> destination)
     {
         int p = ItemCount;
@@ -210,6 +212,7 @@ public sealed class ResponseMatrix
     /// the storage when it is dense and unmapped, otherwise decodes into <paramref name="scratch"/> (length ≥ count × p)
     /// and returns that. The result must be treated as read-only.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public ReadOnlySpan<double> Rows(int first, int count, Span<double> scratch)
     {
         int p = ItemCount;
@@ -294,6 +297,7 @@ public sealed class ResponseMatrix
     }
 
     /// <summary>True when respondent <paramref name="row"/> answered every item.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public bool IsComplete(int row)
     {
         long o = (long)Physical(row) * _stride;

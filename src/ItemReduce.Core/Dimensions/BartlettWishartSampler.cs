@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.LinearAlgebra;
 using ItemReduce.Core.Randomness;
 
@@ -60,6 +61,7 @@ public static class BartlettWishartSampler
 
     /// <summary>Bartlett factor: row i (0-based) holds L_i0..L_ii; L_ii = sqrt(χ²(m − i)), i.e. χ²(m − i + 1) in
     /// 1-based numbering; strict upper triangle zero.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void SampleFactor(int p, int df, RandomStream rng, double[] l)
     {
         for (int i = 0; i < p; i++)
@@ -72,6 +74,7 @@ public static class BartlettWishartSampler
     }
 
     /// <summary>W = L Lᵀ: W_ij = Σ_{k ≤ j} L_ik L_jk for j ≤ i (contiguous row dot products), mirrored.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void Product(double[] l, int p, double[] w)
     {
         for (int i = 0; i < p; i++)
@@ -86,6 +89,7 @@ public static class BartlettWishartSampler
         }
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ScaleToCorrelation(double[] w, int p)
     {
         Span<double> s = p <= 512 ? stackalloc double[p] : new double[p];

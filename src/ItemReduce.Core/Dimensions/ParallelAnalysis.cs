@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.LinearAlgebra;
@@ -235,7 +236,7 @@ public static class ParallelAnalysis
         var eigReduced = reduced ? new double[reps][] : null;
         var po = new ParallelOptions { MaxDegreeOfParallelism = options.MaxDegreeOfParallelism };
         int done = 0, step = Math.Max(1, reps / 10);
-        Parallel.For(0, reps, po, () => new ReplicateBuffers(p, newScratch()), (rep, _, b) =>
+        Parallel.For(0, reps, po, () => new ReplicateBuffers(p, newScratch()), [MethodImpl(MethodImplOptions.AggressiveOptimization)] (rep, _, b) =>
         {
             var rng = RandomStream.ForTask(options.Seed, rep, purpose);
             draw(rng, b.Scratch, b.R);

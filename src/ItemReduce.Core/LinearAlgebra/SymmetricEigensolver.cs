@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.LinearAlgebra;
 
 /// <summary>
@@ -59,6 +60,7 @@ public static class SymmetricEigensolver
     /// n × n matrix and is destroyed; <paramref name="d"/>, <paramref name="e"/> (length n) and
     /// <paramref name="work"/> (length 2n) are scratch. Returns <paramref name="d"/> sorted descending.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double[] EigenvaluesInPlace(double[] a, int n, double[] d, double[] e, double[] work)
     {
         HouseholderTridiagonalize(a, n, d, e, null, work);
@@ -75,6 +77,7 @@ public static class SymmetricEigensolver
     /// sub-diagonal element T[i, i−1] (e[0] = 0). When <paramref name="h"/> is given, the Householder vector
     /// of step i is left in row i, columns 0..i−1 of <paramref name="a"/> and H in h[i] (0 = no reflection).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void HouseholderTridiagonalize(double[] a, int n, double[] d, double[] e, double[]? h, double[] work)
     {
         var p = work.AsSpan(0, n);
@@ -151,6 +154,7 @@ public static class SymmetricEigensolver
     /// <paramref name="d"/> holds the eigenvalues (unsorted). When <paramref name="zt"/> is given (row-major,
     /// rows = vectors), the plane rotations are applied to its rows, turning Qᵀ into the eigenvectors' transpose.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void ImplicitQl(double[] d, double[] e, double[]? zt, int n)
     {
         for (int i = 1; i < n; i++) e[i - 1] = e[i];

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 
@@ -149,7 +150,7 @@ internal static class ListwiseCovarianceBatch
         int n = source.RespondentCount, p = source.ItemCount, sets = local.Length, tileRows = PearsonCorrelation.TileRows;
         int segments = Math.Clamp((n + 4 * tileRows - 1) / (4 * tileRows), 1, 16);
         var partial = new Incomplete[segments][];
-        Parallel.For(0, segments, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, seg =>
+        Parallel.For(0, segments, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (seg) =>
         {
             int r0 = (int)((long)n * seg / segments), r1 = (int)((long)n * (seg + 1) / segments);
             var acc = local.Select(c => new Incomplete(c.Length)).ToArray();

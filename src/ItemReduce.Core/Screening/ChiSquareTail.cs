@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using MathNet.Numerics;
 using MathNet.Numerics.Distributions;
 
@@ -70,6 +71,7 @@ internal static class ChiSquareTail
     }
 
     /// <summary>Upper tail <c>P(χ²_k &gt; x)</c>; 1 for x ≤ 0, NaN for NaN input or df ≤ 0.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double UpperTail(double x, double df)
     {
         if (double.IsNaN(x) || !(df > 0)) return double.NaN;
@@ -88,6 +90,7 @@ internal static class ChiSquareTail
     /// (even k, j0 = 0, J = k/2 − 1) or <c>t_j = e^{−h/2}·h^{j−1/2}/Γ(j+1/2)</c> (odd k, j0 = 1, J = (k−1)/2);
     /// <paramref name="next"/> is <c>t_{J+1}</c>, the first term of the lower tail, <paramref name="half"/> = e^{−h/2}.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double ScaledHead(double x, double half, int k, out double next)
     {
         double h = 0.5 * x;
@@ -109,6 +112,7 @@ internal static class ChiSquareTail
     /// Whole k, 0 &lt; x ≤ <see cref="MaxSumX"/>: even k <c>e^{−h} Σ_{j=0}^{k/2−1} h^j/j!</c>; odd k
     /// <c>erfc(√h) + e^{−h} Σ_{j=1}^{(k−1)/2} h^{j−1/2}/Γ(j+1/2)</c>; h = x/2.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double WholeDfUpperTail(double x, int k)
     {
         double half = Math.Exp(-0.25 * x); // e^{−h/2}; e^{−h} = half², applied in two steps so that it cannot underflow
@@ -121,6 +125,7 @@ internal static class ChiSquareTail
     /// the far tail (1e−13 at Q = 1e−300), so the residual d = √h − z is corrected to first order:
     /// erfc(z + d) ≈ erfc(z) − d·(2/√π)·e^{−h}, with d = (h − z²)/(2z) and h − z² taken with a single rounding (FMA).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double ErfcOfRoot(double x, double half)
     {
         double z = RootOfHalf(x);

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Screening;
 
 /// <summary>
@@ -47,6 +48,7 @@ internal sealed class EvenOddConsistency
     public double Compute(ReadOnlySpan<double> answers) => Compute(answers, out _);
 
     /// <summary>The coefficient and the number of subscales it rests on (both halves answered).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double Compute(ReadOnlySpan<double> answers, out int usedSubscales)
     {
         usedSubscales = 0;
@@ -68,6 +70,7 @@ internal sealed class EvenOddConsistency
         return r <= -1 || stepped < -1 ? -1 : stepped;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double HalfMean(ReadOnlySpan<double> answers, int[] items)
     {
         int m = 0;
@@ -76,6 +79,7 @@ internal sealed class EvenOddConsistency
         return m == 0 ? double.NaN : s / m;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double Pearson(ReadOnlySpan<double> a, ReadOnlySpan<double> b)
     {
         int m = a.Length;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Randomness;
 
 namespace ItemReduce.Core.Screening;
@@ -248,6 +249,7 @@ internal static class FastMcd
     }
 
     /// <summary>C-step: the h rows of <paramref name="rows"/> nearest to (mean, cov) of <paramref name="c"/>, and their mean and covariance.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static Candidate? SmallestH(double[] x, int p, int[] rows, int h, Candidate c)
     {
         var d = Distances(x, p, rows, c);
@@ -290,6 +292,7 @@ internal static class FastMcd
     }
 
     /// <summary>Distances of rows[first..end) into d.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void DistancesOf(double[] x, int p, int[] rows, Candidate c, double[] d, int first, int end)
     {
         const int lanes = ScreeningCholesky.Lanes;
@@ -322,6 +325,7 @@ internal static class FastMcd
 
     /// <summary>The value of rank <paramref name="k"/> (0-based) of <paramref name="a"/> (reordered in place): Hoare's
     /// selection with median-of-three pivots; values must not be NaN.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double Select(double[] a, int k)
     {
         int lo = 0, hi = a.Length - 1;

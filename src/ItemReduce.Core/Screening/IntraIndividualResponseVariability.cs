@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Screening;
 
 /// <summary>
@@ -11,6 +12,7 @@ namespace ItemReduce.Core.Screening;
 internal static class IntraIndividualResponseVariability
 {
     /// <summary>SD (n − 1) of the non-missing values of <paramref name="answers"/>; NaN when fewer than 2.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double Compute(ReadOnlySpan<double> answers)
     {
         int m = 0;

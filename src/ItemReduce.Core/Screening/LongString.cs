@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Screening;
 
 /// <summary>
@@ -9,6 +10,7 @@ namespace ItemReduce.Core.Screening;
 internal static class LongString
 {
     /// <summary>Longest run of equal, non-missing consecutive values in <paramref name="answers"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static int Compute(ReadOnlySpan<double> answers)
     {
         int longest = 0, run = 0;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Collections.Concurrent;
 using ItemReduce.Core.Data;
 
@@ -110,6 +111,7 @@ internal sealed class MahalanobisDistance
     /// cancel more than six digits, or <c>Ω_MM</c> cannot be factorised, the row falls back to its own factor.
     /// Each row's arithmetic depends only on that row, so results do not depend on blocking or thread count.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal void ComputeBlock(ReadOnlySpan<double> rows, int count, Span<double> d2, Span<int> answered, Scratch s)
     {
         const int lanes = ScreeningCholesky.Lanes;
@@ -150,6 +152,7 @@ internal sealed class MahalanobisDistance
     }
 
     /// <summary>D² of the first <paramref name="used"/> queued complete rows (unused lanes are zero-filled).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void FlushComplete(Scratch s, int used, Span<double> d2)
     {
         const int lanes = ScreeningCholesky.Lanes;
@@ -161,6 +164,7 @@ internal sealed class MahalanobisDistance
     }
 
     /// <summary>D² of the first <paramref name="used"/> queued incomplete rows by the precision-matrix route.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void FlushIncomplete(Scratch s, int used, ReadOnlySpan<double> rows, Span<double> d2)
     {
         const int lanes = ScreeningCholesky.Lanes;
@@ -193,6 +197,7 @@ internal sealed class MahalanobisDistance
 
     /// <summary><c>vᵀ A⁻¹ v</c> for a small SPD matrix (row-major m × m, overwritten by its Cholesky factor); NaN when
     /// A is not positive definite.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double SmallQuadraticForm(double[] a, double[] v, int m)
     {
         double sum = 0;
@@ -220,6 +225,7 @@ internal sealed class MahalanobisDistance
 
     /// <summary>D² of the row starting at <paramref name="offset"/> of <paramref name="v"/> (NaN = missing);
     /// <paramref name="diff"/> and <paramref name="work"/> are scratch arrays of length p.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double Row(double[] v, int offset, double[] diff, double[] work, out int answered)
     {
         answered = 0;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Globalization;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Randomness;
@@ -90,7 +91,7 @@ public static class RespondentScreening
         const int blockRows = MahalanobisDistance.BlockRows;
         Parallel.For(0, (n + blockRows - 1) / blockRows,
             () => (Scratch: new MahalanobisDistance.Scratch(p), Rows: new double[blockRows * p], Raw: new double[blockRows * p], Answered: new int[blockRows]),
-            (b, _, local) =>
+            [MethodImpl(MethodImplOptions.AggressiveOptimization)] (b, _, local) =>
             {
                 int first = b * blockRows, count = Math.Min(blockRows, n - first);
                 var block = data.Rows(first, count, local.Rows);
@@ -126,6 +127,7 @@ public static class RespondentScreening
     }
 
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ScreenOne(int i, ScreeningRowStore rows, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
         double d2, double robustD2, int answered, double[] cutoffByDf, EvenOddConsistency evenOdd, int runLimit, bool useRobust, ScreeningOptions o)
     {

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Runtime.Intrinsics;
 
 namespace ItemReduce.Core.Screening;
@@ -34,6 +35,7 @@ internal static class RowMoments
         return (mean, cov);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void AddOuter(double[] d, double[] cov, int p)
     {
         // Each entry gets the same single multiply-add as an element-by-element loop (vectorised across k only, no
@@ -55,6 +57,7 @@ internal static class RowMoments
     }
 
     /// <summary>Two-pass mean and cross-product matrix of the given rows divided by <paramref name="divisor"/>; row-major p × p.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static (double[] Mean, double[] Cov) MeanCovariance(double[] x, int p, int[] rows, int divisor)
     {
         if (rows.Length >= KernelRows) return MeanCovarianceByTiles(x, p, rows, divisor);

@@ -33,6 +33,7 @@ internal sealed class ScreeningCholesky
     public double LogDeterminant { get; }
 
     /// <summary>Factorises the row-major <paramref name="a"/> (q × q); null when not positive definite.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static ScreeningCholesky? TryFactor(double[] a, int q)
     {
         var l = new double[q * q];
@@ -73,6 +74,7 @@ internal sealed class ScreeningCholesky
     /// Quadratic form <c>dᵀ A⁻¹ d = ‖L⁻¹ d‖²</c> by forward substitution; <paramref name="d"/> and
     /// <paramref name="work"/> have length ≥ q (arrays, not spans: this is the hot loop of every distance).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double QuadraticForm(double[] d, double[] work)
     {
         int q = _order;
@@ -114,6 +116,7 @@ internal sealed class ScreeningCholesky
     /// <see cref="QuadraticForm"/> in the same order (separate multiply and subtract, no fused multiply-add), so every
     /// result is bit-identical to the scalar one; the lanes only remove the scalar version's latency stalls.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void QuadraticForms(double[] d, double[] work, Span<double> result)
     {
         int q = _order;
@@ -149,6 +152,7 @@ internal sealed class ScreeningCholesky
     /// <c>w = L⁻¹ d</c> in its work array, this gives <c>u = A⁻¹ d</c>. Every lane performs the same operations in
     /// the same order, so a vector's result does not depend on the vectors sharing its call.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void BackSubstitutions(double[] w, double[] u)
     {
         int q = _order;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Globalization;
 using ItemReduce.Core.Screening;
 using static ItemReduce.IO.SafeCsvWriter;
@@ -42,7 +43,7 @@ public static class ScreeningTables
         for (int start = 0; start < n; start += blocks * FormatBlockRows)
         {
             int first = start;
-            Parallel.For(0, blocks, b =>
+            Parallel.For(0, blocks, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (b) =>
             {
                 var line = buffers[b];
                 line.Clear();
@@ -69,6 +70,7 @@ public static class ScreeningTables
     /// notation without trailing zeros (at most 15 significant digits: no other decimal that short lies within half an
     /// ulp of x), so m is printed directly; otherwise the general formatter is used.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static int FormatRounded(double v, Span<byte> destination)
     {
         double x = Math.Round(v, Decimals);
@@ -83,6 +85,7 @@ public static class ScreeningTables
     }
 
     /// <summary>Writes m / 10⁶ in plain decimal notation without trailing zeros; returns the length.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static int Fixed(long m, Span<byte> span)
     {
         int n = 0;
