@@ -6,6 +6,9 @@ namespace ItemReduce.IO;
 /// <summary>
 /// Reads a codebook CSV with header <c>item,subscale,reverse,min,max,text</c> (any column order,
 /// case-insensitive; <c>subscale</c> and <c>text</c> may be empty; <c>text</c> may be absent).
+/// A text cell that starts with an apostrophe followed by <c>=</c>, <c>+</c>, <c>-</c> or <c>@</c> is read without the
+/// apostrophe: that is how ItemReduce's CSV outputs keep spreadsheets from running such names as formulas, and it lets
+/// <c>short-form-codebook.csv</c> serve as the codebook for the next data collection.
 /// </summary>
 public static class CodebookReader
 {
@@ -14,7 +17,7 @@ public static class CodebookReader
     /// <summary>Reads and validates the codebook; throws <see cref="SurveyInputException"/> on any problem.</summary>
     public static (Codebook Codebook, IReadOnlyList<long> Lines) Read(string path, char? delimiter = null)
     {
-        if (!File.Exists(path)) throw InputErrors.FileMissing(path, "codebook", "--codebook");
+        DelimitedText.CheckInputFile(path, "codebook", "--codebook");
         string? first = DelimitedText.FirstLine(path);
         if (string.IsNullOrWhiteSpace(first)) throw InputErrors.EmptyFile(path);
         using var csv = new CsvRecordReader(path, delimiter ?? DelimitedText.Detect(first));
@@ -41,14 +44,15 @@ public static class CodebookReader
         {
             var f = csv.Fields;
             if (f.Length != header.Length) throw InputErrors.Ragged(path, csv.Line, header.Length, f.Length);
-            string name = f[col["item"]].Trim();
+            // Text cells are read back from ItemReduce's own formula-safe CSV (short-form-codebook.csv) unchanged.
+            string name = SafeCsvWriter.Unneutralise(f[col["item"]].Trim());
             if (name.Length == 0)
                 throw InputErrors.At(path, csv.Line, "item", "the item name is empty", "give the item the name of its column in the responses file");
             if (seen.TryGetValue(name, out long firstLine))
                 throw InputErrors.At(path, csv.Line, "item", $"item {InputErrors.Show(name)} is listed twice (first on line {firstLine})",
                     "list every item once");
             seen[name] = csv.Line;
-            string subscale = f[col["subscale"]].Trim();
+            string subscale = SafeCsvWriter.Unneutralise(f[col["subscale"]].Trim());
             bool reverse = ParseFlag(path, csv.Line, f[col["reverse"]]);
             double min = ParseBound(path, csv.Line, "min", f[col["min"]]);
             double max = ParseBound(path, csv.Line, "max", f[col["max"]]);
@@ -56,7 +60,7 @@ public static class CodebookReader
                 throw InputErrors.At(path, csv.Line, min > max ? "min" : "max",
                     $"min ({f[col["min"]].Trim()}) must be below max ({f[col["max"]].Trim()}) for item {InputErrors.Show(name)}",
                     "swap or correct the bounds of the response scale");
-            string? text = hasText ? f[textCol].Trim() : null;
+            string? text = hasText ? SafeCsvWriter.Unneutralise(f[textCol].Trim()) : null;
             items.Add(new ItemDefinition(name, subscale.Length == 0 ? null : subscale, reverse, min, max,
                 string.IsNullOrEmpty(text) ? null : text));
             lines.Add(csv.Line);

@@ -1,5 +1,4 @@
 using System.Globalization;
-using System.Text;
 using CsvHelper;
 using CsvHelper.Configuration;
 
@@ -11,8 +10,11 @@ namespace ItemReduce.IO;
 /// </summary>
 internal sealed class CsvRecordReader : IDisposable
 {
+    /// <summary>Most fields a record may have (a 300-item survey with ids and extra columns needs far fewer).</summary>
+    public const int MaxFields = 10_000;
+
     private readonly string _path;
-    private readonly StreamReader _reader;
+    private readonly TextReader _reader;
     private readonly CsvParser _parser;
     private long _linesConsumed;
     private bool _reading;
@@ -31,6 +33,8 @@ internal sealed class CsvRecordReader : IDisposable
             IgnoreBlankLines = false,
             DetectColumnCountChanges = false,
             TrimOptions = TrimOptions.None,
+            // A quoted field may span lines; no field may exceed the line limit either (bounded memory).
+            MaxFieldSize = SurveyTextReader.MaxLineChars,
             // CsvHelper may report bad data while reading the record or later, when its fields are
             // accessed; either way it belongs to the record that starts on CurrentRecordLine.
             BadDataFound = args => throw InputErrors.At(_path, CurrentRecordLine, null,
@@ -59,15 +63,15 @@ internal sealed class CsvRecordReader : IDisposable
                 _reading = true;
                 ok = _parser.Read();
             }
-            catch (DecoderFallbackException)
+            catch (CsvHelperException e) when (e.InnerException is SurveyInputException inner)
             {
-                throw InputErrors.At(_path, _linesConsumed + 1, null, "the text is not valid UTF-8",
-                    "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
+                throw inner;
             }
-            catch (CsvHelperException e) when (e.InnerException is DecoderFallbackException)
+            catch (MaxFieldSizeException)
             {
-                throw InputErrors.At(_path, _linesConsumed + 1, null, "the text is not valid UTF-8",
-                    "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
+                throw InputErrors.At(_path, CurrentRecordLine, null,
+                    $"a field is longer than {SurveyTextReader.MaxLineChars:N0} characters",
+                    "check for a quote that is opened and never closed");
             }
             finally
             {
@@ -78,6 +82,7 @@ internal sealed class CsvRecordReader : IDisposable
             _linesConsumed = _parser.RawRow;
             var record = _parser.Record ?? [];
             if (record.Length == 1 && record[0].Length == 0) continue; // blank line
+            if (record.Length > MaxFields) throw InputErrors.TooManyFields(_path, Line, record.Length, MaxFields);
             Fields = record;
             return true;
         }

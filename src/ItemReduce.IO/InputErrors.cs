@@ -11,12 +11,17 @@ public static class InputErrors
     private const int MaxShownValue = 40;
 
     /// <summary>Quotes a user value for display on one line (control characters escaped, long values cut).</summary>
-    public static string Show(string? value)
+    public static string Show(string? value) => Show(value, MaxShownValue);
+
+    /// <summary>Quotes a path for display on one line (control and invisible characters escaped, never cut).</summary>
+    public static string ShowPath(string? path) => Show(path, int.MaxValue);
+
+    private static string Show(string? value, int maxShown)
     {
         if (value is null) return "(nothing)";
         var sb = new System.Text.StringBuilder(value.Length + 2);
         sb.Append('"');
-        foreach (char ch in value.Length > MaxShownValue ? value[..MaxShownValue] : value)
+        foreach (char ch in value.Length > maxShown ? value[..maxShown] : value)
         {
             sb.Append(ch switch
             {
@@ -24,14 +29,25 @@ public static class InputErrors
                 '\r' => "\\r",
                 '\t' => "\\t",
                 '"' => "\\\"",
-                _ when char.IsControl(ch) => $"\\u{(int)ch:x4}",
+                _ when IsInvisible(ch) => $"\\u{(int)ch:X4}",
                 _ => ch.ToString(),
             });
         }
-        if (value.Length > MaxShownValue) sb.Append("…");
+        if (value.Length > maxShown) sb.Append("…");
         sb.Append('"');
         return sb.ToString();
     }
+
+    /// <summary>Characters that would not show, or show misleadingly, on a terminal: controls (NUL...), format
+    /// characters (byte-order mark U+FEFF, zero-width space U+200B...), line/paragraph separators, surrogates,
+    /// private-use characters and every space other than the plain space (no-break space...).</summary>
+    private static bool IsInvisible(char ch) => char.GetUnicodeCategory(ch) switch
+    {
+        UnicodeCategory.Control or UnicodeCategory.Format or UnicodeCategory.LineSeparator or UnicodeCategory.ParagraphSeparator
+            or UnicodeCategory.Surrogate or UnicodeCategory.PrivateUse or UnicodeCategory.OtherNotAssigned => true,
+        UnicodeCategory.SpaceSeparator => ch != ' ',
+        _ => false,
+    };
 
     private static string Where(string file, long? line, string? column)
     {
@@ -53,6 +69,16 @@ public static class InputErrors
 
     public static SurveyInputException EmptyFile(string file) =>
         At(file, 1, null, "the file is empty", "export the data again with a header row and one row per respondent");
+
+    /// <summary>A path whose size is 0: an empty file, or a device, FIFO or socket (which report 0 too).</summary>
+    public static SurveyInputException EmptyOrNotRegular(string file) =>
+        At(file, 1, null, "the file is empty, or is not a regular file (a device, pipe or socket)",
+            "give a saved file; for data, a CSV file with a header row and one row per respondent");
+
+    /// <summary>A record with more fields than any survey export needs.</summary>
+    public static SurveyInputException TooManyFields(string file, long line, int fields, int limit) =>
+        At(file, line, null, $"the line has {fields.ToString("N0", CultureInfo.InvariantCulture)} fields; ItemReduce reads at most " +
+            limit.ToString("N0", CultureInfo.InvariantCulture), "export only the respondent-id column and the item columns");
 
     public static SurveyInputException HeaderOnly(string file) =>
         At(file, 2, null, "the file has a header but no data rows", "add at least one row per respondent");

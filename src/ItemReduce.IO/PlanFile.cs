@@ -11,15 +11,29 @@ namespace ItemReduce.IO;
 /// </summary>
 public static class PlanFile
 {
+    /// <summary>Largest plan file read (1 MiB; a plan is a few hundred bytes).</summary>
+    public const int MaxBytes = 1 << 20;
+
     /// <summary>Keys whose values are file or folder paths.</summary>
     public static readonly IReadOnlySet<string> PathKeys = new HashSet<string>(StringComparer.Ordinal) { "responses", "codebook", "out" };
 
     /// <summary>Reads the plan as ordered (key, value text) pairs; throws <see cref="SurveyInputException"/> on problems.</summary>
     public static IReadOnlyList<KeyValuePair<string, string>> Read(string path, IReadOnlySet<string> knownKeys)
     {
-        if (!File.Exists(path)) throw InputErrors.FileMissing(path, "plan", "--plan");
+        DelimitedText.CheckInputFile(path, "plan", "--plan");
+        if (new FileInfo(path).Length > MaxBytes)
+            throw InputErrors.At(path, null, null, $"the plan is larger than {MaxBytes / 1024} KiB",
+                "a plan holds a few settings; check that --plan names the plan file and not the data");
         string text;
-        try { text = File.ReadAllText(path); }
+        try
+        {
+            using var reader = new SurveyTextReader(path);
+            var buffer = new char[MaxBytes + 1];
+            int n = reader.ReadBlock(buffer, 0, buffer.Length);
+            if (n > MaxBytes)
+                throw InputErrors.At(path, null, null, $"the plan is larger than {MaxBytes / 1024} KiB", "check that --plan names the plan file");
+            text = new string(buffer, 0, n);
+        }
         catch (Exception e) when (e is IOException or UnauthorizedAccessException) { throw InputErrors.Unreadable(path, e.Message); }
         JsonDocument doc;
         try
@@ -55,6 +69,8 @@ public static class PlanFile
                     _ => throw InputErrors.At(path, null, key, "the value must be a string, number, true/false or a list", "simplify the value"),
                 };
                 if (value is null) continue;
+                if (PathKeys.Contains(key) && value.Trim().Length == 0)
+                    throw InputErrors.At(path, null, key, "the path is empty", "give a file or folder name, or remove the setting");
                 if (PathKeys.Contains(key) && !Path.IsPathRooted(value)) value = Path.GetFullPath(Path.Combine(baseDir, value));
                 result.Add(new(key, value));
             }

@@ -31,13 +31,8 @@ public static class ResponseReader
     {
         ArgumentNullException.ThrowIfNull(codebook);
         ArgumentNullException.ThrowIfNull(options);
-        if (!File.Exists(path)) throw InputErrors.FileMissing(path, "responses", "--responses");
-        string? first;
-        try { first = DelimitedText.FirstLine(path); }
-        catch (System.Text.DecoderFallbackException)
-        {
-            throw InputErrors.At(path, 1, null, "the text is not valid UTF-8", "save the file as UTF-8 (or UTF-16 with a byte-order mark)");
-        }
+        DelimitedText.CheckInputFile(path, "responses", "--responses");
+        string? first = DelimitedText.FirstLine(path);
         if (first is null || first.Trim().Length == 0) throw InputErrors.EmptyFile(path);
         char delimiter = options.Delimiter ?? DelimitedText.Detect(first);
 

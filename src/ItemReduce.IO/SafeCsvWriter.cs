@@ -30,8 +30,25 @@ public sealed class SafeCsvWriter
         AppendRow(header.Select(Text).ToArray());
     }
 
-    /// <summary>A text cell (neutralised and quoted as needed).</summary>
-    public static string Text(string? value) => Quote(Neutralise(value ?? ""));
+    /// <summary>A text cell: control characters shown as <c>\uXXXX</c>, neutralised and quoted as needed.</summary>
+    public static string Text(string? value) => Quote(Neutralise(EscapeControls(value ?? "")));
+
+    /// <summary>Control characters (NUL, line breaks, tab, ...) in text from the user's files, e.g. a respondent id
+    /// holding a line break, are written as the six characters <c>\uXXXX</c>, so no output line carries them raw.</summary>
+    internal static string EscapeControls(string value)
+    {
+        int first = -1;
+        for (int i = 0; i < value.Length; i++) if (char.IsControl(value[i])) { first = i; break; }
+        if (first < 0) return value;
+        var sb = new StringBuilder(value.Length + 8).Append(value, 0, first);
+        for (int i = first; i < value.Length; i++)
+        {
+            char ch = value[i];
+            if (char.IsControl(ch)) sb.Append("\\u").Append(((int)ch).ToString("X4", CultureInfo.InvariantCulture));
+            else sb.Append(ch);
+        }
+        return sb.ToString();
+    }
 
     /// <summary>A number cell with round-trip precision; empty for NaN/infinity.</summary>
     public static string Number(double value) =>
@@ -65,6 +82,8 @@ public sealed class SafeCsvWriter
     /// <summary>The CSV text.</summary>
     public override string ToString() => _sb.ToString();
 
+    /// <summary>A text cell that starts with <c>=</c>, <c>+</c>, <c>-</c>, <c>@</c>, tab or carriage return (and is not a
+    /// number) gets a leading apostrophe. <see cref="Unneutralise"/> undoes it when ItemReduce reads its own output back.</summary>
     internal static string Neutralise(string value)
     {
         if (value.Length == 0) return value;
@@ -76,6 +95,10 @@ public sealed class SafeCsvWriter
         }
         return value;
     }
+
+    /// <summary>Undoes <see cref="Neutralise"/>: an apostrophe followed by a formula-starting character is dropped.</summary>
+    public static string Unneutralise(string value) =>
+        value.Length >= 2 && value[0] == '\'' && value[1] is '=' or '+' or '-' or '@' or '\t' or '\r' ? value[1..] : value;
 
     private static readonly System.Buffers.SearchValues<char> NeedQuotes = System.Buffers.SearchValues.Create(",\"\n\r");
 

@@ -9,11 +9,12 @@ public static class SurveyJob
     /// <summary>Loads the data, runs the stages of <paramref name="scope"/> and writes their outputs into <see cref="JobSettings.Out"/>.</summary>
     public static PipelineResult Run(JobSettings settings, PipelineScope scope, TextWriter stdout, ProgressLog log)
     {
-        OutputStaging.CheckDestination(settings.Out, settings.Force);
+        string?[] inputs = [settings.Responses, settings.Codebook, settings.Plan];
+        OutputStaging.CheckDestination(settings.Out, settings.Force, inputs);
         var survey = SurveyLoader.Load(settings, log);
         var pipelineSettings = settings.Pipeline with { Seed = settings.Seed, Scope = scope };
-        var files = new List<string>();
-        using var staging = OutputStaging.Begin(settings.Out, settings.Force);
+        var files = new List<string> { ResultsManifest.FileName };
+        using var staging = OutputStaging.Begin(settings.Out, settings.Force, inputs);
         // The respondent table (one row per respondent, the largest output) is written while the later stages run.
         Task? flags = null;
         PipelineResult result;

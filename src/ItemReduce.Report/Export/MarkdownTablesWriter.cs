@@ -34,12 +34,37 @@ public static class MarkdownTablesWriter
         }
     }
 
-    /// <summary>Text outside tables: line breaks become spaces; **bold** markup is already Markdown.</summary>
-    private static string Inline(string text) => text.ReplaceLineEndings(" ");
+    /// <summary>Text outside tables (titles, notes), which may quote codebook names and wording: line breaks become
+    /// spaces and every character Markdown or HTML would act on is made inert — backslash, emphasis (<c>*</c>, <c>_</c>,
+    /// <c>~</c>), code (backtick) and link/image brackets escaped with a backslash, <c>&lt; &gt; &amp;</c> written as
+    /// entities, a leading <c>#</c> escaped — so the text shows as written.</summary>
+    internal static string Inline(string text)
+    {
+        string s = Escape(text.ReplaceLineEndings(" "), "\\*_~`[]");
+        return s.StartsWith('#') ? "\\" + s : s;
+    }
 
-    /// <summary>Table cell: pipes and backslashes escaped, line breaks become spaces.</summary>
-    internal static string Cell(string text)
-        => text.ReplaceLineEndings(" ").Replace("\\", "\\\\", StringComparison.Ordinal).Replace("|", "\\|", StringComparison.Ordinal);
+    /// <summary>Table cell: as <see cref="Inline"/>, and pipes escaped.</summary>
+    internal static string Cell(string text) => Escape(text.ReplaceLineEndings(" "), "\\|*_~`[]");
+
+    private static string Escape(string text, string backslashed)
+    {
+        var sb = new StringBuilder(text.Length + 8);
+        foreach (char ch in text)
+        {
+            switch (ch)
+            {
+                case '<': sb.Append("&lt;"); break;
+                case '>': sb.Append("&gt;"); break;
+                case '&': sb.Append("&amp;"); break;
+                default:
+                    if (backslashed.Contains(ch, StringComparison.Ordinal)) sb.Append('\\');
+                    sb.Append(ch);
+                    break;
+            }
+        }
+        return sb.ToString();
+    }
 
     private static string Delimiter(ColumnAlignment a) => a switch
     {

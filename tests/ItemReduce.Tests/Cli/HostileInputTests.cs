@@ -52,6 +52,37 @@ public class HostileInputTests
             foreach (string line in File.ReadLines(Path.Combine(t.Out, "respondent-flags.csv")))
                 Assert.False(line.StartsWith('=') || line.Contains(",=", StringComparison.Ordinal) || line.StartsWith("\"=", StringComparison.Ordinal), line);
             Assert.Equal([t.Out], Directory.GetDirectories(t.Folder));
+            AssertOutputsAreSafe(t);
+        }
+    }
+
+    /// <summary>Checks every successful run of the corpus: no CSV output carries a raw control character (one record per
+    /// line), tables.md holds no active HTML or link syntax, and short-form-codebook.csv is accepted back by
+    /// <c>check</c> as the codebook of the same responses.</summary>
+    private static void AssertOutputsAreSafe(TempSurvey t)
+    {
+        foreach (string csv in Directory.GetFiles(t.Out, "*.csv"))
+        {
+            string text = File.ReadAllText(csv);
+            Assert.False(text.Any(ch => char.IsControl(ch) && ch != '\n'), $"{Path.GetFileName(csv)} holds a raw control character");
+        }
+        string md = File.ReadAllText(Path.Combine(t.Out, "tables.md"));
+        Assert.DoesNotContain('<', md);
+        Assert.DoesNotContain('>', md);
+        Assert.DoesNotMatch(@"(?<!\\)\]\(", md); // a link needs an unescaped "]("
+        Assert.DoesNotMatch(@"(?<!\\)`", md);
+        if (File.ReadAllText(t.Codebook).Contains("<script>", StringComparison.Ordinal))
+        {
+            // The codebook's hostile names are in the tables, shown as written but inert.
+            Assert.Contains("&lt;script&gt;alert(1)&lt;/script&gt;", md, StringComparison.Ordinal);
+            Assert.Contains("\\[x\\](javascript:alert(1))", md, StringComparison.Ordinal);
+            Assert.Contains("\\*star\\*", md, StringComparison.Ordinal);
+        }
+        string shortCodebook = Path.Combine(t.Out, "short-form-codebook.csv");
+        if (File.Exists(shortCodebook))
+        {
+            var back = TempSurvey.Cli("check", "--responses", t.Responses, "--codebook", shortCodebook);
+            Assert.True(back.Code == 0, "short-form-codebook.csv read back: " + back.Err);
         }
     }
 }

@@ -158,19 +158,34 @@ public class InputErrorTests
     }
 
     [Fact]
-    public void Existing_output_folder_is_not_replaced_without_force()
+    public void Force_replaces_only_an_empty_folder_or_a_previous_run_and_never_the_users_files()
     {
         using var s = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40));
         Directory.CreateDirectory(s.Out);
         File.WriteAllText(Path.Combine(s.Out, "keep.txt"), "mine");
-        var r = s.Run();
+        var r = s.Run("--replicates", "20", "--no-pdf");
         Assert.Equal(2, r.Code);
         Assert.Contains("--force", r.Err);
-        Assert.True(File.Exists(Path.Combine(s.Out, "keep.txt")));
-        var forced = s.Run("--force");
-        Assert.True(forced.Code == 0, forced.Err);
-        Assert.False(File.Exists(Path.Combine(s.Out, "keep.txt")));
-        Assert.True(File.Exists(Path.Combine(s.Out, "summary.json")));
+        var forced = s.Run("--replicates", "20", "--no-pdf", "--force");
+        Assert.Equal(2, forced.Code);
+        Assert.Contains("\"keep.txt\" and no itemreduce-manifest.txt, so it was not written by itemreduce", forced.Err);
+        Assert.Equal("mine", File.ReadAllText(Path.Combine(s.Out, "keep.txt")));
+
+        // An empty folder is filled without --force; a folder of a previous run is replaced with it.
+        File.Delete(Path.Combine(s.Out, "keep.txt"));
+        var intoEmpty = s.Run("--replicates", "20", "--no-pdf");
+        Assert.True(intoEmpty.Code == 0, intoEmpty.Err);
+        Assert.True(File.Exists(Path.Combine(s.Out, "itemreduce-manifest.txt")));
+        var again = s.Run("--replicates", "20", "--no-pdf", "--force");
+        Assert.True(again.Code == 0, again.Err);
+        Assert.Equal([s.Out], Directory.GetDirectories(s.Folder)); // no staging or replaced folders left
+
+        // A results file edited after the run makes the folder the user's: --force refuses it.
+        File.AppendAllText(Path.Combine(s.Out, "summary.json"), " ");
+        var edited = s.Run("--replicates", "20", "--no-pdf", "--force");
+        Assert.Equal(2, edited.Code);
+        Assert.Contains("\"summary.json\" was changed after itemreduce wrote it", edited.Err);
+        Assert.EndsWith(" ", File.ReadAllText(Path.Combine(s.Out, "summary.json")));
     }
 
     [Fact]

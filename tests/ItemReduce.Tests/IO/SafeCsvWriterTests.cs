@@ -22,9 +22,33 @@ public class SafeCsvWriterTests
         // RFC 4180 §2.6–2.7: fields with commas, quotes or line breaks are quoted, quotes doubled.
         Assert.Equal("\"a,b\"", SafeCsvWriter.Text("a,b"));
         Assert.Equal("\"say \"\"hi\"\"\"", SafeCsvWriter.Text("say \"hi\""));
-        Assert.Equal("\"two\nlines\"", SafeCsvWriter.Text("two\nlines"));
         Assert.Equal("\"'=a,b\"", SafeCsvWriter.Text("=a,b"));
     }
+
+    [Theory]
+    [InlineData("two\nlines", "two\\u000Alines")]
+    [InlineData("nul\0id", "nul\\u0000id")]
+    [InlineData("tab\tin", "tab\\u0009in")]
+    [InlineData("cr\r", "cr\\u000D")]
+    [InlineData("\u0085next", "\\u0085next")]
+    public void Control_characters_from_user_text_never_reach_a_csv_raw(string input, string expected)
+    {
+        // Our rule (documented in the README's Outputs): a control character in text is written as \uXXXX, so every
+        // output row is one physical line without NUL or other control bytes.
+        string cell = SafeCsvWriter.Text(input);
+        Assert.Equal(expected, cell);
+        Assert.DoesNotContain(cell, char.IsControl);
+    }
+
+    [Theory]
+    [InlineData("=SUM(A1)")]
+    [InlineData("+x")]
+    [InlineData("-x")]
+    [InlineData("@cmd")]
+    [InlineData("plain")]
+    [InlineData("-5")]
+    public void Neutralised_text_reads_back_as_written(string name) =>
+        Assert.Equal(name, SafeCsvWriter.Unneutralise(SafeCsvWriter.Neutralise(name)));
 
     [Fact]
     public void Numbers_are_invariant_and_nan_is_empty()

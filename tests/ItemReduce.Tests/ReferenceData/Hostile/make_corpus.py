@@ -20,14 +20,14 @@ def rows(n=40, items=ITEMS):
 def csv(header, body, sep=",", nl="\n"):
     return nl.join(sep.join(r) for r in [header] + body) + nl
 
-def case(name, responses, expect, codebook=CODEBOOK, encoding="utf-8", raw=None):
+def case(name, responses, expect, codebook=CODEBOOK, encoding="utf-8", raw=None, raw_codebook=None):
     d = os.path.join(HERE, name)
     shutil.rmtree(d, ignore_errors=True)
     os.makedirs(d)
     with open(os.path.join(d, "responses.csv"), "wb") as f:
         f.write(raw if raw is not None else responses.encode(encoding))
-    with open(os.path.join(d, "codebook.csv"), "w", encoding="utf-8") as f:
-        f.write(codebook)
+    with open(os.path.join(d, "codebook.csv"), "wb") as f:
+        f.write(raw_codebook if raw_codebook is not None else codebook.encode("utf-8"))
     with open(os.path.join(d, "expect.txt"), "w", encoding="utf-8") as f:
         f.write("\n".join(str(e) for e in expect) + "\n")
 
@@ -75,3 +75,34 @@ case("formula-like-id", csv(H, b), [0, '"total": 40'])
 case("not-utf8", None, [2, "line 1", "not valid UTF-8"], raw=b"respondent,q1\xff\xfe\x00,q2\n")
 b = [r[:] for r in good]; b[8][3] = '3"'
 case("stray-quote", csv(H, b), [2, "line 10"])
+
+# --- Data-safety cases (exit 0 cases also get the generic output checks of HostileInputTests:
+# no raw control characters in any CSV, tables.md inert, short-form-codebook.csv accepted back by check) ---
+b = [r[:] for r in good]; b[6][0] = '"two\nline id"'; b[7][0] = "nul\x00id"
+case("ids-with-newline-and-nul", csv(H, b), [0, '"total": 40'])
+# An invalid byte far beyond the first read block: the message must name its true line (4,002).
+big = rows(4500)
+text = csv(H, big).encode("utf-8")
+lines = text.split(b"\n")
+lines[4001] = lines[4001].replace(b",", b",\xc3\x28", 1)
+case("not-utf8-late-line", None, [2, "line 4002", "not valid UTF-8"], raw=b"\n".join(lines))
+cb_bad = CODEBOOK.encode("utf-8").split(b"\n")
+cb_bad[3] = cb_bad[3].replace(b"Item", b"It\xffem")
+case("codebook-not-utf8", csv(H, good), [2, "codebook.csv", "line 4", "not valid UTF-8"], raw_codebook=b"\n".join(cb_bad))
+case("utf16-without-bom", None, [2, "line 1", "UTF-16", "byte-order mark"], raw=csv(H, good).encode("utf-16-le"))
+for name, value, shown in [("bom-in-cell", "\ufeff3", "\\uFEFF3"), ("zero-width-space-in-cell", "4\u200b", "4\\u200B"),
+                           ("nul-in-cell", "\x002", "\\u00002")]:
+    b = [r[:] for r in good]; b[11][4] = value
+    case(name, csv(H, b), [2, "line 13", '"q4"', shown])
+# Codebook names that Markdown, HTML or a spreadsheet would act on.
+ACTIVE = ["<script>alert(1)</script>", "[x](javascript:alert(1))", "*star*", "_under_", "`tick`", "<img src=x onerror=alert(1)>"]
+SUBS = ["=cmd", "@at", "+plus", "-minus"]
+def q(s): return '"' + s.replace('"', '""') + '"' if any(c in s for c in ',"\n') else s
+cb = "item,subscale,reverse,min,max,text\n" + "".join(
+    f"{q(name)},{q(SUBS[j % 2])},false,1,5,{q('Wording ' + name)}\n" for j, name in enumerate(ACTIVE))
+hdr = ["respondent"] + [q(n) for n in ACTIVE]
+body = []
+for i in range(60):
+    base = random.randint(1, 5)
+    body.append([f"r{i+1}"] + [str(min(5, max(1, base + random.randint(-1, 1)))) for _ in ACTIVE])
+case("markdown-and-formula-names", csv(hdr, body), [0, '"total": 60'], codebook=cb)
