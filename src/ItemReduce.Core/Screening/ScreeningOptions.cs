@@ -17,8 +17,9 @@ public sealed record ScreeningOptions
     /// Both distances are always reported when they can be computed.</summary>
     public bool UseRobust { get; init; } = true;
 
-    /// <summary>Seed of every random step (FAST-MCD starts and subsampling). Default 20240601.</summary>
-    public ulong Seed { get; init; } = 20240601;
+    /// <summary>Seed of every random step (FAST-MCD starts and subsampling). Default
+    /// <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline: <c>PipelineSettings.Seed</c>).</summary>
+    public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
     /// <summary>
     /// Most complete rows FAST-MCD is fitted to; above this a seeded random subsample of this size is used and the
