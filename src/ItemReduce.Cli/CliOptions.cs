@@ -32,6 +32,34 @@ internal sealed class CliOptions
         return text;
     }
 
+    /// <summary>The README's options table (Markdown), generated from the declarations; a test keeps the README equal to it.</summary>
+    internal static string MarkdownTable()
+    {
+        var sb = new System.Text.StringBuilder("| option | default | commands | meaning |\n| --- | --- | --- | --- |\n");
+        string? group = null;
+        foreach (var s in SettingsCatalog.All)
+        {
+            if (s.Group != group)
+            {
+                group = s.Group;
+                sb.Append($"| **{group}** | | | |\n");
+            }
+            string name = s.Kind switch
+            {
+                SettingKind.Flag => s.Option,
+                SettingKind.Choice => $"{s.Option} {string.Join("\\|", s.Choices)}",
+                _ => $"{s.Option} {s.ValueName}",
+            };
+            string commands = s.Commands == Commands.All ? "all" : string.Join(", ",
+                new[] { Commands.Check, Commands.Screen, Commands.Dimensions, Commands.Shorten, Commands.Run }.Where(s.AppliesTo).Select(SettingsCatalog.CommandName));
+            string def = s.Kind == SettingKind.Flag ? "off" : DefaultText(s) ?? "—";
+            string meaning = s.Help;
+            if (s.Kind is SettingKind.Integer or SettingKind.Number or SettingKind.Targets) meaning += $" Allowed: {s.Allowed}.";
+            sb.Append($"| `{name}` | {def} | {commands} | {meaning.Replace("|", "\\|", StringComparison.Ordinal)} |\n");
+        }
+        return sb.ToString();
+    }
+
     /// <summary>The default in words, or null when there is none to show.</summary>
     internal static string? DefaultText(Setting s) => s.DefaultText ?? (s.Default is null ? null : s.Kind switch
     {

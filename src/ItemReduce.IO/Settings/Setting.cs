@@ -153,9 +153,10 @@ public sealed record Setting
         bool hasLo = !double.IsNegativeInfinity(Min), hasHi = !double.IsPositiveInfinity(Max);
         if (hasLo && hasHi && !MinExclusive && !MaxExclusive) return $"from {lo} to {hi}";
         var parts = new List<string>();
-        if (hasLo) parts.Add(MinExclusive ? $"above {lo}" : $"of at least {lo}");
-        if (hasHi) parts.Add(MaxExclusive ? $"below {hi}" : $"of at most {hi}");
-        return string.Join(" and ", parts);
+        if (hasLo) parts.Add(MinExclusive ? $"above {lo}" : $"at least {lo}");
+        if (hasHi) parts.Add(MaxExclusive ? $"below {hi}" : $"at most {hi}");
+        return parts.Count == 1 && !parts[0].StartsWith("above", StringComparison.Ordinal) && !parts[0].StartsWith("below", StringComparison.Ordinal)
+            ? "of " + parts[0] : string.Join(" and ", parts);
     }
 
     internal static string Fmt(double v) => v == ulong.MaxValue ? ulong.MaxValue.ToString(CultureInfo.InvariantCulture)

@@ -93,7 +93,7 @@ public static class SettingsMapping
         {
             Responses = responses,
             Codebook = codebook,
-            Plan = plan?.Path,
+            Plan = plan?.Path ?? v.Text("plan"),
             PlanSha256 = plan?.Sha256,
             Out = v.Text("out")!,
             Force = v.Flag("force"),
