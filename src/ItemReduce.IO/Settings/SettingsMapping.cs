@@ -116,12 +116,15 @@ public static class SettingsMapping
     };
 
     /// <summary>Checks the settings that need the codebook (before any response is read): every
-    /// <c>scale-targets</c> name must be a codebook subscale.</summary>
-    /// <exception cref="SurveyInputException">A target names no subscale of the codebook.</exception>
+    /// <c>scale-targets</c> name must be a codebook subscale, and a fixed factor count must be below the number of items.</summary>
+    /// <exception cref="SurveyInputException">A target names no subscale of the codebook, or too many factors.</exception>
     public static void CheckAgainstCodebook(JobSettings job, Codebook codebook)
     {
         ArgumentNullException.ThrowIfNull(job);
         ArgumentNullException.ThrowIfNull(codebook);
+        if (job.Values.IsGiven("factors") && job.Pipeline.Dimensions.FixedFactors is int k && k >= codebook.Count)
+            throw SettingErrors.NotAllowed(job.Values.SourceOf("factors"), InputErrors.Show(k.ToString(System.Globalization.CultureInfo.InvariantCulture)),
+                $"a whole number from 1 to {(codebook.Count - 1).ToString(System.Globalization.CultureInfo.InvariantCulture)} (fewer factors than the codebook's {codebook.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} items)");
         if (job.Pipeline.ShortForm.ScaleTargets is not { } targets || !job.Values.IsGiven("scale-targets")) return;
         var subscales = codebook.Subscales;
         foreach (string name in targets.Keys)

@@ -68,6 +68,13 @@ public class OptionErrorTests
     }
 
     [Fact]
+    public void A_fixed_factor_count_not_below_the_codebook_items_is_an_option_error()
+    {
+        using var s = new TempSurvey().WithCodebook(); // 4 items
+        AssertOptionError(Run(s, "--factors", "4"), "--factors", "\"4\"", "a whole number from 1 to 3");
+    }
+
+    [Fact]
     public void A_setting_the_command_does_not_use_is_ignored_with_a_notice_from_the_command_line_and_from_a_plan_alike()
     {
         using var s = new TempSurvey().WithCodebook(6).WithResponses(TempSurvey.ValidResponses(60, 6));
