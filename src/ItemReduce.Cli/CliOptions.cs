@@ -14,6 +14,12 @@ internal sealed class CliOptions
         Options = SettingsCatalog.All.Select(s => (s, new Option<string>(s.Option)
         {
             Description = Describe(s),
+            HelpName = s.Kind switch
+            {
+                SettingKind.Flag => "true|false",
+                SettingKind.Choice => string.Join("|", s.Choices),
+                _ => s.ValueName,
+            },
             Hidden = !s.AppliesTo(command),
             Arity = s.Kind == SettingKind.Flag ? ArgumentArity.ZeroOrOne : ArgumentArity.ExactlyOne,
         })).ToList();
@@ -28,7 +34,8 @@ internal sealed class CliOptions
         string text = s.Help;
         if (s.Kind is SettingKind.Integer or SettingKind.Number or SettingKind.Choice or SettingKind.Targets) text += $" Allowed: {s.Allowed}.";
         string? def = DefaultText(s);
-        if (def is not null && s.Kind != SettingKind.Flag) text += $" Default: {def}.";
+        if (def == RequiredText) text += " Required.";
+        else if (def is not null && s.Kind != SettingKind.Flag) text += $" Default: {def}.";
         return text;
     }
 
@@ -59,6 +66,8 @@ internal sealed class CliOptions
         }
         return sb.ToString();
     }
+
+    private const string RequiredText = "required";
 
     /// <summary>The default in words, or null when there is none to show.</summary>
     internal static string? DefaultText(Setting s) => s.DefaultText ?? (s.Default is null ? null : s.Kind switch

@@ -63,8 +63,8 @@ public static class PlanFile
                 long line = index < lines.Count ? lines[index] : 1;
                 index++;
                 if (!knownKeys.Contains(key))
-                    throw InputErrors.At(path, line, key, "unknown setting",
-                        "use one of: " + string.Join(", ", knownKeys.Order(StringComparer.Ordinal)));
+                    throw new SurveyInputException($"{Settings.SettingErrors.InPlan(path, line, key)}: unknown setting. Fix: use one of: " +
+                        string.Join(", ", knownKeys.Order(StringComparer.Ordinal)) + ".");
                 var v = prop.Value;
                 if (v.ValueKind == JsonValueKind.Null) continue;
                 string? scalar = v.ValueKind switch
