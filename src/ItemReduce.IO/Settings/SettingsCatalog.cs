@@ -101,7 +101,7 @@ public static class SettingsCatalog
         new()
         {
             Name = "cutoff-p", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "P", Default = Screening.CutoffP, Min = 0, Max = 0.5, MinExclusive = true, MaxExclusive = true,
+            Group = ScreeningGroup, ValueName = "P", Default = Screening.CutoffP, Min = 0, Max = ScreeningOptions.MaxCutoffP, MinExclusive = true, MaxExclusive = true,
             Example = "0.01", Help = "Upper-tail probability of the chi-square cutoff for squared distances, df = items answered.",
         },
         new()
@@ -119,13 +119,13 @@ public static class SettingsCatalog
         new()
         {
             Name = "flat-sd", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "S", Default = Screening.FlatVariabilityLimit, Min = 0, Max = 1000, Example = "0.3",
+            Group = ScreeningGroup, ValueName = "S", Default = Screening.FlatVariabilityLimit, Min = 0, Example = "0.3",
             Help = "Flag respondents whose own answers have a standard deviation below this value (0 turns the rule off).",
         },
         new()
         {
             Name = "missing-limit", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "S", Default = Screening.MissingShareLimit, Min = 0, Max = 1, MaxExclusive = true, Example = "0.3",
+            Group = ScreeningGroup, ValueName = "S", Default = Screening.MissingShareLimit, Min = 0, Max = ScreeningOptions.MaxMissingShareLimit, MaxExclusive = true, Example = "0.3",
             Help = "Flag respondents who left more than this share of items unanswered.",
         },
         new()

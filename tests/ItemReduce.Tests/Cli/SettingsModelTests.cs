@@ -75,6 +75,33 @@ public class SettingsModelTests
         Assert.Equal(ItemReduce.Core.ShortForm.ShortFormOptions.MinItemsPerScale, SettingsCatalog.Get("scale-targets").Min);
     }
 
+    [Theory]
+    [InlineData("cutoff-p")]
+    [InlineData("run-share")]
+    [InlineData("flat-sd")]
+    [InlineData("missing-limit")]
+    public void Screening_values_at_the_declared_limits_pass_cores_validation_and_values_beyond_fail_it(string name)
+    {
+        var s = SettingsCatalog.Get(name);
+        double tiny = 1e-9;
+        foreach (double v in new[] { s.Min, s.Max, s.Min - tiny, s.Max + tiny }.Where(double.IsFinite))
+        {
+            bool declared = s.InRange(v);
+            var values = Values(Commands.Run);
+            var job = SettingsMapping.ToJob(values);
+            var o = job.Pipeline.Screening;
+            o = name switch
+            {
+                "cutoff-p" => o with { CutoffP = v },
+                "run-share" => o with { LongStringShare = v },
+                "flat-sd" => o with { FlatVariabilityLimit = v },
+                _ => o with { MissingShareLimit = v },
+            };
+            var e = Record.Exception(o.Validate);
+            Assert.True(declared == (e is null), $"{name} = {v}: declared {(declared ? "allowed" : "not allowed")}, Core {(e is null ? "accepts" : "rejects")}");
+        }
+    }
+
     private static (JobSettings Job, LoadedSurvey Survey, PipelineResult Result) RunFixture(params (string, string)[] given)
     {
         var values = Values(Commands.Run, [.. given.Select(g => (SettingsCatalog.Get(g.Item1), (string?)g.Item2))]);
