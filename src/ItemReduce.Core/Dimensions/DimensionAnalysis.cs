@@ -132,7 +132,7 @@ public static class DimensionAnalysis
             warnings.Add("listwise-deletion", $"Listwise deletion: {n - nEff} of {n} respondents with at least one missing answer were left out of the correlation-based analyses.");
             return nEff;
         }
-        warnings.Add("pairwise-effective-n", $"Missing answers were handled pairwise; the random reference and Bartlett's test use an effective sample size of {nEff} respondents (harmonic mean of the pairwise counts).");
+        warnings.Add("pairwise-effective-n", $"Missing answers were handled pairwise; the random reference, Bartlett's test and the factor solutions use an effective sample size of {nEff} respondents (harmonic mean of the pairwise counts).");
         return nEff;
     }
 

@@ -10,7 +10,12 @@ namespace ItemReduce.IO.Settings;
 public sealed record SettingRow(Setting Setting, object? Value, string Source)
 {
     /// <summary>The value for people: command-line form, or the default in words when not set.</summary>
-    public string Text => Value is null ? CliDefault(Setting) : SettingParser.Format(Value);
+    public string Text => Value switch
+    {
+        null => CliDefault(Setting),
+        IReadOnlyList<string> codes => string.Join(", ", codes.Select(c => c.Length == 0 ? "empty cell" : c)),
+        _ => SettingParser.Format(Value),
+    };
 
     private static string CliDefault(Setting s) => s.DefaultText ?? "not set";
 }
