@@ -65,6 +65,9 @@ public static class PlanFile
                 if (!knownKeys.Contains(key))
                     throw new SurveyInputException($"{Settings.SettingErrors.InPlan(path, line, key)}: unknown setting. Fix: use one of: " +
                         string.Join(", ", knownKeys.Order(StringComparer.Ordinal)) + ".");
+                if (result.FirstOrDefault(r => r.Key == key) is { } first)
+                    throw new SurveyInputException($"{Settings.SettingErrors.InPlan(path, line, key)}: given twice (also on line " +
+                        $"{first.Line.ToString(System.Globalization.CultureInfo.InvariantCulture)}). Fix: keep one of them.");
                 var v = prop.Value;
                 if (v.ValueKind == JsonValueKind.Null) continue;
                 string? scalar = v.ValueKind switch

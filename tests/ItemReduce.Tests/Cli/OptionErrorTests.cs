@@ -52,9 +52,18 @@ public class OptionErrorTests
     {
         using var s = new TempSurvey().WithCodebook();
         string plan = Path.Combine(s.Folder, "my-plan.json");
-        File.WriteAllText(plan, "{\n  // settings\n  \"seed\": 3,\n  " + entry + "\n}\n");
+        File.WriteAllText(plan, "{\n  // settings\n  \"holdout\": 0,\n  " + entry + "\n}\n");
         var r = Run(s, "--plan", plan);
         AssertOptionError(r, "my-plan.json, line 4", key, allowed);
+    }
+
+    [Fact]
+    public void A_key_given_twice_in_a_plan_names_both_lines()
+    {
+        using var s = new TempSurvey().WithCodebook();
+        string plan = Path.Combine(s.Folder, "twice.json");
+        File.WriteAllText(plan, "{\n  \"seed\": 3,\n  \"replicates\": 20,\n  \"seed\": 4\n}\n");
+        AssertOptionError(Run(s, "--plan", plan), "twice.json, line 4, \"seed\": given twice (also on line 2)");
     }
 
     [Theory]
