@@ -1,64 +1,78 @@
 using System.CommandLine;
+using ItemReduce.IO.Settings;
 
 namespace ItemReduce.Cli;
 
-/// <summary>The options of every command. Plan-file keys are these names without the leading dashes.</summary>
+/// <summary>The options of one command, one per declared setting (<see cref="SettingsCatalog"/>). Every command accepts
+/// every setting so that the command line and plans behave the same: a setting the command does not use is hidden from
+/// its help and ignored with a notice. Values are taken as text and typed by <see cref="SettingParser"/>, so messages
+/// speak of allowed values, never of program types.</summary>
 internal sealed class CliOptions
 {
-    public readonly Option<string?> Responses = new("--responses") { Description = "Responses CSV: one row per respondent, one column per item, plus an id column." };
-    public readonly Option<string?> Codebook = new("--codebook") { Description = "Codebook CSV with header item,subscale,reverse,min,max,text." };
-    public readonly Option<string?> Plan = new("--plan") { Description = "JSON plan file holding any of these options (command-line options override it)." };
-    public readonly Option<string?> Out = new("--out") { Description = "Output folder (default: itemreduce-results). Written only when the whole run succeeds." };
-    public readonly Option<bool> Force = new("--force") { Description = "Replace the output folder if it already exists." };
-    public readonly Option<string?> Missing = new("--missing") { Description = "Comma-separated missing-data codes, replacing the default list (empty cell, NA), e.g. --missing=-99,99. An empty cell is always missing." };
-    public readonly Option<string?> IdColumn = new("--id-column") { Description = "Respondent-id column (default: 'respondent' if present, else the first column that is not an item)." };
-    public readonly Option<string?> Delimiter = new("--delimiter") { Description = "Field delimiter: comma, semicolon or tab (default: detected from the header)." };
-    public readonly Option<ulong?> Seed = new("--seed") { Description = "Seed for every random step (default 1). Same inputs and seed give identical results." };
-    public readonly Option<bool> Quiet = new("--quiet") { Description = "No progress messages." };
-    public readonly Option<bool> Progress = new("--progress") { Description = "Progress messages on stderr even when stderr is not a terminal." };
-    public readonly Option<bool> Verbose = new("--verbose") { Description = "Show full details of unexpected internal errors." };
+    public CliOptions(Commands command)
+    {
+        Options = SettingsCatalog.All.Select(s => (s, new Option<string>(s.Option)
+        {
+            Description = Describe(s),
+            HelpName = s.Kind switch
+            {
+                SettingKind.Flag => "true|false",
+                SettingKind.Choice => string.Join("|", s.Choices),
+                _ => s.ValueName,
+            },
+            Hidden = !s.AppliesTo(command),
+            Arity = s.Kind == SettingKind.Flag ? ArgumentArity.ZeroOrOne : ArgumentArity.ExactlyOne,
+        })).ToList();
+    }
 
-    // Screening
-    public readonly Option<double?> CutoffP = new("--cutoff-p") { Description = "Upper-tail probability of the chi-square cutoff for squared distances, df = items answered (default 0.001)." };
-    public readonly Option<string?> Distance = new("--distance") { Description = "Distance that raises the atypical flag: robust (FAST-MCD, default) or classical." };
-    public readonly Option<double?> RunShare = new("--run-share") { Description = "Flag a run of identical consecutive answers covering at least this share of the items (default 0.5; the run must also be at least 8 items long)." };
-    public readonly Option<double?> FlatSd = new("--flat-sd") { Description = "Flag respondents whose own answers have a standard deviation below this value (default 0.2)." };
-    public readonly Option<double?> MissingLimit = new("--missing-limit") { Description = "Flag respondents who left more than this share of items unanswered (default 0.5)." };
-    public readonly Option<bool> KeepFlagged = new("--keep-flagged") { Description = "Keep flagged respondents in the later stages of 'run' (default: set aside)." };
+    /// <summary>Each setting with its option.</summary>
+    public IReadOnlyList<(Setting Setting, Option<string> Option)> Options { get; }
 
-    // Dimensions
-    public readonly Option<string?> Correlation = new("--correlation") { Description = "pearson (default) or polychoric." };
-    public readonly Option<string?> MissingData = new("--missing-data") { Description = "pairwise (default: each pair uses everyone who answered both) or listwise." };
-    public readonly Option<int?> Replicates = new("--replicates") { Description = "Parallel-analysis replicates (default 1000)." };
-    public readonly Option<double?> Percentile = new("--percentile") { Description = "Percentile of the random eigenvalues used as threshold (default 95)." };
-    public readonly Option<string?> Reference = new("--reference") { Description = "Parallel-analysis reference: normal (default; Wishart draws) or permutation (shuffled columns)." };
-    public readonly Option<string?> FactorsRule = new("--factors-rule") { Description = "Rule that sets the number of factors: parallel (default), map or kaiser." };
-    public readonly Option<int?> Factors = new("--factors") { Description = "Fix the number of factors instead of using a rule." };
-    public readonly Option<int?> Threads = new("--threads") { Description = "Worker threads for parallel analysis (default: all cores). Results do not depend on it." };
+    /// <summary>Help text of a setting: its help, the allowed values and the default.</summary>
+    internal static string Describe(Setting s)
+    {
+        string text = s.Help;
+        if (s.Kind is SettingKind.Integer or SettingKind.Number or SettingKind.Choice or SettingKind.Targets) text += $" Allowed: {s.Allowed}.";
+        string? def = DefaultText(s);
+        if (def == RequiredText) text += " Required.";
+        else if (def is not null && s.Kind != SettingKind.Flag) text += $" Default: {def}.";
+        return text;
+    }
 
-    // Factoring and short form
-    public readonly Option<string?> Extraction = new("--extraction") { Description = "minres (default), paf or ml." };
-    public readonly Option<string?> Rotation = new("--rotation") { Description = "oblimin (default), promax, varimax or none." };
-    public readonly Option<int?> ItemsPerFactor = new("--items-per-factor") { Description = "Items per scale in the short form (default 4)." };
-    public readonly Option<string?> ScaleTargets = new("--scale-targets") { Description = "Per-subscale short-form lengths, e.g. comfort=3,crew=5 (others use --items-per-factor)." };
-    public readonly Option<double?> Holdout = new("--holdout") { Description = "Share of respondents held out to evaluate the short form on data it was not chosen on (default 0: none; e.g. 0.5)." };
+    /// <summary>The README's options table (Markdown), generated from the declarations; a test keeps the README equal to it.</summary>
+    internal static string MarkdownTable()
+    {
+        var sb = new System.Text.StringBuilder("| option | default | commands | meaning |\n| --- | --- | --- | --- |\n");
+        string? group = null;
+        foreach (var s in SettingsCatalog.All)
+        {
+            if (s.Group != group)
+            {
+                group = s.Group;
+                sb.Append($"| **{group}** | | | |\n");
+            }
+            string name = s.Kind switch
+            {
+                SettingKind.Flag => s.Option,
+                SettingKind.Choice => $"{s.Option} {string.Join("\\|", s.Choices)}",
+                _ => $"{s.Option} {s.ValueName}",
+            };
+            string commands = s.Commands == Commands.All ? "all" : string.Join(", ",
+                new[] { Commands.Check, Commands.Screen, Commands.Dimensions, Commands.Shorten, Commands.Run }.Where(s.AppliesTo).Select(SettingsCatalog.CommandName));
+            string def = s.Kind == SettingKind.Flag ? "off" : DefaultText(s) ?? "—";
+            string meaning = s.Help;
+            if (s.Kind is SettingKind.Integer or SettingKind.Number or SettingKind.Targets) meaning += $" Allowed: {s.Allowed}.";
+            sb.Append($"| `{name}` | {def} | {commands} | {meaning.Replace("|", "\\|", StringComparison.Ordinal)} |\n");
+        }
+        return sb.ToString();
+    }
 
-    // Appendix
-    public readonly Option<bool> NoPdf = new("--no-pdf") { Description = "Do not draw appendix.pdf (tables.md and tables.tex are still written)." };
+    private const string RequiredText = "required";
 
-    public IEnumerable<Option> ScreeningOptions => [CutoffP, Distance, RunShare, FlatSd, MissingLimit];
-    public IEnumerable<Option> DimensionOptions => [Correlation, MissingData, Replicates, Percentile, Reference, FactorsRule, Factors, Threads];
-    public IEnumerable<Option> ShortFormOptions => [Extraction, Rotation, ItemsPerFactor, ScaleTargets, Holdout];
-
-    /// <summary>Every option of every command (plan files may hold any of them).</summary>
-    public IEnumerable<Option> All => Common.Concat(Writing).Concat(ScreeningOptions).Concat(DimensionOptions).Concat(ShortFormOptions).Append(KeepFlagged).Append(NoPdf);
-
-    /// <summary>Options every command has.</summary>
-    public IEnumerable<Option> Common => [Responses, Codebook, Plan, Missing, IdColumn, Delimiter, Seed, Quiet, Progress, Verbose];
-
-    /// <summary>Options of commands that write results.</summary>
-    public IEnumerable<Option> Writing => [Out, Force];
-
-    /// <summary>Plan-file key of an option.</summary>
-    public static string Key(Option o) => o.Name.TrimStart('-');
+    /// <summary>The default in words, or null when there is none to show.</summary>
+    internal static string? DefaultText(Setting s) => s.DefaultText ?? (s.Default is null ? null : s.Kind switch
+    {
+        SettingKind.TextList => string.Join(", ", ((IReadOnlyList<string>)s.Default).Select(c => c.Length == 0 ? "empty cell" : c)),
+        _ => SettingParser.Format(s.Default),
+    });
 }

@@ -3,10 +3,26 @@ using System.Text.Json;
 
 namespace ItemReduce.IO;
 
+/// <summary>One key of a plan file, with its 1-based line and its value in the forms a setting may take.</summary>
+/// <param name="Key">The key (a setting name).</param>
+/// <param name="Line">1-based line of the key in the plan.</param>
+/// <param name="Text">Scalar value as text (strings as written, numbers in their JSON spelling, true/false), or null for
+/// a list or an object.</param>
+/// <param name="Items">Elements of a JSON list, as text; null otherwise.</param>
+/// <param name="Pairs">Members of a JSON object (name, value text); null otherwise.</param>
+/// <param name="Display">The value as written in the plan (JSON), for messages.</param>
+public sealed record PlanEntry(string Key, long Line, string? Text, IReadOnlyList<string>? Items,
+    IReadOnlyList<KeyValuePair<string, string>>? Pairs, string Display);
+
+/// <summary>A plan file read: its entries in file order and the SHA-256 of its bytes.</summary>
+public sealed record PlanContents(string Path, IReadOnlyList<PlanEntry> Entries, string Sha256);
+
 /// <summary>
 /// A plan file: a JSON object whose keys are the long option names without dashes
 /// (e.g. <c>"responses"</c>, <c>"cutoff-p"</c>, <c>"replicates"</c>) and whose values are strings,
-/// numbers, booleans or arrays (joined with commas). Comments and trailing commas are allowed.
+/// numbers, booleans, lists or (for name=value settings) objects. Comments and trailing commas are allowed.
+/// Values are typed against their settings by <see cref="Settings.SettingParser"/>; this reader only keeps each key's
+/// line so that messages can point at it.
 /// Relative paths are resolved against the plan file's folder. Command-line options override the plan.
 /// </summary>
 public static class PlanFile
@@ -15,10 +31,11 @@ public static class PlanFile
     public const int MaxBytes = 1 << 20;
 
     /// <summary>Keys whose values are file or folder paths.</summary>
-    public static readonly IReadOnlySet<string> PathKeys = new HashSet<string>(StringComparer.Ordinal) { "responses", "codebook", "out" };
+    public static readonly IReadOnlySet<string> PathKeys =
+        Settings.SettingsCatalog.All.Where(s => s.Kind == Settings.SettingKind.Path).Select(s => s.Name).ToHashSet(StringComparer.Ordinal);
 
-    /// <summary>Reads the plan as ordered (key, value text) pairs; throws <see cref="SurveyInputException"/> on problems.</summary>
-    public static IReadOnlyList<KeyValuePair<string, string>> Read(string path, IReadOnlySet<string> knownKeys)
+    /// <summary>Reads the plan's entries in file order; throws <see cref="SurveyInputException"/> on problems.</summary>
+    public static PlanContents Read(string path, IReadOnlySet<string> knownKeys)
     {
         DelimitedText.CheckInputFile(path, "plan", "--plan");
         if (new FileInfo(path).Length > MaxBytes)
@@ -51,30 +68,40 @@ public static class PlanFile
             if (doc.RootElement.ValueKind != JsonValueKind.Object)
                 throw InputErrors.At(path, 1, null, "the plan must be a JSON object", "wrap the settings in { ... }");
             string baseDir = Path.GetDirectoryName(Path.GetFullPath(path)) ?? ".";
-            var result = new List<KeyValuePair<string, string>>();
+            var lines = KeyLines(text);
+            var result = new List<PlanEntry>();
+            int index = 0;
             foreach (var prop in doc.RootElement.EnumerateObject())
             {
                 string key = prop.Name;
+                long line = index < lines.Count ? lines[index] : 1;
+                index++;
                 if (!knownKeys.Contains(key))
-                    throw InputErrors.At(path, null, key, "unknown setting",
-                        "use one of: " + string.Join(", ", knownKeys.Order(StringComparer.Ordinal)));
-                string? value = prop.Value.ValueKind switch
+                    throw new SurveyInputException($"{Settings.SettingErrors.InPlan(path, line, key)}: unknown setting. Fix: use one of: " +
+                        string.Join(", ", knownKeys.Order(StringComparer.Ordinal)) + ".");
+                if (result.FirstOrDefault(r => r.Key == key) is { } first)
+                    throw new SurveyInputException($"{Settings.SettingErrors.InPlan(path, line, key)}: given twice (also on line " +
+                        $"{first.Line.ToString(System.Globalization.CultureInfo.InvariantCulture)}). Fix: keep one of them.");
+                var v = prop.Value;
+                if (v.ValueKind == JsonValueKind.Null) continue;
+                string? scalar = v.ValueKind switch
                 {
-                    JsonValueKind.String => prop.Value.GetString(),
-                    JsonValueKind.Number => prop.Value.GetRawText(),
+                    JsonValueKind.String => v.GetString(),
+                    JsonValueKind.Number => v.GetRawText(),
                     JsonValueKind.True => "true",
                     JsonValueKind.False => "false",
-                    JsonValueKind.Null => null,
-                    JsonValueKind.Array => string.Join(",", prop.Value.EnumerateArray().Select(Scalar)),
-                    _ => throw InputErrors.At(path, null, key, "the value must be a string, number, true/false or a list", "simplify the value"),
+                    _ => null,
                 };
-                if (value is null) continue;
-                if (PathKeys.Contains(key) && value.Trim().Length == 0)
-                    throw InputErrors.At(path, null, key, "the path is empty", "give a file or folder name, or remove the setting");
-                if (PathKeys.Contains(key) && !Path.IsPathRooted(value)) value = Path.GetFullPath(Path.Combine(baseDir, value));
-                result.Add(new(key, value));
+                IReadOnlyList<string>? items = v.ValueKind == JsonValueKind.Array ? v.EnumerateArray().Select(Scalar).ToList() : null;
+                IReadOnlyList<KeyValuePair<string, string>>? pairs = v.ValueKind == JsonValueKind.Object
+                    ? v.EnumerateObject().Select(m => KeyValuePair.Create(m.Name, Scalar(m.Value))).ToList() : null;
+                if (scalar is not null && PathKeys.Contains(key) && scalar.Trim().Length == 0)
+                    throw new SurveyInputException($"{Settings.SettingErrors.InPlan(path, line, key)}: the path is empty. " +
+                        "Fix: give a file or folder name, or remove the setting.");
+                if (scalar is not null && PathKeys.Contains(key) && !Path.IsPathRooted(scalar)) scalar = Path.GetFullPath(Path.Combine(baseDir, scalar));
+                result.Add(new PlanEntry(key, line, scalar, items, pairs, v.GetRawText()));
             }
-            return result;
+            return new PlanContents(path, result, FileFingerprint.Sha256(path));
         }
 
         string Scalar(JsonElement e) => e.ValueKind switch
@@ -83,6 +110,25 @@ public static class PlanFile
             JsonValueKind.Number => e.GetRawText(),
             _ => e.ToString(),
         };
+    }
+
+    /// <summary>1-based lines of the root object's keys, in order.</summary>
+    private static List<long> KeyLines(string text)
+    {
+        var bytes = System.Text.Encoding.UTF8.GetBytes(text);
+        var reader = new Utf8JsonReader(bytes, new JsonReaderOptions { CommentHandling = JsonCommentHandling.Skip, AllowTrailingCommas = true });
+        var lines = new List<long>();
+        long line = 1;
+        long scanned = 0;
+        while (reader.Read())
+        {
+            if (reader.TokenType != JsonTokenType.PropertyName || reader.CurrentDepth != 1) continue;
+            long at = reader.TokenStartIndex;
+            for (long i = scanned; i < at; i++) if (bytes[i] == (byte)'\n') line++;
+            scanned = at;
+            lines.Add(line);
+        }
+        return lines;
     }
 
     /// <summary>Formats a plan number for the command line (invariant).</summary>

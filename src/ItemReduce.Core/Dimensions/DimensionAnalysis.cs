@@ -25,10 +25,10 @@ public static class DimensionAnalysis
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(options);
         Validate(data, options);
-        var warnings = new List<string>();
+        var warnings = new WarningList("dimensions");
         int p = data.ItemCount;
 
-        var raw = Correlate(data, options, options.MaxDegreeOfParallelism);
+        var raw = options.Correlation.Compute(data, options.MaxDegreeOfParallelism);
         CheckDefined(raw, data);
         int nEff = EffectiveRespondents(data, options, warnings);
         if (nEff <= p + 1)
@@ -37,8 +37,8 @@ public static class DimensionAnalysis
 
         var smoothing = NearestCorrelationMatrix.Find(raw, options.EigenvalueFloor);
         if (smoothing.Adjusted)
-            warnings.Add(string.Create(CultureInfo.InvariantCulture,
-                $"The {Name(options.Correlation)} correlation matrix was not positive definite (smallest eigenvalue {smoothing.MinEigenvalueBefore:G3}); it was replaced by the nearest valid correlation matrix, changing no correlation by more than {smoothing.MaxAbsoluteChange:F3}."));
+            warnings.Add("matrix-smoothed", string.Create(CultureInfo.InvariantCulture,
+                $"The {options.Correlation.KindName} correlation matrix was not positive definite (smallest eigenvalue {smoothing.MinEigenvalueBefore:G3}); it was replaced by the nearest valid correlation matrix, changing no correlation by more than {smoothing.MaxAbsoluteChange:F3}."));
         var r = smoothing.Matrix;
 
         var eigen = LinearAlgebra.SymmetricEigensolver.Eigenvalues(r);
@@ -66,7 +66,8 @@ public static class DimensionAnalysis
 
         return new DimensionResult
         {
-            CorrelationKind = options.Correlation,
+            CorrelationKind = options.Correlation.Kind,
+            MissingData = options.Correlation.MissingData,
             CorrelationMatrix = r,
             Smoothing = smoothing,
             EffectiveRespondents = nEff,
@@ -109,14 +110,6 @@ public static class DimensionAnalysis
         MaxDegreeOfParallelism = o.MaxDegreeOfParallelism,
     };
 
-    private static string Name(CorrelationKind k) => k == CorrelationKind.Polychoric ? "polychoric" : "Pearson";
-
-    private static double[,] Correlate(ResponseMatrix data, DimensionOptions o, int threads) => o.Correlation switch
-    {
-        CorrelationKind.Polychoric => PolychoricCorrelation.Compute(data, o.MissingData, threads),
-        _ => PearsonCorrelation.Compute(data, o.MissingData, threads),
-    };
-
     private static void CheckDefined(double[,] r, ResponseMatrix data)
     {
         int p = r.GetLength(0);
@@ -129,26 +122,17 @@ public static class DimensionAnalysis
     }
 
     /// <summary>n for the normal reference and Bartlett's test (see <see cref="DimensionResult.EffectiveRespondents"/>).</summary>
-    internal static int EffectiveRespondents(ResponseMatrix data, DimensionOptions o, List<string> warnings)
+    internal static int EffectiveRespondents(ResponseMatrix data, DimensionOptions o, WarningList warnings)
     {
         int n = data.RespondentCount;
         if (!data.HasMissing()) return n;
-        if (o.MissingData == MissingDataHandling.Listwise)
+        int nEff = o.Correlation.EffectiveRespondents(data);
+        if (o.Correlation.MissingData == MissingDataHandling.Listwise)
         {
-            int complete = PearsonCorrelation.CompleteRows(data).Length;
-            warnings.Add($"Listwise deletion: {n - complete} of {n} respondents with at least one missing answer were left out of the dimension analysis.");
-            return complete;
+            warnings.Add("listwise-deletion", $"Listwise deletion: {n - nEff} of {n} respondents with at least one missing answer were left out of the correlation-based analyses.");
+            return nEff;
         }
-        // Harmonic mean of the pairwise counts: our choice (common practice, no source) so that pairs
-        // with fewer joint answers weigh more.
-        var counts = PearsonCorrelation.PairwiseCounts(data);
-        int p = data.ItemCount;
-        double inv = 0;
-        int pairs = 0;
-        for (int j = 0; j < p; j++)
-            for (int k = 0; k < j; k++) { inv += 1.0 / Math.Max(counts[j, k], 1); pairs++; }
-        int nEff = (int)Math.Floor(pairs / inv);
-        warnings.Add($"Missing answers were handled pairwise; the random reference and Bartlett's test use an effective sample size of {nEff} respondents (harmonic mean of the pairwise counts).");
+        warnings.Add("pairwise-effective-n", $"Missing answers were handled pairwise; the random reference, Bartlett's test and the factor solutions use an effective sample size of {nEff} respondents (harmonic mean of the pairwise counts).");
         return nEff;
     }
 
@@ -159,7 +143,7 @@ public static class DimensionAnalysis
         if (progress is not null && o.Reference == ReferenceKind.Permutation)
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
-            return ParallelAnalysis.PermutationReference(data, d => Correlate(d, o, 1), po);
+            return ParallelAnalysis.PermutationReference(data, d => o.Correlation.Compute(d, 1), po);
         return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);
     }
 
@@ -191,22 +175,22 @@ public static class DimensionAnalysis
         return s + suffix;
     }
 
-    private static void AddInterpretationNotes(List<string> w, DimensionOptions o, RuleCounts c, KaiserMeyerOlkinResult kmo, BartlettSphericityResult b, ResponseMatrix data)
+    private static void AddInterpretationNotes(WarningList w, DimensionOptions o, RuleCounts c, KaiserMeyerOlkinResult kmo, BartlettSphericityResult b, ResponseMatrix data)
     {
         var ci = CultureInfo.InvariantCulture;
-        w.Add(KaiserCriterion.Caution);
+        w.Add("kaiser-caution", KaiserCriterion.Caution);
         if (c.Parallel == 0)
-            w.Add("No component stands out from random data in parallel analysis: the items may not share a common dimension.");
+            w.Add("no-component-above-random", "No component stands out from random data in parallel analysis: the items may not share a common dimension.");
         if (c.Parallel != c.Map)
-            w.Add(string.Create(ci, $"The rules disagree (parallel analysis {c.Parallel}, MAP {c.Map}); consider inspecting solutions with each count before deciding."));
+            w.Add("rules-disagree", string.Create(ci, $"The rules disagree (parallel analysis {c.Parallel}, MAP {c.Map}); consider inspecting solutions with each count before deciding."));
         if (kmo.Overall < 0.6)
-            w.Add(string.Create(ci, $"The overall KMO is {kmo.Overall:F2}; values below about 0.6 suggest the items share too little variance for a factor analysis to be informative (Kaiser, 1974)."));
+            w.Add("kmo-low", string.Create(ci, $"The overall KMO is {kmo.Overall:F2}; values below about 0.6 suggest the items share too little variance for a factor analysis to be informative (Kaiser, 1974)."));
         var low = Enumerable.Range(0, kmo.PerItem.Length).Where(j => kmo.PerItem[j] < 0.5).Select(j => data.Items[j].Name).ToList();
         if (low.Count > 0)
-            w.Add($"Items with a sampling adequacy below 0.5 (they share little with the rest): {string.Join(", ", low)}.");
+            w.Add("msa-low", $"Items with a sampling adequacy below 0.5 (they share little with the rest): {string.Join(", ", low)}.");
         if (b.P > 0.05)
-            w.Add(string.Create(ci, $"Bartlett's test does not reject uncorrelated items (p = {b.P:G3}); the correlations may be too weak to analyse."));
-        if (o.Correlation == CorrelationKind.Polychoric && o.Reference == ReferenceKind.Normal)
-            w.Add("Polychoric correlations are compared with a normal-data reference; a permutation reference keeps the items' own category distributions.");
+            w.Add("bartlett-not-rejected", string.Create(ci, $"Bartlett's test does not reject uncorrelated items (p = {b.P:G3}); the correlations may be too weak to analyse."));
+        if (o.Correlation.Kind == CorrelationKind.Polychoric && o.Reference == ReferenceKind.Normal)
+            w.Add("polychoric-normal-reference", "Polychoric correlations are compared with a normal-data reference; a permutation reference keeps the items' own category distributions.");
     }
 }

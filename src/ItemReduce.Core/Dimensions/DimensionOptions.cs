@@ -2,15 +2,6 @@ using ItemReduce.Core.Correlation;
 
 namespace ItemReduce.Core.Dimensions;
 
-/// <summary>Which correlation coefficient the dimension analysis uses.</summary>
-public enum CorrelationKind
-{
-    /// <summary>Pearson product-moment correlations (default).</summary>
-    Pearson,
-    /// <summary>Polychoric correlations for ordinal items (Olsson, 1979, two-step ML).</summary>
-    Polychoric,
-}
-
 /// <summary>Rule that decides how many dimensions to retain.</summary>
 public enum RetentionRule
 {
@@ -27,23 +18,22 @@ public enum RetentionRule
 /// <summary>Settings of <see cref="DimensionAnalysis.Run"/>; every property maps to one command-line option.</summary>
 public sealed record DimensionOptions
 {
-    /// <summary>Correlation coefficient; default <see cref="CorrelationKind.Pearson"/>.</summary>
-    public CorrelationKind Correlation { get; init; } = CorrelationKind.Pearson;
+    /// <summary>Correlation coefficient and missing-data handling (in a pipeline: <c>PipelineSettings.Correlation</c>,
+    /// shared with the short form); default Pearson, pairwise.</summary>
+    public CorrelationOptions Correlation { get; init; } = new();
 
-    /// <summary>Missing-answer handling; default <see cref="MissingDataHandling.Pairwise"/>.</summary>
-    public MissingDataHandling MissingData { get; init; } = MissingDataHandling.Pairwise;
+    /// <summary>Parallel-analysis replicates; default and range as <see cref="ParallelAnalysisOptions.Replicates"/>.</summary>
+    public int Replicates { get; init; } = ParallelAnalysisOptions.DefaultReplicates;
 
-    /// <summary>Parallel-analysis replicates; default 1000, range [10, 100000].</summary>
-    public int Replicates { get; init; } = 1000;
-
-    /// <summary>Reference percentile; default 95, range (0, 100).</summary>
-    public double Percentile { get; init; } = 95;
+    /// <summary>Reference percentile; default and range as <see cref="ParallelAnalysisOptions.Percentile"/>.</summary>
+    public double Percentile { get; init; } = ParallelAnalysisOptions.DefaultPercentile;
 
     /// <summary>Parallel-analysis reference; default <see cref="ReferenceKind.Normal"/>.</summary>
     public ReferenceKind Reference { get; init; } = ReferenceKind.Normal;
 
-    /// <summary>Seed of every random step; default 1.</summary>
-    public ulong Seed { get; init; } = 1;
+    /// <summary>Seed of every random step; default <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline:
+    /// <c>PipelineSettings.Seed</c>).</summary>
+    public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
     /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.Parallel"/>.
     /// <see cref="RetentionRule.Fixed"/> is not allowed here (use <see cref="FixedFactors"/>).</summary>

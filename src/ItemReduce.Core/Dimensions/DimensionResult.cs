@@ -28,6 +28,9 @@ public sealed record DimensionResult
     /// <summary>Correlation coefficient used.</summary>
     public required CorrelationKind CorrelationKind { get; init; }
 
+    /// <summary>Missing-data handling used for the correlations.</summary>
+    public required MissingDataHandling MissingData { get; init; }
+
     /// <summary>The correlation matrix analysed (after smoothing, if any), p × p.</summary>
     public required double[,] CorrelationMatrix { get; init; }
 
@@ -96,7 +99,7 @@ public sealed record DimensionResult
     public required double[] MapRevisedCurve { get; init; }
 
     /// <summary>Cautions and notes for the report, in plain language.</summary>
-    public required IReadOnlyList<string> Warnings { get; init; }
+    public required IReadOnlyList<AnalysisWarning> Warnings { get; init; }
 
     /// <summary>Per-component rows (for an eigenvalue table and a scree / parallel-analysis chart).</summary>
     public IReadOnlyList<ComponentRow> Components =>

@@ -20,18 +20,28 @@ public enum ReferenceKind
 /// <summary>Settings of <see cref="ParallelAnalysis"/>.</summary>
 public sealed record ParallelAnalysisOptions
 {
-    /// <summary>Random reference data sets; default 1000, range [10, 100000].</summary>
-    public int Replicates { get; init; } = 1000;
+    /// <summary>Default of <see cref="Replicates"/>.</summary>
+    public const int DefaultReplicates = 1000;
 
-    /// <summary>Percentile of the reference eigenvalues used as threshold; default 95 (Glorfeld, 1995),
-    /// range (0, 100); 50 gives the median.</summary>
-    public double Percentile { get; init; } = 95;
+    /// <summary>Allowed range of <see cref="Replicates"/>.</summary>
+    public const int MinReplicates = 10, MaxReplicates = 100_000;
+
+    /// <summary>Default of <see cref="Percentile"/> (Glorfeld, 1995).</summary>
+    public const double DefaultPercentile = 95;
+
+    /// <summary>Random reference data sets; default <see cref="DefaultReplicates"/>, range
+    /// [<see cref="MinReplicates"/>, <see cref="MaxReplicates"/>].</summary>
+    public int Replicates { get; init; } = DefaultReplicates;
+
+    /// <summary>Percentile of the reference eigenvalues used as threshold; default <see cref="DefaultPercentile"/>,
+    /// range (0, 100) exclusive; 50 gives the median.</summary>
+    public double Percentile { get; init; } = DefaultPercentile;
 
     /// <summary>Reference kind; default <see cref="ReferenceKind.Normal"/>.</summary>
     public ReferenceKind Reference { get; init; } = ReferenceKind.Normal;
 
     /// <summary>Seed; replicate r uses <c>RandomStream.ForTask(Seed, r, purpose)</c>.</summary>
-    public ulong Seed { get; init; } = 20_240_601;
+    public ulong Seed { get; init; } = RandomStream.DefaultSeed;
 
     /// <summary>Also compute reference eigenvalues of the reduced (SMC-diagonal) matrix; default true.</summary>
     public bool IncludeReducedMatrix { get; init; } = true;
@@ -51,8 +61,8 @@ public sealed record ParallelAnalysisOptions
 
     internal void Validate()
     {
-        if (Replicates is < 10 or > 100_000)
-            throw new ArgumentException($"Replicates must lie in [10, 100000], got {Replicates}.", nameof(Replicates));
+        if (Replicates is < MinReplicates or > MaxReplicates)
+            throw new ArgumentException($"Replicates must lie in [{MinReplicates}, {MaxReplicates}], got {Replicates}.", nameof(Replicates));
         if (!(Percentile > 0 && Percentile < 100))
             throw new ArgumentException($"Percentile must lie in (0, 100), got {Percentile}.", nameof(Percentile));
         if (PermutationMaxRows is < 100 or > 10_000_000)

@@ -47,13 +47,13 @@ public static class FactorAnalysis
             for (int j = 0; j < p; j++) { ve[f] += pattern[j, f] * structure[j, f]; ssp[f] += pattern[j, f] * pattern[j, f]; }
 
         var heywood = extraction.AtLowerBound.Union(Enumerable.Range(0, p).Where(j => h2[j] >= 1 - 1e-3)).OrderBy(j => j).ToList();
-        var warnings = new List<string>();
+        var warnings = new WarningList("factoring");
         if (!extraction.Converged)
-            warnings.Add($"{o.Extraction} extraction did not converge within {o.MaxIterations} iterations; treat the loadings as provisional.");
+            warnings.Add("extraction-not-converged", $"{o.Extraction} extraction did not converge within {o.MaxIterations} iterations; treat the loadings as provisional.");
         if (!rotation.Converged)
-            warnings.Add($"{o.Rotation} rotation did not converge within {o.MaxIterations} iterations; treat the rotated loadings as provisional.");
+            warnings.Add("rotation-not-converged", $"{o.Rotation} rotation did not converge within {o.MaxIterations} iterations; treat the rotated loadings as provisional.");
         if (heywood.Count > 0)
-            warnings.Add("Heywood case (communality at or above 1) for item(s) " +
+            warnings.Add("heywood-case", "Heywood case (communality at or above 1) for item(s) " +
                          string.Join(", ", heywood.Select(j => o.ItemNames is { } names && names.Count == correlation.GetLength(0)
                              ? names[j] : (j + 1).ToString(CultureInfo.InvariantCulture))) +
                          ": too many factors, too few respondents or a near-duplicate item; interpret with care.");
@@ -62,7 +62,7 @@ public static class FactorAnalysis
         FactorModelFit? fit = o.Extraction == FactorExtraction.MaximumLikelihood
             ? MaximumLikelihoodFactoring.FitStatistics(r, n, factors, extraction.Objective) : null;
         if (fit is { Df: <= 0 })
-            warnings.Add($"The {factors}-factor model has {fit.Df.ToString(CultureInfo.InvariantCulture)} degrees of freedom; the χ² test, RMSEA and TLI are undefined.");
+            warnings.Add("fit-undefined", $"The {factors}-factor model has {fit.Df.ToString(CultureInfo.InvariantCulture)} degrees of freedom; the χ² test, RMSEA and TLI are undefined.");
         return new FactorSolution
         {
             Pattern = patternArray,

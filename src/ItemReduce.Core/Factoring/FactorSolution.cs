@@ -79,7 +79,7 @@ public sealed record FactorSolution
     public required IReadOnlyDictionary<string, int> SubscaleFactor { get; init; }
 
     /// <summary>Recoverable problems (non-convergence, Heywood cases, …) in plain words.</summary>
-    public required IReadOnlyList<string> Warnings { get; init; }
+    public required IReadOnlyList<AnalysisWarning> Warnings { get; init; }
 
     /// <summary>Number of items p.</summary>
     public int ItemCount => Pattern.GetLength(0);

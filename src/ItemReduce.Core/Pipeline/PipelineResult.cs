@@ -33,5 +33,5 @@ public sealed record PipelineResult
     public ShortFormResult? ShortForm { get; init; }
 
     /// <summary>Pipeline-level warnings (stage warnings stay in their results).</summary>
-    public required IReadOnlyList<string> Warnings { get; init; }
+    public required IReadOnlyList<AnalysisWarning> Warnings { get; init; }
 }

@@ -17,11 +17,19 @@ public enum PipelineScope
     All,
 }
 
-/// <summary>Settings of every stage. <see cref="Seed"/> overrides the stage options' own seeds.</summary>
+/// <summary>
+/// Settings of every stage. Settings that several stages share are held here once — <see cref="Seed"/> and
+/// <see cref="Correlation"/> — and handed to each stage by <see cref="StageOptions"/>, which replaces the stage
+/// records' own values; the pipeline runs every stage with exactly what <see cref="StageOptions"/> returns.
+/// </summary>
 public sealed record PipelineSettings
 {
-    /// <summary>Seed for every random step; default 1.</summary>
-    public ulong Seed { get; init; } = 1;
+    /// <summary>Seed for every random step; default <see cref="Randomness.RandomStream.DefaultSeed"/>.</summary>
+    public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
+
+    /// <summary>Correlation coefficient and missing-data handling of every correlation-based stage (dimensions,
+    /// factoring, item judgements, short form); default Pearson, pairwise.</summary>
+    public Correlation.CorrelationOptions Correlation { get; init; } = new();
 
     /// <summary>Stages to run; default all.</summary>
     public PipelineScope Scope { get; init; } = PipelineScope.All;
@@ -37,4 +45,18 @@ public sealed record PipelineSettings
 
     /// <summary>Factoring, reliability and short-form options.</summary>
     public ShortFormOptions ShortForm { get; init; } = new();
+
+    /// <summary>The option records each stage receives: the stage records with the shared settings filled in.</summary>
+    public StageOptionSet StageOptions() => new(
+        Screening with { Seed = Seed },
+        Dimensions with { Seed = Seed, Correlation = Correlation },
+        ShortForm with { Seed = Seed, Correlation = Correlation },
+        KeepFlagged);
 }
+
+/// <summary>What each stage receives (see <see cref="PipelineSettings.StageOptions"/>).</summary>
+/// <param name="Screening">Options of the screening stage.</param>
+/// <param name="Dimensions">Options of the dimensions stage.</param>
+/// <param name="ShortForm">Options of factoring, item judgements, reliability and the short form.</param>
+/// <param name="KeepFlagged">Whether flagged respondents stay in the later stages.</param>
+public sealed record StageOptionSet(ScreeningOptions Screening, DimensionOptions Dimensions, ShortFormOptions ShortForm, bool KeepFlagged);

@@ -12,7 +12,7 @@ namespace ItemReduce.Core.Pipeline;
 /// <param name="ExcludedItems">Items left out, with reasons.</param>
 /// <param name="Warnings">Plain-language warnings for the user and the appendix.</param>
 public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, ResponseMatrix AsAnswered, DataSummary RawSummary,
-    IReadOnlyList<ExcludedItem> ExcludedItems, IReadOnlyList<string> Warnings)
+    IReadOnlyList<ExcludedItem> ExcludedItems, IReadOnlyList<AnalysisWarning> Warnings)
 {
     /// <summary>Minimum respondents for the covariance matrix of <paramref name="items"/> items to be invertible: max(items + 1, 10).</summary>
     public static int MinimumRespondents(int items) => Math.Max(items + 1, 10);
@@ -25,13 +25,13 @@ public sealed record PreparedData(ResponseMatrix Raw, ResponseMatrix Scored, Res
         var moments = ItemMoments.Compute(raw);
         var summary = DataSummary.Of(raw, moments);
         var (kept, excluded) = ItemScreen.Find(raw, moments);
-        var warnings = new List<string>();
+        var warnings = new WarningList("data");
         foreach (var e in excluded)
-            warnings.Add($"Item {e.Item} was left out of the analysis: {e.Detail}.");
+            warnings.Add("item-left-out", $"Item {e.Item} was left out of the analysis: {e.Detail}.");
         var asAnswered = kept.Length == raw.ItemCount ? raw : raw.SelectItems(kept);
         var scored = ReverseScoring.Apply(asAnswered);
         if (summary.RespondentsWithNoAnswers > 0)
-            warnings.Add($"{summary.RespondentsWithNoAnswers} respondent(s) answered none of the items.");
+            warnings.Add("no-answers", $"{summary.RespondentsWithNoAnswers} respondent(s) answered none of the items.");
         return new PreparedData(raw, scored, asAnswered, summary, excluded, warnings);
     }
 }

@@ -24,7 +24,8 @@ public static class SurveyPipeline
     {
         ArgumentNullException.ThrowIfNull(prepared);
         ArgumentNullException.ThrowIfNull(settings);
-        var warnings = new List<string>();
+        var warnings = new WarningList("pipeline");
+        var stage = settings.StageOptions();
         var ci = CultureInfo.InvariantCulture;
 
         ScreeningResult? screening = null;
@@ -33,32 +34,33 @@ public static class SurveyPipeline
         if (settings.Scope is PipelineScope.Screen or PipelineScope.All)
         {
             progress?.Invoke($"screening {prepared.Scored.RespondentCount} respondents");
-            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, settings.Screening with { Seed = settings.Seed }, prepared.AsAnswered, progress));
+            screening = Stage("screening", () => RespondentScreening.Run(prepared.Scored, stage.Screening, prepared.AsAnswered, progress));
             screened?.Invoke(screening);
             if (settings.Scope == PipelineScope.All)
             {
-                var keep = screening.RespondentsToAnalyse(settings.KeepFlagged);
+                var keep = screening.RespondentsToAnalyse(stage.KeepFlagged);
                 if (keep.Count < prepared.Scored.RespondentCount) analysed = prepared.Scored.SelectRespondents(keep);
-                if (!settings.KeepFlagged && screening.FlaggedRespondents > 0)
-                    warnings.Add(string.Create(ci, $"{screening.FlaggedRespondents} flagged respondent(s) were set aside for the later stages; {analysed.RespondentCount} were analysed. Review the flags: they are prompts for human judgement, not proof of careless answering."));
+                if (!stage.KeepFlagged && screening.FlaggedRespondents > 0)
+                    warnings.Add(new AnalysisWarning("flagged-set-aside", "screening", string.Create(ci, $"{screening.FlaggedRespondents} flagged respondent(s) were set aside for the later stages; {analysed.RespondentCount} were analysed. Review the flags: they are prompts for human judgement, not proof of careless answering.")));
                 var (kept, excluded) = ItemScreen.Find(analysed);
                 if (excluded.Count > 0)
                 {
                     lateExcluded = excluded;
-                    foreach (var e in excluded) warnings.Add($"Item {e.Item} was left out after screening: among the retained respondents {e.Detail}.");
+                    foreach (var e in excluded) warnings.Add(new AnalysisWarning("item-left-out", "screening", $"Item {e.Item} was left out after screening: among the retained respondents {e.Detail}."));
                     analysed = analysed.SelectItems(kept);
                 }
                 int need = PreparedData.MinimumRespondents(analysed.ItemCount);
                 if (analysed.RespondentCount < need)
                     throw new AnalysisStoppedException("dimensions", string.Create(ci,
-                        $"only {analysed.RespondentCount} respondents remain after screening but {analysed.ItemCount} items need at least {need}; consider --keep-flagged or a stricter --cutoff-p"));
+                        $"only {analysed.RespondentCount} respondents remain after screening but {analysed.ItemCount} items need at least {need}"), null,
+                        AnalysisStoppedException.TooFewAfterScreening);
             }
         }
         if (settings.Scope == PipelineScope.Screen)
             return new PipelineResult { Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, Warnings = warnings };
 
         DimensionResult? dims = null;
-        var dimOptions = settings.Dimensions with { Seed = settings.Seed };
+        var dimOptions = stage.Dimensions;
         if (settings.Scope != PipelineScope.Shorten || dimOptions.FixedFactors is null)
         {
             progress?.Invoke($"dimensions: correlations, eigenvalues and parallel analysis ({dimOptions.Replicates} replicates)");
@@ -70,17 +72,18 @@ public static class SurveyPipeline
         int k = dimOptions.FixedFactors ?? dims!.Retained;
         if (k < 1)
         {
-            warnings.Add("No dimension stood out from random data; one factor was extracted so that items can still be judged. Treat the short form with particular caution.");
+            warnings.Add(new AnalysisWarning("no-dimension", "factoring", "No dimension stood out from random data; one factor was extracted so that items can still be judged. Treat the short form with particular caution."));
             k = 1;
         }
         int maxK = Math.Max(1, analysed.ItemCount / 3);
         if (k > maxK)
         {
-            warnings.Add(string.Create(ci, $"{k} factors were indicated but {analysed.ItemCount} items support at most {maxK} with three items each; {maxK} were extracted."));
+            warnings.Add(new AnalysisWarning("factors-capped", "factoring", string.Create(ci, $"{k} factors were indicated but {analysed.ItemCount} items support at most {maxK} with three items each; {maxK} were extracted.")));
             k = maxK;
         }
         progress?.Invoke(string.Create(ci, $"factoring {analysed.ItemCount} items into {k} factor(s) and building the short form"));
-        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, settings.ShortForm with { Seed = settings.Seed }, progress));
+        var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, stage.ShortForm, progress,
+            dims is not null && stage.ShortForm.HoldoutFraction == 0 ? dims.CorrelationMatrix : null));
         return new PipelineResult
         {
             Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,

@@ -9,6 +9,9 @@ namespace ItemReduce.Core.Randomness;
 /// </summary>
 public sealed class RandomStream
 {
+    /// <summary>The seed every seeded step uses unless told otherwise (the one default of the program's seed).</summary>
+    public const ulong DefaultSeed = 1;
+
     private ulong _s0, _s1, _s2, _s3;
     private double _spareGaussian;
     private bool _hasSpare;

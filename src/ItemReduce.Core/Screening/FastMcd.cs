@@ -19,7 +19,7 @@ internal sealed record FastMcdSettings(
     int MaxSubsets = 5,
     int BestPerStage = 10,
     int MaxCSteps = 100,
-    ulong Seed = 0);
+    ulong Seed = Randomness.RandomStream.DefaultSeed);
 
 /// <summary>Result of <see cref="FastMcd.Fit"/>. Matrices are p × p; all scatter matrices are symmetric.</summary>
 /// <param name="RawLocation">Mean of the best h-subset.</param>

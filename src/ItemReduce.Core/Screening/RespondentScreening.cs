@@ -41,21 +41,21 @@ public static class RespondentScreening
         if (n < 2) throw new ArgumentException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
-        var warnings = new List<string>();
+        var warnings = new WarningList("screening");
 
         // 1. Robust location and scatter from FAST-MCD on complete rows, fitted on another thread while the classical
         //    moments are accumulated (the two do not depend on each other; FAST-MCD leaves cores idle between its steps).
-        var robustWarnings = new List<string>();
+        var robustWarnings = new WarningList("screening");
         var robustFit = Task.Run(() => RobustFit(data, options, robustWarnings, progress));
 
         // 2. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
         progress?.Invoke("screening: item means and covariances");
         var (mean, rawCov, noOverlap) = PairwiseCovariance.Compute(data);
         if (noOverlap > 0)
-            warnings.Add($"{noOverlap} item pair(s) had fewer than 2 respondents answering both; their covariance was set to 0.");
+            warnings.Add("pairs-without-overlap", $"{noOverlap} item pair(s) had fewer than 2 respondents answering both; their covariance was set to 0.");
         var (cov, repaired, smallest) = PairwiseCovariance.EnsurePositiveDefinite(rawCov);
         if (repaired)
-            warnings.Add("The item covariance matrix was not positive definite (smallest eigenvalue " +
+            warnings.Add("covariance-repaired", "The item covariance matrix was not positive definite (smallest eigenvalue " +
                          smallest.ToString("G4", CultureInfo.InvariantCulture) +
                          "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
@@ -72,12 +72,12 @@ public static class RespondentScreening
         var subscales = data.Items.Select(i => i.Subscale).ToList();
         var evenOdd = new EvenOddConsistency(subscales, options.EvenOddMinSubscales);
         if (!evenOdd.Applicable)
-            warnings.Add($"Even-odd consistency was not computed: it needs at least {options.EvenOddMinSubscales} subscales with two or more items, " +
+            warnings.Add("even-odd-not-computed", $"Even-odd consistency was not computed: it needs at least {options.EvenOddMinSubscales} subscales with two or more items, " +
                          $"the codebook gives {evenOdd.SplittableSubscales}.");
         int runLimit = Math.Max(options.LongStringMinimum, (int)Math.Ceiling(options.LongStringShare * p));
         bool useRobust = options.UseRobust && robust.Available;
         if (options.UseRobust && !robust.Available)
-            warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
+            warnings.Add("robust-unavailable", "Robust distances were not available; distance flags use the classical distance instead.");
 
         // 4. One pass over the respondents: each block of rows is decoded once and gets both distances, their
         //    p-values and the careless-response indices.
@@ -110,13 +110,13 @@ public static class RespondentScreening
         int nanDistance = 0;
         for (int i = 0; i < n; i++) if (answered[i] > 0 && double.IsNaN(d2[i])) nanDistance++;
         if (nanDistance > 0)
-            warnings.Add($"{nanDistance} respondent(s) got no classical distance because the covariance sub-matrix of their answered items could not be factorised.");
+            warnings.Add("no-classical-distance", $"{nanDistance} respondent(s) got no classical distance because the covariance sub-matrix of their answered items could not be factorised.");
         int nanRobust = 0;
         for (int i = 0; i < n; i++) if (robust.Available && answered[i] > 0 && double.IsNaN(robustD2[i])) nanRobust++;
         if (nanRobust > 0)
-            warnings.Add($"{nanRobust} respondent(s) got no robust distance because the robust scatter sub-matrix of their answered items could not be factorised.");
+            warnings.Add("no-robust-distance", $"{nanRobust} respondent(s) got no robust distance because the robust scatter sub-matrix of their answered items could not be factorised.");
         int noAnswers = answered.Count(a => a == 0);
-        if (noAnswers > 0) warnings.Add($"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
+        if (noAnswers > 0) warnings.Add("no-answers", $"{noAnswers} respondent(s) answered no item; they have no distance and are flagged as mostly unanswered.");
 
         var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
             rows.CountWith(ScreeningRowStore.Bit(code)))).ToList();
@@ -163,7 +163,7 @@ public static class RespondentScreening
     private static readonly int UnansweredBit = ScreeningRowStore.Bit(ScreeningReasons.MostlyUnanswered);
 
     /// <summary>FAST-MCD on the complete rows (subsampled above the cap); the distance object is null when robust distances are unavailable.</summary>
-    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance) RobustFit(ResponseMatrix data, ScreeningOptions o, List<string> warnings,
+    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance) RobustFit(ResponseMatrix data, ScreeningOptions o, WarningList warnings,
         Action<string>? progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
@@ -172,7 +172,7 @@ public static class RespondentScreening
             if (data.IsComplete(i)) complete.Add(i);
         RobustEstimatorDetails Unavailable(string note, int used = 0, bool sub = false)
         {
-            warnings.Add(note);
+            warnings.Add("robust-fit-note", note);
             return new RobustEstimatorDetails(false, complete.Count, sub, used, 0, double.NaN, double.NaN, 0, false, 0, 0, 0, false, null, null, note);
         }
         int minimum = Math.Max(2 * (p + 1), p + 2);
@@ -202,7 +202,7 @@ public static class RespondentScreening
         {
             return (Unavailable("Robust fit failed: " + e.Message + " This happens when more than half the respondents give identical answers on some items.", m, subsampled), null);
         }
-        if (!fit.Converged) warnings.Add("FAST-MCD reached its C-step cap before the determinant stopped decreasing; robust distances may be slightly off.");
+        if (!fit.Converged) warnings.Add("mcd-not-converged", "FAST-MCD reached its C-step cap before the determinant stopped decreasing; robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         if (!dist.FullFactorAvailable)
             return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), null);

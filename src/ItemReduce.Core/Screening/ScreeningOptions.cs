@@ -6,6 +6,12 @@ namespace ItemReduce.Core.Screening;
 /// </summary>
 public sealed record ScreeningOptions
 {
+    /// <summary>Upper end (excluded) of <see cref="CutoffP"/>; the lower end 0 is excluded too.</summary>
+    public const double MaxCutoffP = 0.5;
+
+    /// <summary>Upper end (excluded) of <see cref="MissingShareLimit"/>; the lower end 0 is included.</summary>
+    public const double MaxMissingShareLimit = 1;
+
     /// <summary>
     /// Upper-tail probability of the distance cutoff: a respondent is atypical when P(χ²_df &gt; D²) &lt; CutoffP with
     /// df = items answered. Default 0.001 (common practice in multivariate outlier screening, no source).
@@ -17,8 +23,9 @@ public sealed record ScreeningOptions
     /// Both distances are always reported when they can be computed.</summary>
     public bool UseRobust { get; init; } = true;
 
-    /// <summary>Seed of every random step (FAST-MCD starts and subsampling). Default 20240601.</summary>
-    public ulong Seed { get; init; } = 20240601;
+    /// <summary>Seed of every random step (FAST-MCD starts and subsampling). Default
+    /// <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline: <c>PipelineSettings.Seed</c>).</summary>
+    public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
     /// <summary>
     /// Most complete rows FAST-MCD is fitted to; above this a seeded random subsample of this size is used and the
@@ -80,7 +87,7 @@ public sealed record ScreeningOptions
         {
             if (!ok) throw new ArgumentException($"Screening option {name} = {value} is out of range; allowed: {range}.", name);
         }
-        Check(CutoffP > 0 && CutoffP < 0.5, nameof(CutoffP), CutoffP, "(0, 0.5)");
+        Check(CutoffP > 0 && CutoffP < MaxCutoffP, nameof(CutoffP), CutoffP, "(0, 0.5)");
         Check(RobustMaxRows >= 100, nameof(RobustMaxRows), RobustMaxRows, "≥ 100");
         Check(RobustSupportFraction is null || (RobustSupportFraction >= 0.5 && RobustSupportFraction <= 1), nameof(RobustSupportFraction), RobustSupportFraction!, "[0.5, 1] or unset");
         Check(RobustInitialSubsets is >= 1 and <= 100_000, nameof(RobustInitialSubsets), RobustInitialSubsets, "1..100000");
@@ -90,6 +97,6 @@ public sealed record ScreeningOptions
         Check(EvenOddMinimum >= -1 && EvenOddMinimum <= 1, nameof(EvenOddMinimum), EvenOddMinimum, "[−1, 1]");
         Check(EvenOddMinSubscales >= 3, nameof(EvenOddMinSubscales), EvenOddMinSubscales, "≥ 3");
         Check(EvenOddFlagSubscales >= EvenOddMinSubscales, nameof(EvenOddFlagSubscales), EvenOddFlagSubscales, $"≥ EvenOddMinSubscales ({EvenOddMinSubscales})");
-        Check(MissingShareLimit >= 0 && MissingShareLimit < 1, nameof(MissingShareLimit), MissingShareLimit, "[0, 1)");
+        Check(MissingShareLimit >= 0 && MissingShareLimit < MaxMissingShareLimit, nameof(MissingShareLimit), MissingShareLimit, "[0, 1)");
     }
 }

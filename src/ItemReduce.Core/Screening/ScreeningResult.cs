@@ -87,7 +87,7 @@ public sealed record ScreeningResult(
     string RuleDescription,
     RobustEstimatorDetails Robust,
     IReadOnlyList<HalfPeakRegionRow> HalfPeakRegion,
-    IReadOnlyList<string> Warnings,
+    IReadOnlyList<AnalysisWarning> Warnings,
     ScreeningOptions Options)
 {
     /// <summary>Indices of the respondents who answered at least one item and, unless <paramref name="keepFlagged"/>,

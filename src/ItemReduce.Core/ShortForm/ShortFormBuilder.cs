@@ -9,7 +9,8 @@ namespace ItemReduce.Core.ShortForm;
 /// <summary>
 /// Façade: judges every item, chooses a short form per scale, refits the factor model on it and reports
 /// full- and short-form reliability — optionally on held-out respondents the items were not chosen on.
-/// Steps: <see cref="HoldoutSplit"/> → Pearson correlations → <see cref="FactorAnalysis.Fit"/> → scale
+/// Steps: <see cref="HoldoutSplit"/> → correlations (<see cref="ShortFormOptions.Correlation"/>: Pearson or polychoric,
+/// pairwise or listwise; smoothed by <see cref="NearestCorrelationMatrix"/> when not positive definite) → <see cref="FactorAnalysis.Fit"/> → scale
 /// statistics (<see cref="ScaleReliability"/>) → flags (<see cref="ItemReasonCodes"/>) →
 /// <see cref="ItemSelection"/> → refit → reliability rows with the overlap-corrected short/full correlation.
 /// Scales: an item's scale is its declared subscale, or, when it has none, the label of its primary factor.
@@ -29,7 +30,11 @@ public static class ShortFormBuilder
     /// <param name="options">Options; null = defaults.</param>
     /// <exception cref="ArgumentException">Invalid data, k or options (message gives value and range).</exception>
     /// <param name="progress">Optional callback told when each step starts (for progress reports on large data).</param>
-    public static ShortFormResult Build(ResponseMatrix data, int factors, ShortFormOptions? options = null, Action<string>? progress = null)
+    /// <param name="correlation">Optional correlation matrix of <paramref name="data"/> (p × p, positive definite) computed
+    /// already with <see cref="ShortFormOptions.Correlation"/> on the same respondents, e.g. by the dimensions stage;
+    /// used only without a holdout. Null = computed here.</param>
+    public static ShortFormResult Build(ResponseMatrix data, int factors, ShortFormOptions? options = null, Action<string>? progress = null,
+        double[,]? correlation = null)
     {
         var o = options ?? new ShortFormOptions();
         Validate(data, factors, o);
@@ -37,14 +42,29 @@ public static class ShortFormBuilder
         if (holdRows.Length > 0 && (selRows.Length < 10 || holdRows.Length < 10))
             throw new ArgumentException($"Holdout fraction {o.HoldoutFraction} leaves {selRows.Length} selection and {holdRows.Length} holdout respondents; each part needs at least 10.", nameof(options));
         var sel = holdRows.Length > 0 ? data.SelectRespondents(selRows) : data;
-        var warnings = new List<string>();
+        var warnings = new WarningList("short-form");
 
         var subscales = data.Items.Select(i => string.IsNullOrEmpty(i.Subscale) ? null : i.Subscale).ToList();
         progress?.Invoke("short form: correlations");
-        var r = PearsonCorrelation.Compute(sel, o.MissingData);
+        double[,] r;
+        if (correlation is not null && holdRows.Length == 0)
+        {
+            if (correlation.GetLength(0) != data.ItemCount || correlation.GetLength(1) != data.ItemCount)
+                throw new ArgumentException($"The correlation matrix is {correlation.GetLength(0)}×{correlation.GetLength(1)} for {data.ItemCount} items.", nameof(correlation));
+            r = correlation;
+        }
+        else
+        {
+            var smoothing = NearestCorrelationMatrix.Find(o.Correlation.Compute(sel));
+            if (smoothing.Adjusted)
+                warnings.Add("matrix-smoothed", string.Create(CultureInfo.InvariantCulture,
+                    $"The {o.Correlation.KindName} correlation matrix of the items was not positive definite (smallest eigenvalue {smoothing.MinEigenvalueBefore:G3}); the factor solutions use the nearest valid correlation matrix, changing no correlation by more than {smoothing.MaxAbsoluteChange:F3}."));
+            r = smoothing.Matrix;
+        }
+        int nCorr = o.Correlation.EffectiveRespondents(sel);
         progress?.Invoke("short form: factor solution");
-        var full = FactorAnalysis.Fit(r, sel.RespondentCount, factors, o.Factoring with { ItemSubscales = subscales, ItemNames = data.Items.Select(i => i.Name).ToList() });
-        warnings.AddRange(full.Warnings.Select(w => "Full solution: " + w));
+        var full = FactorAnalysis.Fit(r, nCorr, factors, o.Factoring with { ItemSubscales = subscales, ItemNames = data.Items.Select(i => i.Name).ToList() });
+        warnings.AddRange(full.Warnings.Select(w => w with { Message = "Full solution: " + w.Message }));
 
         var scales = AssignScales(data, full, subscales);
         WarnSharedHomes(scales, warnings);
@@ -79,27 +99,28 @@ public static class ShortFormBuilder
             chosenAll.UnionWith(chosen);
             forcedAll.UnionWith(forced);
             if (chosen.Count < Math.Min(target, sc.Items.Count))
-                warnings.Add($"Scale '{sc.Name}': only {chosen.Count} of the requested {target} items could be chosen.");
+                warnings.Add("scale-short", $"Scale '{sc.Name}': only {chosen.Count} of the requested {target} items could be chosen.");
             if (forced.Count > 0)
-                warnings.Add($"Scale '{sc.Name}': {forced.Count} flagged item(s) kept to reach a usable length; review them.");
+                warnings.Add("flagged-items-kept", $"Scale '{sc.Name}': {forced.Count} flagged item(s) kept to reach a usable length; review them.");
             scaleResults.Add(new ShortFormScale(sc.Name, sc.Home, target,
                 sc.Items.Select(j => data.Items[j].Name).ToList(), chosen.Select(j => data.Items[j].Name).ToList()));
         }
 
         var judgements = Enumerable.Range(0, data.ItemCount).Select(j => Judge(data, full, flags[j], chosenAll.Contains(j), forcedAll.Contains(j))).ToList();
         var selected = chosenAll.Order().ToList();
-        var shortSolution = Refit(r, sel.RespondentCount, factors, selected, subscales, data.Items.Select(i => i.Name).ToList(), o, warnings);
+        var shortSolution = Refit(r, nCorr, factors, selected, subscales, data.Items.Select(i => i.Name).ToList(), o, warnings);
 
         progress?.Invoke("short form: reliability of full and short forms");
         var rows = new List<ReliabilityRow>();
         AddRows(rows, sel, scales, scaleResults, data, holdRows.Length > 0 ? SampleRole.Selection : SampleRole.All, o.Confidence, selFull);
         if (holdRows.Length > 0)
             AddRows(rows, data.SelectRespondents(holdRows), scales, scaleResults, data, SampleRole.Holdout, o.Confidence, null);
-        warnings.Add(ValidationCaution);
+        warnings.Add("validate-short-form", ValidationCaution);
 
         return new ShortFormResult
         {
             FullSolution = full,
+            Correlation = new CorrelationUsed(o.Correlation.Kind, o.Correlation.MissingData, r, nCorr, sel.RespondentCount),
             Judgements = judgements,
             Scales = scaleResults,
             SelectedIndices = selected,
@@ -138,10 +159,10 @@ public static class ShortFormBuilder
         return list;
     }
 
-    private static void WarnSharedHomes(List<ScaleDefinition> scales, List<string> warnings)
+    private static void WarnSharedHomes(List<ScaleDefinition> scales, WarningList warnings)
     {
         foreach (var g in scales.Where(s => s.Declared).GroupBy(s => s.Home).Where(g => g.Count() > 1))
-            warnings.Add($"Subscales {string.Join(", ", g.Select(s => "'" + s.Name + "'"))} load mainly on the same factor (F{g.Key + 1}); " +
+            warnings.Add("shared-home-factor", $"Subscales {string.Join(", ", g.Select(s => "'" + s.Name + "'"))} load mainly on the same factor (F{g.Key + 1}); " +
                          "the factor solution does not separate them.");
     }
 
@@ -156,11 +177,11 @@ public static class ShortFormBuilder
             f.SecondaryLoading, f.Communality, f.ItemTotal, f.AlphaIfDeleted, f.ScaleAlpha);
     }
 
-    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, IReadOnlyList<string?> subscales, IReadOnlyList<string> names, ShortFormOptions o, List<string> warnings)
+    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, IReadOnlyList<string?> subscales, IReadOnlyList<string> names, ShortFormOptions o, WarningList warnings)
     {
         if (selected.Count <= k || selected.Count < 3)
         {
-            warnings.Add($"The short form has {selected.Count} items; a {k}-factor refit needs more than {Math.Max(k, 2)}. No refit.");
+            warnings.Add("no-refit", $"The short form has {selected.Count} items; a {k}-factor refit needs more than {Math.Max(k, 2)}. No refit.");
             return null;
         }
         var sub = new double[selected.Count, selected.Count];
@@ -169,12 +190,12 @@ public static class ShortFormBuilder
         try
         {
             var s = FactorAnalysis.Fit(sub, n, k, o.Factoring with { ItemSubscales = selected.Select(j => subscales[j]).ToList(), ItemNames = selected.Select(j => names[j]).ToList() });
-            warnings.AddRange(s.Warnings.Select(w => "Short-form refit: " + w));
+            warnings.AddRange(s.Warnings.Select(w => w with { Message = "Short-form refit: " + w.Message }));
             return s;
         }
         catch (Exception e) when (e is ArgumentException or FactorNonConvergenceException)
         {
-            warnings.Add("Short-form refit failed: " + e.Message);
+            warnings.Add("refit-failed", "Short-form refit failed: " + e.Message);
             return null;
         }
     }
@@ -221,12 +242,13 @@ public static class ShortFormBuilder
         ArgumentNullException.ThrowIfNull(o);
         int p = data.ItemCount;
         if (factors < 1 || factors >= p) throw new ArgumentException($"factors = {factors}; allowed range is 1..{p - 1} for {p} items.", nameof(factors));
-        if (o.ItemsPerScale is < 2 or > 100) throw new ArgumentException($"ItemsPerScale = {o.ItemsPerScale}; allowed 2..100.", nameof(o));
+        const int minLen = ShortFormOptions.MinItemsPerScale, maxLen = ShortFormOptions.MaxItemsPerScale;
+        if (o.ItemsPerScale is < minLen or > maxLen) throw new ArgumentException($"ItemsPerScale = {o.ItemsPerScale}; allowed {minLen}..{maxLen}.", nameof(o));
         if (o.ScaleTargets is { } t)
             foreach (var (name, n) in t)
-                if (n is < 1 or > 100) throw new ArgumentException($"Target for scale '{name}' = {n}; allowed 1..100.", nameof(o));
-        if (!(o.HoldoutFraction >= 0 && o.HoldoutFraction <= 0.9))
-            throw new ArgumentException($"HoldoutFraction = {o.HoldoutFraction.ToString(CultureInfo.InvariantCulture)}; allowed [0, 0.9].", nameof(o));
+                if (n is < minLen or > maxLen) throw new ArgumentException($"Target for scale '{name}' = {n}; allowed {minLen}..{maxLen}.", nameof(o));
+        if (!(o.HoldoutFraction >= 0 && o.HoldoutFraction <= ShortFormOptions.MaxHoldoutFraction))
+            throw new ArgumentException($"HoldoutFraction = {o.HoldoutFraction.ToString(CultureInfo.InvariantCulture)}; allowed [0, {ShortFormOptions.MaxHoldoutFraction.ToString(CultureInfo.InvariantCulture)}].", nameof(o));
         if (!(o.Confidence > 0 && o.Confidence < 1)) throw new ArgumentException($"Confidence = {o.Confidence}; allowed (0, 1).", nameof(o));
         var th = o.Thresholds;
         foreach (var (name, v, lo, hi) in new[]

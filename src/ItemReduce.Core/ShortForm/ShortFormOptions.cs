@@ -37,10 +37,25 @@ public sealed record ShortFormOptions
     /// is filled in from the data's items by the builder.</summary>
     public FactoringOptions Factoring { get; init; } = new();
 
-    /// <summary>Items kept per scale when no per-scale target is given. Default 4; allowed 2..100.</summary>
-    public int ItemsPerScale { get; init; } = 4;
+    /// <summary>Default of <see cref="ItemsPerScale"/>.</summary>
+    public const int DefaultItemsPerScale = 4;
 
-    /// <summary>Optional target length per scale name (overrides <see cref="ItemsPerScale"/>); each 1..100.</summary>
+    /// <summary>Allowed range of <see cref="ItemsPerScale"/> and of each <see cref="ScaleTargets"/> value.</summary>
+    public const int MinItemsPerScale = 2, MaxItemsPerScale = 100;
+
+    /// <summary>Largest allowed <see cref="HoldoutFraction"/>.</summary>
+    public const double MaxHoldoutFraction = 0.9;
+
+    /// <summary>Correlation coefficient and missing-data handling of the factor solutions (in a pipeline:
+    /// <c>PipelineSettings.Correlation</c>, shared with the dimensions stage); default Pearson, pairwise.</summary>
+    public CorrelationOptions Correlation { get; init; } = new();
+
+    /// <summary>Items kept per scale when no per-scale target is given. Default <see cref="DefaultItemsPerScale"/>;
+    /// allowed <see cref="MinItemsPerScale"/>..<see cref="MaxItemsPerScale"/>.</summary>
+    public int ItemsPerScale { get; init; } = DefaultItemsPerScale;
+
+    /// <summary>Optional target length per scale name (overrides <see cref="ItemsPerScale"/>); each
+    /// <see cref="MinItemsPerScale"/>..<see cref="MaxItemsPerScale"/>.</summary>
     public IReadOnlyDictionary<string, int>? ScaleTargets { get; init; }
 
     /// <summary>Judgement thresholds.</summary>
@@ -54,12 +69,10 @@ public sealed record ShortFormOptions
     /// (default); allowed [0, 0.9]; both parts need at least 10 respondents.</summary>
     public double HoldoutFraction { get; init; }
 
-    /// <summary>Seed of the holdout split. Default 0.</summary>
-    public ulong Seed { get; init; }
+    /// <summary>Seed of the holdout split. Default <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline:
+    /// <c>PipelineSettings.Seed</c>).</summary>
+    public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
     /// <summary>Coverage of the alpha confidence intervals. Default 0.95; allowed (0, 1).</summary>
     public double Confidence { get; init; } = 0.95;
-
-    /// <summary>Missing-data handling for the item correlations. Default pairwise.</summary>
-    public MissingDataHandling MissingData { get; init; } = MissingDataHandling.Pairwise;
 }

@@ -1,3 +1,4 @@
+using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Factoring;
 
 namespace ItemReduce.Core.ShortForm;
@@ -49,6 +50,15 @@ public sealed record ReliabilityRow(
 /// <param name="SelectedItems">Chosen item names, in order of choice (strongest first).</param>
 public sealed record ShortFormScale(string Scale, int HomeFactor, int Target, IReadOnlyList<string> FullItems, IReadOnlyList<string> SelectedItems);
 
+/// <summary>The correlation matrix the factor solutions were fitted to.</summary>
+/// <param name="Kind">Coefficient.</param>
+/// <param name="MissingData">Missing-data handling.</param>
+/// <param name="Matrix">p × p in the data's item order, unit diagonal, after any smoothing.</param>
+/// <param name="Respondents">n given to the factoring: all rows, the complete rows (listwise) or the harmonic mean of the
+/// pairwise counts (see <see cref="CorrelationOptions.EffectiveRespondents"/>).</param>
+/// <param name="SampleRespondents">Respondents of the sample correlated (the selection part with a holdout).</param>
+public sealed record CorrelationUsed(CorrelationKind Kind, MissingDataHandling MissingData, double[,] Matrix, int Respondents, int SampleRespondents);
+
 /// <summary>
 /// Result of <see cref="ShortFormBuilder.Build"/>. All loadings refer to the data the items were chosen on
 /// (the selection part when a holdout is used).
@@ -57,6 +67,9 @@ public sealed record ShortFormResult
 {
     /// <summary>Factor solution of all items (p × k).</summary>
     public required FactorSolution FullSolution { get; init; }
+
+    /// <summary>The correlation matrix <see cref="FullSolution"/> and <see cref="ShortSolution"/> were fitted to.</summary>
+    public required CorrelationUsed Correlation { get; init; }
 
     /// <summary>One judgement per item, in data order.</summary>
     public required IReadOnlyList<ItemJudgement> Judgements { get; init; }
@@ -85,5 +98,5 @@ public sealed record ShortFormResult
     public required IReadOnlyList<int> HoldoutRows { get; init; }
 
     /// <summary>Problems and cautions in plain words; always includes <see cref="ShortFormBuilder.ValidationCaution"/>.</summary>
-    public required IReadOnlyList<string> Warnings { get; init; }
+    public required IReadOnlyList<AnalysisWarning> Warnings { get; init; }
 }

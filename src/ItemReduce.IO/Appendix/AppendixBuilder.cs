@@ -7,6 +7,7 @@ using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
 using ItemReduce.IO.Jobs;
 using ItemReduce.IO.Outputs;
+using ItemReduce.IO.Settings;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
 using MathNet.Numerics.Distributions;
@@ -23,6 +24,9 @@ public static class AppendixBuilder
 {
     /// <summary>Loadings with absolute value below this are left blank in the loading table.</summary>
     public const double BlankBelow = 0.30;
+
+    /// <summary>Title of the table of settings in section 1.</summary>
+    public const string SettingsTableTitle = "Settings of this run";
 
     public static AppendixDocument Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
     {
@@ -94,6 +98,7 @@ public static class AppendixBuilder
             new("SHA-256", survey.ResponsesSha256),
             new("Codebook file", Path.GetFileName(settings.Codebook)),
             new("SHA-256", survey.CodebookSha256),
+            new("Plan file", settings.Plan is null ? "none" : Path.GetFileName(settings.Plan)),
             new("Respondent id column", survey.Intake.IdColumn ?? "none (data line numbers)"),
             new("Missing-data codes", "empty cell" + string.Concat(settings.Intake.EffectiveMissingCodes.Where(c => c.Length > 0).Select(c => ", " + c))),
             new("Respondents", Integer(p.Raw.RespondentCount)),
@@ -104,22 +109,13 @@ public static class AppendixBuilder
             new("Software", $"itemreduce {SurveyJob.Version} on .NET {Environment.Version}"),
             new("Random seed", settings.Seed.ToString(CultureInfo.InvariantCulture)),
             new("Run started (UTC)", settings.StartedUtc.ToUniversalTime().ToString("yyyy-MM-dd HH:mm:ss", CultureInfo.InvariantCulture)),
-            new("Options given", settings.EffectiveOptions.Count == 0 ? "none (all defaults)"
-                : string.Join("  ", settings.EffectiveOptions.Where(kv => kv.Key is not ("responses" or "codebook" or "out")).Select(kv => $"--{kv.Key}={kv.Value}"))),
-            new("Settings in effect", SettingsLine(r.Settings)),
         };
+        if (settings.PlanSha256 is { } planSha) entries.Insert(5, new("SHA-256", planSha));
         b.Add(new KeyValueBlock(entries));
+        b.Table(SettingsTableTitle, [new("Setting"), new("Value"), new("Source")],
+            SettingsRecord.Rows(settings).Select(x => Row("--" + x.Setting.Name, x.Text, x.Source)).ToList(),
+            "Every setting of this command with the value the analysis used; source: default, command line or plan file.");
         refs.Add(MethodReferences.BlackmanVigna2021);
-    }
-
-    private static string SettingsLine(PipelineSettings s)
-    {
-        var d = s.Dimensions;
-        var f = s.ShortForm;
-        return Inv($"cutoff p = {s.Screening.CutoffP}; distance = {(s.Screening.UseRobust ? "robust (FAST-MCD)" : "classical")}; flagged respondents {(s.KeepFlagged ? "kept" : "set aside")}; ") +
-               Inv($"correlation = {d.Correlation.ToString().ToLowerInvariant()}, {d.MissingData.ToString().ToLowerInvariant()}; reference = {d.Reference.ToString().ToLowerInvariant()}, {d.Replicates} replicates, {d.Percentile}th percentile; ") +
-               Inv($"factor rule = {(d.FixedFactors is int k ? $"fixed at {k}" : d.FactorsRule.ToString().ToLowerInvariant())}; extraction = {Outputs.SummaryJson.ExtractionName(f.Factoring.Extraction)}; rotation = {f.Factoring.Rotation.ToString().ToLowerInvariant()}; ") +
-               Inv($"items per scale = {f.ItemsPerScale}; holdout = {f.HoldoutFraction}");
     }
 
     // ---- 2. Screening ----------------------------------------------------------------------------
@@ -198,8 +194,8 @@ public static class AppendixBuilder
     {
         b.Heading(1, "3. Factorability");
         string corr = d.CorrelationKind == CorrelationKind.Polychoric ? "polychoric" : "Pearson";
-        b.Para(Inv($"Analyses use the {corr} correlation matrix of the {r.Analysed.ItemCount} items ") +
-               (r.Settings.Dimensions.MissingData == MissingDataHandling.Pairwise ? "computed from pairwise-complete answers" : "computed from respondents with complete answers") +
+        b.Para(Inv($"The dimension analysis{(r.ShortForm is null ? "" : ", the factor solutions and the item judgements")} use the {corr} correlation matrix of the {r.Analysed.ItemCount} items ") +
+               (d.MissingData == MissingDataHandling.Pairwise ? "computed from pairwise-complete answers" : "computed from respondents with complete answers") +
                Inv($" (effective n = {d.EffectiveRespondents}). ") +
                (d.SmoothingApplied
                    ? Inv($"The matrix was not positive definite and was replaced by the nearest valid correlation matrix (largest change {Fixed(d.Smoothing.MaxAbsoluteChange, 3)}). ")
@@ -362,7 +358,7 @@ public static class AppendixBuilder
     {
         b.Heading(1, "6. Reliability and short form");
         int total = sf.SelectedIndices.Count;
-        b.Para(Inv($"For each scale, items were judged on their loadings, communality and corrected item–total correlation, and the strongest unflagged items were kept, up to {r.Settings.ShortForm.ItemsPerScale} per scale") +
+        b.Para(Inv($"For each scale, items were judged on their loadings, communality and corrected item–total correlation, and the strongest unflagged items were kept: {ScaleLengths(sf)}") +
                (r.Settings.ShortForm.KeepReverseKeyedBalance ? ", keeping reverse-keyed items in roughly their original proportion" : "") +
                Inv($". The short form has {total} items. Cronbach's alpha is reported with a {Percent(r.Settings.ShortForm.Confidence, 0)} confidence interval (Feldt's F-based interval), McDonald's omega total from a one-factor model of each scale, and the correlation between short and full scale scores corrected for the items they share (Levy's correction)."));
         if (sf.HoldoutRespondents > 0)
@@ -393,6 +389,10 @@ public static class AppendixBuilder
         refs.Add(MethodReferences.Levy1967);
     }
 
+    /// <summary>Requested and kept length of every scale, e.g. "comfort 3 of 3 requested, crew 5 of 5 requested".</summary>
+    internal static string ScaleLengths(ShortFormResult sf) =>
+        string.Join(", ", sf.Scales.Select(sc => Inv($"{sc.Scale} {sc.SelectedItems.Count} of {sc.Target} requested")));
+
     // ---- 7. Cautions -------------------------------------------------------------------------------
 
     private static void CautionsSection(Builder b, PipelineResult r)
@@ -407,7 +407,7 @@ public static class AppendixBuilder
             "Follow the requirements of your ethics board and the professional standards of your field for data use, exclusions and test use.",
         ]);
         var warnings = r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
-            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w != ShortFormBuilder.ValidationCaution)).Distinct().ToList();
+            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Select(w => w.Message).Distinct().ToList();
         if (warnings.Count > 0)
         {
             b.Heading(2, "Warnings raised during this run");

@@ -34,7 +34,7 @@ public static class DataCheckReport
             sb.AppendLine(string.Create(ci,
                 $"{it.Item.PadRight(w)}  {(def.Subscale ?? "").PadRight(14)}  {(def.Reverse ? "yes" : "no "),-3}  {scale,-7}  {used,-7}  {it.MissingShare,7:P1}  {it.Mean,5:F2}  {it.StandardDeviation,5:F2}"));
         }
-        foreach (var wmsg in p.Warnings) sb.AppendLine("warning: " + wmsg);
+        if (p.Warnings.Count > 0) sb.AppendLine($"Warnings: {p.Warnings.Count.ToString(ci)} (on stderr)");
         sb.AppendLine();
         sb.AppendLine("The data passed every check.");
         return sb.ToString();

@@ -1,43 +1,48 @@
 using ItemReduce.Core.Pipeline;
+using ItemReduce.IO.Settings;
 
 namespace ItemReduce.IO.Jobs;
 
 /// <summary>
-/// Every setting of a job, one-to-one with the command-line options (and plan-file keys).
-/// Defaults are documented on each property.
+/// Every setting of a job, built from the declared settings (<see cref="SettingsCatalog"/>) by
+/// <see cref="SettingsMapping.ToJob"/>; defaults live in the declarations (and through them in the Core option records),
+/// not here.
 /// </summary>
 public sealed record JobSettings
 {
-    /// <summary>Responses CSV (<c>--responses</c>).</summary>
+    /// <summary>Responses CSV.</summary>
     public required string Responses { get; init; }
 
-    /// <summary>Codebook CSV (<c>--codebook</c>).</summary>
+    /// <summary>Codebook CSV.</summary>
     public required string Codebook { get; init; }
 
-    /// <summary>Plan file the settings came from, if any (<c>--plan</c>).</summary>
+    /// <summary>Plan file the settings came from, if any.</summary>
     public string? Plan { get; init; }
 
-    /// <summary>Output folder (<c>--out</c>); default <c>itemreduce-results</c>.</summary>
-    public string Out { get; init; } = "itemreduce-results";
+    /// <summary>SHA-256 of the plan file as read, if any.</summary>
+    public string? PlanSha256 { get; init; }
 
-    /// <summary>Replace an existing output folder (<c>--force</c>); default false.</summary>
+    /// <summary>Output folder.</summary>
+    public required string Out { get; init; }
+
+    /// <summary>Replace an existing output folder.</summary>
     public bool Force { get; init; }
 
-    /// <summary>Intake settings (<c>--missing</c>, <c>--id-column</c>, <c>--delimiter</c>).</summary>
-    public IntakeOptions Intake { get; init; } = new();
+    /// <summary>Intake settings.</summary>
+    public required IntakeOptions Intake { get; init; }
 
-    /// <summary>Seed for every random step (<c>--seed</c>); default 1.</summary>
-    public ulong Seed { get; init; } = 1;
+    /// <summary>Seed for every random step (the pipeline's).</summary>
+    public ulong Seed => Pipeline.Seed;
 
-    /// <summary>Stage settings (screening, dimensions, factoring, short form). Its seed is set from <see cref="Seed"/>.</summary>
-    public PipelineSettings Pipeline { get; init; } = new();
+    /// <summary>Stage settings (screening, dimensions, factoring, short form, and the shared seed and correlation).</summary>
+    public required PipelineSettings Pipeline { get; init; }
 
-    /// <summary>Skip the PDF appendix (<c>--no-pdf</c>); tables.md and tables.tex are still written.</summary>
+    /// <summary>Skip the PDF appendix; tables.md and tables.tex are still written.</summary>
     public bool NoPdf { get; init; }
 
     /// <summary>Time stamp of the run, printed in the appendix (UTC).</summary>
     public DateTimeOffset StartedUtc { get; init; } = DateTimeOffset.UtcNow;
 
-    /// <summary>The options as given (name → value text), for the reproducibility record.</summary>
-    public IReadOnlyList<KeyValuePair<string, string>> EffectiveOptions { get; init; } = [];
+    /// <summary>The settings as given and in effect, for the reproducibility record.</summary>
+    public required SettingValues Values { get; init; }
 }

@@ -29,8 +29,10 @@ public static class SurveyJob
         catch (AnalysisStoppedException e)
         {
             WaitQuietly(flags);
-            throw new SurveyInputException($"{Path.GetFileName(settings.Responses)}: {e.Message.TrimEnd('.')}. " +
-                "Fix: check the data with 'itemreduce check', or adjust the options of that stage (see --help).");
+            string fix = e.Code == AnalysisStoppedException.TooFewAfterScreening
+                ? "keep the flagged respondents (--keep-flagged) or flag fewer (a smaller --cutoff-p), after reviewing the flags"
+                : "check the data with 'itemreduce check', or adjust the options of that stage (see --help)";
+            throw new SurveyInputException($"{Path.GetFileName(settings.Responses)}: {e.Message.TrimEnd('.')}. Fix: {fix}.");
         }
         catch
         {
@@ -55,6 +57,8 @@ public static class SurveyJob
             Write("map.csv", DimensionTables.Map(d));
             Write("item-factorability.csv", DimensionTables.Msa(result.Analysed.Items.Select(i => i.Name).ToList(), d));
         }
+        if (CorrelationTable.Of(result) is { } corr)
+            Write(CorrelationTable.FileName, CorrelationTable.Write(result.Analysed.Items.Select(i => i.Name).ToList(), corr));
         if (result.ShortForm is { } sf)
         {
             var items = result.Analysed.Items;

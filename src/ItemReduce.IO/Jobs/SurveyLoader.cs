@@ -13,6 +13,7 @@ public static class SurveyLoader
     {
         log.Step($"reading codebook {settings.Codebook}");
         var (codebook, lines) = CodebookReader.Read(settings.Codebook);
+        Settings.SettingsMapping.CheckAgainstCodebook(settings, codebook);
         log.Step($"reading responses {settings.Responses}");
         // The fingerprint is computed on the second core while the (single-threaded) reader parses the file.
         var responsesHash = Task.Run(() => TryFingerprint(settings.Responses));

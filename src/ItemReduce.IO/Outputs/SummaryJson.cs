@@ -6,6 +6,7 @@ using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
 using ItemReduce.IO.Jobs;
+using ItemReduce.IO.Settings;
 using static ItemReduce.IO.JsonOut;
 
 namespace ItemReduce.IO.Outputs;
@@ -16,6 +17,7 @@ public static class SummaryJson
     public static JsonObject Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
     {
         var prepared = r.Prepared;
+        var rows = SettingsRecord.Rows(settings);
         var root = new JsonObject
         {
             ["tool"] = new JsonObject { ["name"] = "itemreduce", ["version"] = SurveyJob.Version },
@@ -28,8 +30,11 @@ public static class SummaryJson
                 ["codebookSha256"] = survey.CodebookSha256,
                 ["idColumn"] = survey.Intake.IdColumn,
                 ["missingCodes"] = Strs(settings.Intake.EffectiveMissingCodes),
+                ["plan"] = settings.Plan is null ? null : Path.GetFileName(settings.Plan),
+                ["planSha256"] = settings.PlanSha256,
             },
-            ["options"] = new JsonObject(settings.EffectiveOptions.Select(kv => KeyValuePair.Create(kv.Key, (JsonNode?)JsonValue.Create(kv.Value)))),
+            ["options"] = new JsonObject(rows.Select(x => KeyValuePair.Create(x.Setting.Name, SettingsRecord.Json(x.Value)))),
+            ["optionsGiven"] = new JsonObject(rows.Where(x => x.Source != "default").Select(x => KeyValuePair.Create(x.Setting.Name, (JsonNode?)x.Source))),
             ["seed"] = settings.Seed,
             ["respondents"] = Respondents(r),
             ["items"] = new JsonObject
@@ -43,16 +48,23 @@ public static class SummaryJson
         };
         if (r.Screening is { } s) root["screening"] = Screening(s);
         root["factors"] = Factors(r);
-        if (r.Dimensions is { } d)
+        if (CorrelationTable.Of(r) is { } used)
         {
             root["correlation"] = new JsonObject
             {
-                ["kind"] = d.CorrelationKind.ToString().ToLowerInvariant(),
-                ["missingData"] = r.Settings.Dimensions.MissingData.ToString().ToLowerInvariant(),
-                ["effectiveRespondents"] = d.EffectiveRespondents,
-                ["smoothed"] = d.SmoothingApplied,
-                ["smoothingMaxChange"] = Num(d.Smoothing.MaxAbsoluteChange),
+                ["kind"] = used.Kind.ToString().ToLowerInvariant(),
+                ["missingData"] = used.MissingData.ToString().ToLowerInvariant(),
+                ["n"] = used.Respondents,
+                ["sampleRespondents"] = used.SampleRespondents,
+                ["stage"] = used.Stage,
+                ["file"] = CorrelationTable.FileName,
+                ["smoothed"] = r.Dimensions?.SmoothingApplied,
+                ["smoothingMaxChange"] = r.Dimensions is { } dd ? Num(dd.Smoothing.MaxAbsoluteChange) : null,
             };
+        }
+        if (r.Dimensions is { } d)
+        {
+            root["effectiveRespondents"] = d.EffectiveRespondents;
             root["eigenvalues"] = Nums(d.Eigenvalues);
             root["parallelThresholds"] = Nums(d.ReferencePercentile);
             root["parallelMeans"] = Nums(d.ReferenceMean);
@@ -72,9 +84,12 @@ public static class SummaryJson
             root["bartlett"] = new JsonObject { ["chi2"] = Num(d.Bartlett.ChiSquare), ["df"] = d.Bartlett.DegreesOfFreedom, ["p"] = Num(d.Bartlett.P) };
         }
         if (r.ShortForm is { } sf) AddShortForm(root, r, sf);
-        var warnings = prepared.Warnings.Concat(r.Warnings)
-            .Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? []).Concat(r.ShortForm?.Warnings ?? []);
-        root["warnings"] = Strs(warnings);
+        root["warnings"] = new JsonArray(RunWarnings.Of(r).Select(w => (JsonNode?)new JsonObject
+        {
+            ["code"] = w.Code,
+            ["stage"] = w.Stage,
+            ["message"] = w.Message,
+        }).ToArray());
         return root;
     }
 
@@ -146,13 +161,7 @@ public static class SummaryJson
         return o;
     }
 
-    internal static string RuleName(RetentionRule rule) => rule switch
-    {
-        RetentionRule.Parallel => "parallel",
-        RetentionRule.Map => "map",
-        RetentionRule.Kaiser => "kaiser",
-        _ => "fixed",
-    };
+    internal static string RuleName(RetentionRule rule) => Settings.SettingsCatalog.RuleName(rule);
 
     private static void AddShortForm(JsonObject root, PipelineResult r, ShortFormResult sf)
     {
@@ -202,10 +211,5 @@ public static class SummaryJson
         };
     }
 
-    internal static string ExtractionName(FactorExtraction e) => e switch
-    {
-        FactorExtraction.MinimumResidual => "minres",
-        FactorExtraction.PrincipalAxis => "paf",
-        _ => "ml",
-    };
+    internal static string ExtractionName(FactorExtraction e) => Settings.SettingsCatalog.ExtractionName(e);
 }

@@ -97,8 +97,8 @@ public class OutputSafetyTests
     {
         using var box = new Sandbox();
         var before = box.Snapshot();
-        AssertRefused(TempSurvey.Cli("run", "--plan", box.Plan, "--out", ""), box, before, "--out is empty");
-        AssertRefused(TempSurvey.Cli("run", "--plan", box.Plan, "--out", "", "--force"), box, before, "--out is empty");
+        AssertRefused(TempSurvey.Cli("run", "--plan", box.Plan, "--out", ""), box, before, "--out", "\"\"", "not allowed");
+        AssertRefused(TempSurvey.Cli("run", "--plan", box.Plan, "--out", "", "--force"), box, before, "--out", "\"\"", "not allowed");
     }
 
     [Fact]

@@ -28,7 +28,7 @@ public class RunCommandTests
         Assert.Contains(("q5", "zero-variance"), excluded);
         Assert.Contains(("q6", "all-missing"), excluded);
         Assert.Equal(4, sum.GetProperty("items").GetProperty("analysed").GetInt32());
-        Assert.Contains(sum.GetProperty("warnings").EnumerateArray(), w => w.GetString()!.Contains("q5"));
+        Assert.Contains(sum.GetProperty("warnings").EnumerateArray(), w => w.GetProperty("message").GetString()!.Contains("q5"));
     }
 
     [Theory]

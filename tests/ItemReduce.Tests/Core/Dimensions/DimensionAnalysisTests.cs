@@ -40,17 +40,17 @@ public class DimensionAnalysisTests
         var res = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100 });
         Assert.Equal(2, res.Retained);
         Assert.InRange(res.EffectiveRespondents, 350, 450); // ≈ 500 · 0.9² pairwise
-        Assert.Contains(res.Warnings, w => w.Contains("effective sample size"));
-        var listwise = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, MissingData = MissingDataHandling.Listwise });
+        Assert.Contains(res.Warnings, w => w.Message.Contains("effective sample size"));
+        var listwise = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, Correlation = new CorrelationOptions { MissingData = MissingDataHandling.Listwise } });
         Assert.Equal(2, listwise.Retained);
-        Assert.Contains(listwise.Warnings, w => w.Contains("Listwise"));
+        Assert.Contains(listwise.Warnings, w => w.Message.Contains("Listwise"));
     }
 
     [Fact]
     public void Polychoric_option_recovers_planted_factors()
     {
         var data = Planted(2, 5, 500, 41);
-        var res = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, Correlation = CorrelationKind.Polychoric });
+        var res = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, Correlation = new CorrelationOptions { Kind = CorrelationKind.Polychoric } });
         Assert.Equal(CorrelationKind.Polychoric, res.CorrelationKind);
         Assert.Equal(2, res.Retained);
         // Polychoric correlations of discretised normal data exceed the attenuated Pearson ones on average.
@@ -79,7 +79,7 @@ public class DimensionAnalysisTests
         Assert.Equal([1, 2, 3, 4], rows.Select(r => r.Component));
         Assert.Equal(res.Retained, rows.Count(r => r.Retained));
         Assert.True(rows.Take(res.Retained).All(r => r.Observed > r.ReferencePercentile));
-        Assert.Contains(KaiserCriterion.Caution, res.Warnings);
+        Assert.Contains(res.Warnings, w => w.Message == KaiserCriterion.Caution);
         Assert.False(string.IsNullOrWhiteSpace(res.Reason));
         Assert.Equal(res.MapCurve.Length, res.MapRevisedCurve.Length);
     }
@@ -119,7 +119,7 @@ public class DimensionAnalysisTests
         Assert.True(res.SmoothingApplied);
         Assert.True(res.Smoothing.MinEigenvalueBefore < 0);
         Assert.True(res.Smoothing.MinEigenvalueAfter > 0);
-        Assert.Contains(res.Warnings, w => w.Contains("not positive definite"));
+        Assert.Contains(res.Warnings, w => w.Message.Contains("not positive definite"));
     }
 
     [Fact]

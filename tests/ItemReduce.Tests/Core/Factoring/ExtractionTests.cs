@@ -136,7 +136,7 @@ public class ExtractionTests
         {
             var s = FactorAnalysis.Fit(r, 500, 1, new FactoringOptions { Extraction = e });
             Assert.Contains(0, s.HeywoodItems);
-            Assert.Contains(s.Warnings, w => w.Contains("Heywood"));
+            Assert.Contains(s.Warnings, w => w.Message.Contains("Heywood"));
         }
     }
 
@@ -155,7 +155,7 @@ public class ExtractionTests
     {
         var s = FactorAnalysis.Fit(R2, 3000, 2, new FactoringOptions { Extraction = FactorExtraction.PrincipalAxis, MaxIterations = 10, Tolerance = 1e-9 });
         Assert.False(s.Converged);
-        Assert.Contains(s.Warnings, w => w.Contains("did not converge"));
+        Assert.Contains(s.Warnings, w => w.Message.Contains("did not converge"));
     }
 
     [Fact]
@@ -176,6 +176,6 @@ public class ExtractionTests
         var s = FactorAnalysis.Fit(r, 300, 2, new FactoringOptions { Extraction = FactorExtraction.MaximumLikelihood });
         Assert.Equal(-1.0, s.Fit!.Df);
         Assert.True(double.IsNaN(s.Fit.Rmsea));
-        Assert.Contains(s.Warnings, w => w.Contains("degrees of freedom"));
+        Assert.Contains(s.Warnings, w => w.Message.Contains("degrees of freedom"));
     }
 }

@@ -139,7 +139,7 @@ public class MahalanobisDistanceTests
         // Three items where x3 = x1 + x2 exactly: the covariance is singular (property, no outside value needed).
         var rows = Enumerable.Range(0, 30).Select(i => { double a = Math.Sin(i), b = Math.Cos(3 * i); return new[] { a, b, a + b }; }).ToArray();
         var r = RespondentScreening.Run(Matrix(rows, 3), new ScreeningOptions());
-        Assert.Contains(r.Warnings, w => w.Contains("not positive definite"));
+        Assert.Contains(r.Warnings, w => w.Message.Contains("not positive definite"));
         Assert.All(r.Respondents, x => Assert.False(double.IsNaN(x.D2)));
     }
 }

@@ -67,7 +67,7 @@ public class RespondentScreeningContractTests
         var r = RespondentScreening.Run(data, new ScreeningOptions());
         Assert.False(r.Robust.Available);
         Assert.Equal("classical", r.DistanceRule);
-        Assert.Contains(r.Warnings, w => w.Contains("classical distance instead"));
+        Assert.Contains(r.Warnings, w => w.Message.Contains("classical distance instead"));
         Assert.All(r.Respondents, x => Assert.True(double.IsNaN(x.RobustD2)));
         Assert.DoesNotContain(r.Respondents, x => x.Reasons.Contains(ScreeningReasons.RobustDistance));
         Assert.Contains(r.Respondents, x => x.Reasons.Contains(ScreeningReasons.MostlyUnanswered));
@@ -117,7 +117,7 @@ public class RespondentScreeningContractTests
         Assert.Equal([ScreeningReasons.MostlyUnanswered], r.Respondents[1].Reasons);
         Assert.False(double.IsNaN(r.Respondents[0].D2));
         Assert.False(r.Robust.Available);
-        Assert.Contains(r.Warnings, w => w.Contains("fewer than 2 respondents answering both"));
+        Assert.Contains(r.Warnings, w => w.Message.Contains("fewer than 2 respondents answering both"));
         Assert.Throws<ArgumentException>(() => RespondentScreening.Run(MahalanobisDistanceTests.Matrix([[1.0, 2]], 2), new ScreeningOptions()));
     }
 

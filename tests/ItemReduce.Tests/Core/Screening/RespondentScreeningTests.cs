@@ -57,7 +57,7 @@ public class RespondentScreeningTests(ITestOutputHelper output)
         Assert.All(straight, i => Assert.Equal(0.0, r.Respondents[i].Irv));
         // Long-string: with 12 items the limit is max(8, 6) = 8; missing answers break runs, so most but not all qualify.
         Assert.True(straight.Count(i => r.Respondents[i].Reasons.Contains(ScreeningReasons.RepeatedAnswerRun)) >= 15);
-        Assert.Contains(r.Warnings, w => w.Contains("Even-odd consistency was not computed"));
+        Assert.Contains(r.Warnings, w => w.Message.Contains("Even-odd consistency was not computed"));
     }
 
     [Fact]

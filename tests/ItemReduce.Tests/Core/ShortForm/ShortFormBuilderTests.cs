@@ -64,7 +64,7 @@ public class ShortFormBuilderTests
         // Each scale keeps its reverse-keyed strong item (q02, q10, q18).
         Assert.Equal(["q02", "q10", "q18"], result.Scales.Select(s => s.SelectedItems.Single(name => data.Items[data.Items.ToList().FindIndex(i => i.Name == name)].Reverse)));
         Assert.NotNull(result.ShortSolution);
-        Assert.Contains(ShortFormBuilder.ValidationCaution, result.Warnings);
+        Assert.Contains(result.Warnings, w => w.Message == ShortFormBuilder.ValidationCaution);
     }
 
     [Fact]

@@ -1,0 +1,36 @@
+using System.Globalization;
+using ItemReduce.Core;
+using ItemReduce.Core.Pipeline;
+
+namespace ItemReduce.IO.Jobs;
+
+/// <summary>All warnings of a run in one order (data, pipeline, screening, dimensions, short form), for the terminal,
+/// summary.json and the appendix alike.</summary>
+public static class RunWarnings
+{
+    /// <summary>Every warning of <paramref name="r"/>.</summary>
+    public static IReadOnlyList<AnalysisWarning> Of(PipelineResult r)
+    {
+        ArgumentNullException.ThrowIfNull(r);
+        return r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
+            .Concat(r.ShortForm?.Warnings ?? []).ToList();
+    }
+}
+
+/// <summary>Warnings as terminal lines: <c>itemreduce: warning 2 of 5 (dimensions): …</c>.</summary>
+public static class WarningLines
+{
+    /// <summary>Writes one numbered line per warning.</summary>
+    public static void Write(TextWriter sink, IReadOnlyList<AnalysisWarning> warnings)
+    {
+        ArgumentNullException.ThrowIfNull(sink);
+        ArgumentNullException.ThrowIfNull(warnings);
+        for (int i = 0; i < warnings.Count; i++)
+            sink.WriteLine(Format(warnings[i], i + 1, warnings.Count));
+        sink.Flush();
+    }
+
+    /// <summary>One line.</summary>
+    public static string Format(AnalysisWarning w, int number, int count) =>
+        string.Create(CultureInfo.InvariantCulture, $"itemreduce: warning {number} of {count} ({w.Stage}, {w.Code}): {w.Message.ReplaceLineEndings(" ")}");
+}

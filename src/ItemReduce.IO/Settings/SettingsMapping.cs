@@ -1,0 +1,134 @@
+using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Data;
+using ItemReduce.Core.Dimensions;
+using ItemReduce.Core.Factoring;
+using ItemReduce.Core.Pipeline;
+using ItemReduce.Core.Screening;
+using ItemReduce.Core.ShortForm;
+using ItemReduce.IO.Jobs;
+
+namespace ItemReduce.IO.Settings;
+
+/// <summary>What the terminal shows.</summary>
+/// <param name="Quiet">No progress and no warnings.</param>
+/// <param name="Progress">Progress even when stderr is not a terminal.</param>
+/// <param name="Verbose">Full details of internal errors.</param>
+public sealed record TerminalSettings(bool Quiet, bool Progress, bool Verbose);
+
+/// <summary>
+/// Gives each setting's value to the record of the stage that reads it. The only place where settings meet the Core
+/// option records; Core never sees a setting name.
+/// </summary>
+public static class SettingsMapping
+{
+    /// <summary>The job settings of <paramref name="v"/>; <paramref name="plan"/> is the plan read, if any.</summary>
+    /// <exception cref="SurveyInputException">No responses or codebook given.</exception>
+    public static JobSettings ToJob(SettingValues v, PlanContents? plan = null)
+    {
+        ArgumentNullException.ThrowIfNull(v);
+        string responses = v.Text("responses")
+            ?? throw new SurveyInputException("no responses file given. Fix: add --responses FILE (or \"responses\" in the plan).");
+        string codebook = v.Text("codebook")
+            ?? throw new SurveyInputException("no codebook given. Fix: add --codebook FILE (or \"codebook\" in the plan).");
+        var defaults = new PipelineSettings();
+        var screening = defaults.Screening with
+        {
+            CutoffP = v.Number("cutoff-p"),
+            UseRobust = v.Text("distance") == "robust",
+            LongStringShare = v.Number("run-share"),
+            FlatVariabilityLimit = v.Number("flat-sd"),
+            MissingShareLimit = v.Number("missing-limit"),
+        };
+        var dimensions = defaults.Dimensions with
+        {
+            Replicates = (int)v.Integer("replicates")!.Value,
+            Percentile = v.Number("percentile"),
+            Reference = v.Text("reference") == "permutation" ? ReferenceKind.Permutation : ReferenceKind.Normal,
+            FactorsRule = v.Text("factors-rule") switch
+            {
+                "map" => RetentionRule.Map,
+                "kaiser" => RetentionRule.Kaiser,
+                _ => RetentionRule.Parallel,
+            },
+            FixedFactors = v.Integer("factors") is ulong k ? (int)k : null,
+            MaxDegreeOfParallelism = v.Integer("threads") is ulong t ? (int)t : -1,
+        };
+        var shortForm = defaults.ShortForm with
+        {
+            Factoring = defaults.ShortForm.Factoring with
+            {
+                Extraction = v.Text("extraction") switch
+                {
+                    "paf" => FactorExtraction.PrincipalAxis,
+                    "ml" => FactorExtraction.MaximumLikelihood,
+                    _ => FactorExtraction.MinimumResidual,
+                },
+                Rotation = v.Text("rotation") switch
+                {
+                    "promax" => FactorRotation.Promax,
+                    "varimax" => FactorRotation.Varimax,
+                    "none" => FactorRotation.None,
+                    _ => FactorRotation.Oblimin,
+                },
+            },
+            ItemsPerScale = (int)v.Integer("items-per-factor")!.Value,
+            ScaleTargets = v["scale-targets"] is IReadOnlyList<KeyValuePair<string, int>> targets
+                ? targets.ToDictionary(kv => kv.Key, kv => kv.Value, StringComparer.Ordinal) : null,
+            HoldoutFraction = v.Number("holdout"),
+        };
+        var pipeline = defaults with
+        {
+            Seed = v.Integer("seed")!.Value,
+            Correlation = new CorrelationOptions
+            {
+                Kind = v.Text("correlation") == "polychoric" ? CorrelationKind.Polychoric : CorrelationKind.Pearson,
+                MissingData = v.Text("missing-data") == "listwise" ? MissingDataHandling.Listwise : MissingDataHandling.Pairwise,
+            },
+            Screening = screening,
+            KeepFlagged = v.Flag("keep-flagged"),
+            Dimensions = dimensions,
+            ShortForm = shortForm,
+        };
+        return new JobSettings
+        {
+            Responses = responses,
+            Codebook = codebook,
+            Plan = plan?.Path ?? v.Text("plan"),
+            PlanSha256 = plan?.Sha256,
+            Out = v.Text("out")!,
+            Force = v.Flag("force"),
+            Intake = new IntakeOptions(Delimiter(v.Text("delimiter")), v.IsGiven("missing") ? (IReadOnlyList<string>)v["missing"]! : null, v.Text("id-column")),
+            Pipeline = pipeline,
+            NoPdf = v.Flag("no-pdf"),
+            Values = v,
+        };
+    }
+
+    /// <summary>The terminal settings of <paramref name="v"/>.</summary>
+    public static TerminalSettings ToTerminal(SettingValues v) => new(v.Flag("quiet"), v.Flag("progress"), v.Flag("verbose"));
+
+    private static char? Delimiter(string? name) => name switch
+    {
+        "comma" => ',',
+        "semicolon" => ';',
+        "tab" => '\t',
+        _ => null,
+    };
+
+    /// <summary>Checks the settings that need the codebook (before any response is read): every
+    /// <c>scale-targets</c> name must be a codebook subscale, and a fixed factor count must be below the number of items.</summary>
+    /// <exception cref="SurveyInputException">A target names no subscale of the codebook, or too many factors.</exception>
+    public static void CheckAgainstCodebook(JobSettings job, Codebook codebook)
+    {
+        ArgumentNullException.ThrowIfNull(job);
+        ArgumentNullException.ThrowIfNull(codebook);
+        if (job.Values.IsGiven("factors") && job.Pipeline.Dimensions.FixedFactors is int k && k >= codebook.Count)
+            throw SettingErrors.NotAllowed(job.Values.SourceOf("factors"), InputErrors.Show(k.ToString(System.Globalization.CultureInfo.InvariantCulture)),
+                $"a whole number from 1 to {(codebook.Count - 1).ToString(System.Globalization.CultureInfo.InvariantCulture)} (fewer factors than the codebook's {codebook.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)} items)");
+        if (job.Pipeline.ShortForm.ScaleTargets is not { } targets || !job.Values.IsGiven("scale-targets")) return;
+        var subscales = codebook.Subscales;
+        foreach (string name in targets.Keys)
+            if (!subscales.Contains(name))
+                throw SettingErrors.UnknownSubscale(job.Values.SourceOf("scale-targets"), name, subscales, Path.GetFileName(job.Codebook));
+    }
+}
