@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using System.Text;
 
 namespace ItemReduce.IO;
@@ -69,8 +70,10 @@ internal sealed class SurveyTextReader : TextReader
 
     public override int Read() => Fill() ? _chars[_charPos++] : -1;
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override int Read(char[] buffer, int index, int count) => Read(buffer.AsSpan(index, count));
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override int Read(Span<char> buffer)
     {
         if (buffer.Length == 0 || !Fill()) return 0;
@@ -103,6 +106,7 @@ internal sealed class SurveyTextReader : TextReader
     }
 
     /// <summary>Makes characters available; false at the end of the file; throws a pending error when reached.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private bool Fill()
     {
         while (_charPos >= _charLen)
@@ -114,6 +118,7 @@ internal sealed class SurveyTextReader : TextReader
         return true;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void DecodeBlock()
     {
         if (!_eof)
@@ -152,35 +157,48 @@ internal sealed class SurveyTextReader : TextReader
         ScanLines();
     }
 
-    /// <summary>Counts line breaks in the freshly decoded characters and cuts them at an over-long line.</summary>
+    /// <summary>Counts line breaks in the freshly decoded characters and cuts them at an over-long line. A block holds
+    /// fewer characters than <see cref="MaxLineChars"/>, so only the line running in from earlier blocks (the block's
+    /// first segment) can exceed it; the rest is counted with vectorised passes.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void ScanLines()
     {
         var span = _chars.AsSpan(0, _charLen);
-        int i = 0;
-        while (i < span.Length)
+        if (span.Length == 0) return;
+        int first = span.IndexOfAny('\n', '\r');
+        int firstSegment = first < 0 ? span.Length : first;
+        if (_lineLength + firstSegment > MaxLineChars)
         {
-            int k = span[i..].IndexOfAny('\n', '\r');
-            int segment = k < 0 ? span.Length - i : k;
-            if (segment > 0) _lastWasCr = false;
-            if (_lineLength + segment > MaxLineChars)
-            {
-                _charLen = i + (MaxLineChars - _lineLength);
-                _pending ??= InputErrors.At(_path, _line, null,
-                    $"the line is longer than {MaxLineChars.ToString("N0", CultureInfo.InvariantCulture)} characters",
-                    "check that this is a CSV file with one respondent per line and no runaway quoted field");
-                _carry = 0;
-                _eof = true;
-                return;
-            }
-            _lineLength += segment;
-            if (k < 0) return;
-            int at = i + k;
-            if (span[at] == '\r') { _line++; _lastWasCr = true; }
-            else if (_lastWasCr) _lastWasCr = false; // the \n of \r\n
-            else _line++;
-            _lineLength = 0;
-            i = at + 1;
+            _charLen = MaxLineChars - _lineLength;
+            _pending ??= InputErrors.At(_path, _line, null,
+                $"the line is longer than {MaxLineChars.ToString("N0", CultureInfo.InvariantCulture)} characters",
+                "check that this is a CSV file with one respondent per line and no runaway quoted field");
+            _carry = 0;
+            _eof = true;
+            return;
         }
+        if (first < 0)
+        {
+            _lineLength += span.Length;
+            _lastWasCr = false;
+            return;
+        }
+        // Lines end at \n, \r\n or a lone \r: count both characters, then take back each \r\n pair once.
+        int lf = span.Count('\n'), cr = span.Count('\r');
+        int pairs = 0;
+        if (_lastWasCr && span[0] == '\n') pairs++; // the pair straddles the blocks; its \r was counted before
+        if (cr > 0)
+        {
+            for (int at = span.IndexOf("\r\n"); at >= 0;)
+            {
+                pairs++;
+                int next = span[(at + 2)..].IndexOf("\r\n");
+                at = next < 0 ? -1 : at + 2 + next;
+            }
+        }
+        _line += lf + cr - pairs;
+        _lineLength = span.Length - 1 - span.LastIndexOfAny('\n', '\r');
+        _lastWasCr = span[^1] == '\r';
     }
 
     /// <summary>Length of the prefix that holds whole characters (the rest waits for the next block).</summary>
