@@ -12,8 +12,19 @@ namespace ItemReduce.Tests.Cli;
 /// </summary>
 public class BoundedInputTests
 {
+    /// <summary>Path → SHA-256 of every file in the survey's folder.</summary>
+    private static Dictionary<string, string> Snapshot(TempSurvey t) =>
+        Directory.GetFiles(t.Folder, "*", SearchOption.AllDirectories)
+            .ToDictionary(f => f, Hash);
+
     private static void AssertInputError(TempSurvey t, (int Code, string Out, string Err) r, params string[] mention)
     {
+        AssertInputError(t, null, r, mention);
+    }
+
+    private static void AssertInputError(TempSurvey t, Dictionary<string, string>? before, (int Code, string Out, string Err) r, params string[] mention)
+    {
+        if (before is not null) Assert.Equal(before, Snapshot(t)); // inputs byte-identical afterwards
         Assert.True(r.Code == 2, $"exit {r.Code}: {r.Err}");
         Assert.Single(r.Err.TrimEnd('\n').Split('\n'));
         Assert.DoesNotContain("   at ", r.Err);
@@ -29,9 +40,10 @@ public class BoundedInputTests
     {
         if (!File.Exists("/dev/zero")) return;
         using var t = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(30));
-        AssertInputError(t, TempSurvey.Cli("run", "--responses", "/dev/zero", "--codebook", t.Codebook, "--out", t.Out), "zero", "not a regular file");
-        AssertInputError(t, TempSurvey.Cli("run", "--responses", t.Responses, "--codebook", "/dev/zero", "--out", t.Out), "zero", "not a regular file");
-        AssertInputError(t, TempSurvey.Cli("run", "--plan", "/dev/zero", "--out", t.Out), "zero", "not a regular file");
+        var before = Snapshot(t);
+        AssertInputError(t, before, TempSurvey.Cli("run", "--responses", "/dev/zero", "--codebook", t.Codebook, "--out", t.Out), "zero", "not a regular file");
+        AssertInputError(t, before, TempSurvey.Cli("run", "--responses", t.Responses, "--codebook", "/dev/zero", "--out", t.Out), "zero", "not a regular file");
+        AssertInputError(t, before, TempSurvey.Cli("run", "--plan", "/dev/zero", "--out", t.Out), "zero", "not a regular file");
     }
 
     [Fact]
@@ -80,7 +92,8 @@ public class BoundedInputTests
         var lines = TempSurvey.ValidResponses(30).Split('\n');
         lines[3] = "x" + new string('7', 50_000_000) + lines[3][lines[3].IndexOf(',')..];
         t.WithResponses(string.Join('\n', lines));
-        AssertInputError(t, t.Run(), "responses.csv", "line 4", "longer than 1,048,576 characters");
+        var before = Snapshot(t);
+        AssertInputError(t, before, t.Run(), "responses.csv", "line 4", "longer than 1,048,576 characters");
     }
 
     [Fact]
@@ -90,7 +103,8 @@ public class BoundedInputTests
         var sb = new StringBuilder(TempSurvey.ValidResponses(10)).Append("\"open quote never closed\n");
         for (int i = 0; i < 200_000; i++) sb.Append("short line ").Append(i).Append('\n');
         t.WithResponses(sb.ToString());
-        AssertInputError(t, t.Run(), "responses.csv", "line 12", "field is longer than");
+        var before = Snapshot(t);
+        AssertInputError(t, before, t.Run(), "responses.csv", "line 12", "field is longer than");
     }
 
     [Fact]
@@ -101,6 +115,7 @@ public class BoundedInputTests
         for (int c = 0; c < 100_000; c++) sb.Append(",c").Append(c);
         sb.Append('\n');
         t.WithResponses(sb.ToString() + "id1,1,2,3,4" + string.Concat(Enumerable.Repeat(",0", 100_000)) + "\n");
-        AssertInputError(t, t.Run(), "responses.csv", "line 1", "100,005 fields", "at most 10,000");
+        var before = Snapshot(t);
+        AssertInputError(t, before, t.Run(), "responses.csv", "line 1", "100,005 fields", "at most 10,000");
     }
 }
