@@ -54,10 +54,18 @@ public static class DimensionAnalysis
         var reference = Reference(data, options, nEff, progress);
         var map = VelicerMap.Compute(r);
         int kaiser = KaiserCriterion.Count(eigen);
+        var ekcReference = EmpiricalKaiserCriterion.References(eigen, nEff);
+        var comparison = p >= 3 ? Dimensions.ComparisonData.Run(r, eigen, nEff, ToComparisonOptions(options)) : null;
         var counts = new RuleCounts(
             ParallelAnalysis.RetainedCount(eigen, reference.Percentile),
             reducedEigen is null || reference.ReducedPercentile is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedPercentile),
-            map.Count, map.RevisedCount, kaiser);
+            map.Count, map.RevisedCount, kaiser,
+            ParallelAnalysis.RetainedCount(eigen, ekcReference),
+            comparison?.Count)
+        {
+            ParallelMean = ParallelAnalysis.RetainedCount(eigen, reference.Mean),
+            ParallelReducedMean = reducedEigen is null || reference.ReducedMean is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedMean),
+        };
         var kmo = KaiserMeyerOlkin.Compute(r);
         var bartlett = BartlettSphericityTest.Compute(r, nEff);
 
@@ -81,6 +89,8 @@ public static class DimensionAnalysis
             Kmo = kmo.Overall,
             Msa = kmo.PerItem,
             Bartlett = bartlett,
+            EmpiricalKaiserReferences = ekcReference,
+            ComparisonData = comparison,
             MapCurve = map.Curve,
             MapRevisedCurve = map.RevisedCurve,
             Warnings = warnings,
@@ -106,6 +116,15 @@ public static class DimensionAnalysis
         Reference = o.Reference,
         Seed = o.Seed,
         IncludeReducedMatrix = o.IncludeReducedMatrix,
+        MaxDegreeOfParallelism = o.MaxDegreeOfParallelism,
+    };
+
+    /// <summary>Comparison-data settings: samples per population = a quarter of the parallel-analysis replicates
+    /// (at least 20), so the default 1000 gives 250; same seed and thread cap.</summary>
+    internal static ComparisonDataOptions ToComparisonOptions(DimensionOptions o) => new()
+    {
+        Samples = Math.Max(20, o.Replicates / 4),
+        Seed = o.Seed,
         MaxDegreeOfParallelism = o.MaxDegreeOfParallelism,
     };
 
@@ -173,6 +192,10 @@ public static class DimensionAnalysis
         {
             RetentionRule.Map => (c.Map, RetentionRule.Map, string.Create(ci,
                 $"{Count(c.Map)} kept because the average squared partial correlation between items is lowest once {c.Map} component{(c.Map == 1 ? " is" : "s are")} removed (minimum average partial test).")),
+            RetentionRule.EmpiricalKaiser => (c.EmpiricalKaiser, RetentionRule.EmpiricalKaiser, string.Create(ci,
+                $"{Count(c.EmpiricalKaiser)} kept because {(c.EmpiricalKaiser == 1 ? "the first eigenvalue is" : $"the first {c.EmpiricalKaiser} eigenvalues are")} above the reference that random data of this size would reach after the larger ones (empirical Kaiser criterion).")),
+            RetentionRule.ComparisonData when c.ComparisonData is int cd => (cd, RetentionRule.ComparisonData, string.Create(ci,
+                $"{Count(cd)} kept because simulated data with {cd + 1} factor{(cd + 1 == 1 ? "" : "s")} did not reproduce the observed eigenvalues significantly better than data with {cd} (comparison data).")),
             RetentionRule.Kaiser => (c.Kaiser, RetentionRule.Kaiser, string.Create(ci,
                 $"{Count(c.Kaiser)} kept because {c.Kaiser} eigenvalue{(c.Kaiser == 1 ? " is" : "s are")} above 1; this rule tends to keep too many.")),
             _ => (c.Parallel, RetentionRule.Parallel, string.Create(ci,

@@ -20,6 +20,10 @@ public enum RetentionRule
     Map,
     /// <summary>Eigenvalue above 1 (Kaiser, 1960); not recommended, available for comparison.</summary>
     Kaiser,
+    /// <summary>Comparison data (Ruscio &amp; Roche, 2012), see <see cref="Dimensions.ComparisonData"/>.</summary>
+    ComparisonData,
+    /// <summary>Empirical Kaiser criterion (Braeken &amp; van Assen, 2017), see <see cref="EmpiricalKaiserCriterion"/>.</summary>
+    EmpiricalKaiser,
     /// <summary>Result only: the count was fixed by <see cref="DimensionOptions.FixedFactors"/>. Not a valid option value.</summary>
     Fixed,
 }
