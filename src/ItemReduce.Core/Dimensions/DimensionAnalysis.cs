@@ -179,6 +179,8 @@ public static class DimensionAnalysis
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
             return ParallelAnalysis.PermutationReference(data, d => Correlate(d, o, 1), po);
+        if (o.Reference == ReferenceKind.Ordinal)
+            return ParallelAnalysis.OrdinalReference(nEff, PolychoricNullDistribution.InformationFactors(data), po);
         return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);
     }
 
@@ -187,7 +189,12 @@ public static class DimensionAnalysis
         var ci = CultureInfo.InvariantCulture;
         if (o.FixedFactors is int k)
             return (k, RetentionRule.Fixed, string.Create(ci, $"The number of dimensions was set to {k} in the settings; the rules below are shown for comparison."));
-        string source = reference.Kind == ReferenceKind.Permutation ? "copies of the data with each item shuffled separately" : "sets of uncorrelated normal data of the same size";
+        string source = reference.Kind switch
+        {
+            ReferenceKind.Permutation => "copies of the data with each item shuffled separately",
+            ReferenceKind.Ordinal => "sets of polychoric correlations of unrelated items with the observed answer distributions",
+            _ => "sets of uncorrelated normal data of the same size",
+        };
         return o.FactorsRule switch
         {
             RetentionRule.Map => (c.Map, RetentionRule.Map, string.Create(ci,
@@ -230,6 +237,8 @@ public static class DimensionAnalysis
         if (b.P > 0.05)
             w.Add(string.Create(ci, $"Bartlett's test does not reject uncorrelated items (p = {b.P:G3}); the correlations may be too weak to analyse."));
         if (o.Correlation == CorrelationKind.Polychoric && o.Reference == ReferenceKind.Normal)
-            w.Add("Polychoric correlations are compared with a normal-data reference; a permutation reference keeps the items' own category distributions.");
+            w.Add("Polychoric correlations are compared with a normal-data reference, which tends to suggest too many dimensions with skewed items; the ordinal reference (the default for polychoric correlations) keeps the items' own category distributions.");
+        if (o.Correlation == CorrelationKind.Pearson && o.Reference == ReferenceKind.Ordinal)
+            w.Add("The ordinal reference describes polychoric correlations; with Pearson correlations the normal reference is the matching one.");
     }
 }
