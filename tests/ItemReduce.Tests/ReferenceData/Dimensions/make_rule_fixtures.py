@@ -1,0 +1,108 @@
+#!/usr/bin/python3
+"""Reference values for the number-of-dimensions rules added with comparison data and the empirical Kaiser
+criterion. Independent numpy/scipy computations; run with Debian's interpreter:
+    /usr/bin/python3 make_rule_fixtures.py
+(python3-numpy 1.24, python3-scipy 1.10).
+
+Writes
+  ekc_cases.csv          case,n,eigenvalues(';'),references(';'),count: empirical Kaiser criterion
+                         (Braeken & van Assen 2017, eq. for l_j) computed with numpy from eigvalsh of random
+                         correlation matrices (default_rng(14)), and of the iris correlation matrix (n = 150).
+  mann_whitney_cases.csv case,x(';'),y(';'),p_less: scipy.stats.mannwhitneyu(x, y, alternative='less',
+                         method='asymptotic', use_continuity=True) on random samples, some with ties.
+  polychoric_information.csv counts(';'),info: Fisher information per respondent for the polychoric
+                         correlation at rho = 0, computed NUMERICALLY: cell probabilities from
+                         scipy.stats.multivariate_normal.cdf at rho = +-h, central differences,
+                         sum (dpi/drho)^2 / pi over the table of an item with itself-like marginals
+                         (row and column marginals both = counts), then the square root (= I_j of the code).
+  wishart_sigma_eigen.csv component,mean,p95: eigenvalues of sample correlation matrices of n = 60 normal
+                         observations from N(0, Sigma) (Sigma below), 20,000 brute-force replicates
+                         (default_rng(1414)); 95th percentile by numpy's default (linear, type 7).
+  wishart_sigma.csv      that Sigma (5 x 5).
+"""
+import numpy as np
+from scipy import stats
+
+rng = np.random.default_rng(14)
+
+
+def fmt(v):
+    return ";".join(repr(float(x)) for x in v)
+
+
+def ekc(eig, n):
+    p = len(eig)
+    edge = (1 + np.sqrt(p / n)) ** 2
+    ref = np.empty(p)
+    for j in range(p):
+        ref[j] = max(edge * (p - eig[:j].sum()) / (p - j), 1.0)
+    c = 0
+    while c < p and eig[c] > ref[c]:
+        c += 1
+    return ref, c
+
+
+def random_corr(p, k):
+    lam = rng.uniform(0.3, 0.8, (p, k)) * (rng.random((p, k)) < 0.5)
+    x = rng.standard_normal((400, k)) @ lam.T + rng.standard_normal((400, p))
+    return np.corrcoef(x, rowvar=False)
+
+
+with open("ekc_cases.csv", "w") as f:
+    f.write("case,n,eigenvalues,references,count\n")
+    cases = [(random_corr(8, 2), 150), (random_corr(12, 3), 400), (random_corr(20, 4), 90), (random_corr(6, 1), 1000)]
+    iris = np.loadtxt("iris_correlation.csv", delimiter=",")
+    cases.append((iris, 150))
+    for i, (r, n) in enumerate(cases):
+        eig = np.sort(np.linalg.eigvalsh(r))[::-1]
+        ref, c = ekc(eig, n)
+        f.write(f"{i},{n},{fmt(eig)},{fmt(ref)},{c}\n")
+
+with open("mann_whitney_cases.csv", "w") as f:
+    f.write("case,x,y,p_less\n")
+    for i in range(6):
+        m1, m2 = [(30, 30), (250, 250), (12, 20), (100, 80), (40, 40), (250, 250)][i]
+        shift = [0.3, 0.05, -0.2, 0.0, 0.5, 0.0][i]
+        x = rng.standard_normal(m1) + shift
+        y = rng.standard_normal(m2)
+        if i == 4:  # ties
+            x = np.round(x, 0)
+            y = np.round(y, 0)
+        p = stats.mannwhitneyu(x, y, alternative="less", method="asymptotic", use_continuity=True).pvalue
+        f.write(f"{i},{fmt(x)},{fmt(y)},{repr(float(p))}\n")
+
+with open("polychoric_information.csv", "w") as f:
+    f.write("counts,info\n")
+    h = 1e-4
+    for counts in [[10, 20, 40, 20, 10], [5, 10, 20, 30, 35], [50, 50], [3, 7, 15, 25, 50, 100], [30, 5, 60, 5]]:
+        counts = np.array(counts, float)
+        P = counts / counts.sum()
+        tau = np.concatenate([[-np.inf], stats.norm.ppf(np.cumsum(P)[:-1]), [np.inf]])
+        tau_f = np.clip(tau, -10, 10)
+
+        def cell_probs(rho):
+            mvn = stats.multivariate_normal(mean=[0, 0], cov=[[1, rho], [rho, 1]])
+            G = np.zeros((len(tau), len(tau)))
+            for i1, a in enumerate(tau_f):
+                for j1, b in enumerate(tau_f):
+                    G[i1, j1] = mvn.cdf([a, b])
+            return G[1:, 1:] - G[:-1, 1:] - G[1:, :-1] + G[:-1, :-1]
+
+        dpi = (cell_probs(h) - cell_probs(-h)) / (2 * h)
+        pi0 = np.outer(P, P)
+        info = (dpi ** 2 / pi0).sum()
+        f.write(f"{fmt(counts.astype(int))},{repr(float(np.sqrt(info)))}\n")
+
+sigma = np.array([[1, .5, .4, .1, 0], [.5, 1, .45, .1, .05], [.4, .45, 1, 0, .1], [.1, .1, 0, 1, .35], [0, .05, .1, .35, 1]])
+rng2 = np.random.default_rng(1414)
+chol = np.linalg.cholesky(sigma)
+reps, n = 20000, 60
+eigs = np.empty((reps, 5))
+for r in range(reps):
+    x = rng2.standard_normal((n, 5)) @ chol.T
+    eigs[r] = np.sort(np.linalg.eigvalsh(np.corrcoef(x, rowvar=False)))[::-1]
+np.savetxt("wishart_sigma.csv", sigma, delimiter=",", fmt="%r")
+with open("wishart_sigma_eigen.csv", "w") as f:
+    f.write("component,mean,p95\n")
+    for c in range(5):
+        f.write(f"{c + 1},{repr(float(eigs[:, c].mean()))},{repr(float(np.percentile(eigs[:, c], 95)))}\n")
