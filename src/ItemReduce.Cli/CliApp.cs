@@ -142,16 +142,24 @@ public static class CliApp
         if (factors is < 1) throw BadOption("--factors", factors.Value.ToString(CultureInfo.InvariantCulture), "a whole number of at least 1");
         int? threads = pr.GetValue(o.Threads);
         if (threads is < 1) throw BadOption("--threads", threads.Value.ToString(CultureInfo.InvariantCulture), "a whole number of at least 1");
+        var correlation = Choice(pr.GetValue(o.Correlation), "--correlation", ["pearson", "polychoric"], "pearson") == "polychoric" ? CorrelationKind.Polychoric : CorrelationKind.Pearson;
         var dimensions = new DimensionOptions
         {
-            Correlation = Choice(pr.GetValue(o.Correlation), "--correlation", ["pearson", "polychoric"], "pearson") == "polychoric" ? CorrelationKind.Polychoric : CorrelationKind.Pearson,
+            Correlation = correlation,
             MissingData = Choice(pr.GetValue(o.MissingData), "--missing-data", ["pairwise", "listwise"], "pairwise") == "listwise" ? MissingDataHandling.Listwise : MissingDataHandling.Pairwise,
             Replicates = (int)Range(pr.GetValue(o.Replicates), "--replicates", 10, 1_000_000, 1000, "a whole number from 10 to 1000000"),
             Percentile = Range(pr.GetValue(o.Percentile), "--percentile", 50, 99.9, 95, "a percentile from 50 to 99.9"),
-            Reference = Choice(pr.GetValue(o.Reference), "--reference", ["normal", "permutation"], "normal") == "permutation" ? ReferenceKind.Permutation : ReferenceKind.Normal,
-            FactorsRule = Choice(pr.GetValue(o.FactorsRule), "--factors-rule", ["parallel", "map", "kaiser"], "parallel") switch
+            Reference = Choice(pr.GetValue(o.Reference), "--reference", ["normal", "ordinal", "permutation"], correlation == CorrelationKind.Polychoric ? "ordinal" : "normal") switch
+            {
+                "permutation" => ReferenceKind.Permutation,
+                "ordinal" => ReferenceKind.Ordinal,
+                _ => ReferenceKind.Normal,
+            },
+            FactorsRule = Choice(pr.GetValue(o.FactorsRule), "--factors-rule", ["parallel", "map", "kaiser", "empirical-kaiser", "comparison-data"], "parallel") switch
             {
                 "map" => RetentionRule.Map,
+                "empirical-kaiser" => RetentionRule.EmpiricalKaiser,
+                "comparison-data" => RetentionRule.ComparisonData,
                 "kaiser" => RetentionRule.Kaiser,
                 _ => RetentionRule.Parallel,
             },

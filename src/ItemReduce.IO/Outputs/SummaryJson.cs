@@ -133,6 +133,10 @@ public static class SummaryJson
                 ["map"] = d.ByRule.Map,
                 ["mapRevised"] = d.ByRule.MapRevised,
                 ["kaiser"] = d.ByRule.Kaiser,
+                ["parallelMean"] = d.ByRule.ParallelMean,
+                ["parallelReducedMean"] = d.ByRule.ParallelReducedMean,
+                ["empiricalKaiser"] = d.ByRule.EmpiricalKaiser,
+                ["comparisonData"] = d.ByRule.ComparisonData,
             };
             o["indicated"] = d.Retained;
             o["rule"] = RuleName(d.RuleUsed);
@@ -151,6 +155,8 @@ public static class SummaryJson
         RetentionRule.Parallel => "parallel",
         RetentionRule.Map => "map",
         RetentionRule.Kaiser => "kaiser",
+        RetentionRule.EmpiricalKaiser => "empirical-kaiser",
+        RetentionRule.ComparisonData => "comparison-data",
         _ => "fixed",
     };
 
