@@ -15,6 +15,7 @@ using ItemReduce.Simulation;
 // "ordinal": checks of the ordinal references (see OrdinalCheck).
 // Results do not depend on the number of threads: every data set has its own seed.
 string mode = args.Length > 0 ? args[0] : "";
+if (mode == "timing") { ItemReduce.DimensionStudy.Timing.Run(); return 0; }
 if (mode is not ("grid" or "ordinal") || args.Length < 2)
 {
     Console.Error.WriteLine("usage: ItemReduce.DimensionStudy grid|ordinal OUT_DIR [sets-per-cell] [replicates] [seed]");

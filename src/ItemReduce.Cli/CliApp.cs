@@ -155,13 +155,14 @@ public static class CliApp
                 "ordinal" => ReferenceKind.Ordinal,
                 _ => ReferenceKind.Normal,
             },
-            FactorsRule = Choice(pr.GetValue(o.FactorsRule), "--factors-rule", ["parallel", "map", "kaiser", "empirical-kaiser", "comparison-data"], "parallel") switch
+            FactorsRule = Choice(pr.GetValue(o.FactorsRule), "--factors-rule", ["parallel-reduced", "parallel", "map", "kaiser", "empirical-kaiser", "comparison-data"], "parallel-reduced") switch
             {
+                "parallel" => RetentionRule.Parallel,
                 "map" => RetentionRule.Map,
                 "empirical-kaiser" => RetentionRule.EmpiricalKaiser,
                 "comparison-data" => RetentionRule.ComparisonData,
                 "kaiser" => RetentionRule.Kaiser,
-                _ => RetentionRule.Parallel,
+                _ => RetentionRule.ParallelReduced,
             },
             FixedFactors = factors,
             MaxDegreeOfParallelism = threads ?? -1,

@@ -101,7 +101,11 @@ public static class DimensionAnalysis
     {
         if (data.ItemCount < 2) throw new ArgumentException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
         if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
-            throw new ArgumentException($"FactorsRule must be Parallel, Map or Kaiser, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser or ComparisonData, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+        if (o.FactorsRule == RetentionRule.ParallelReduced && !o.IncludeReducedMatrix)
+            throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
+        if (o.FactorsRule == RetentionRule.ComparisonData && data.ItemCount < 3)
+            throw new ArgumentException($"Comparison data needs at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
         if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
             throw new ArgumentException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o.FixedFactors));
         if (!(o.EigenvalueFloor > 0 && o.EigenvalueFloor <= 0.5))
@@ -199,6 +203,8 @@ public static class DimensionAnalysis
         {
             RetentionRule.Map => (c.Map, RetentionRule.Map, string.Create(ci,
                 $"{Count(c.Map)} kept because the average squared partial correlation between items is lowest once {c.Map} component{(c.Map == 1 ? " is" : "s are")} removed (minimum average partial test).")),
+            RetentionRule.ParallelReduced when c.ParallelReduced is int pr => (pr, RetentionRule.ParallelReduced, string.Create(ci,
+                $"{Count(pr)} kept because {(pr == 1 ? "the first eigenvalue" : $"the first {pr} eigenvalues")} of the reduced correlation matrix (squared multiple correlations on the diagonal, the common-factor version of parallel analysis) {(pr == 1 ? "is" : "are")} larger than the {Ordinal(reference.PercentileLevel)} percentile of the same eigenvalues in {reference.Replicates} {source}.")),
             RetentionRule.EmpiricalKaiser => (c.EmpiricalKaiser, RetentionRule.EmpiricalKaiser, string.Create(ci,
                 $"{Count(c.EmpiricalKaiser)} kept because {(c.EmpiricalKaiser == 1 ? "the first eigenvalue is" : $"the first {c.EmpiricalKaiser} eigenvalues are")} above the reference that random data of this size would reach after the larger ones (empirical Kaiser criterion).")),
             RetentionRule.ComparisonData when c.ComparisonData is int cd => (cd, RetentionRule.ComparisonData, string.Create(ci,
@@ -225,10 +231,16 @@ public static class DimensionAnalysis
     {
         var ci = CultureInfo.InvariantCulture;
         w.Add(KaiserCriterion.Caution);
-        if (c.Parallel == 0)
+        if (c.Parallel == 0 && (c.ParallelReduced ?? 0) == 0)
             w.Add("No component stands out from random data in parallel analysis: the items may not share a common dimension.");
-        if (c.Parallel != c.Map)
-            w.Add(string.Create(ci, $"The rules disagree (parallel analysis {c.Parallel}, MAP {c.Map}); consider inspecting solutions with each count before deciding."));
+        var shown = new List<(string Name, int? Count)>
+        {
+            ("reduced-matrix parallel analysis", c.ParallelReduced), ("principal-component parallel analysis", c.Parallel),
+            ("comparison data", c.ComparisonData), ("empirical Kaiser criterion", c.EmpiricalKaiser), ("MAP", c.Map),
+        };
+        if (shown.Where(x => x.Count is not null).Select(x => x.Count).Distinct().Count() > 1)
+            w.Add("The rules disagree (" + string.Join(", ", shown.Where(x => x.Count is not null).Select(x => string.Create(ci, $"{x.Name} {x.Count}"))) +
+                  "); consider inspecting solutions with each count before deciding.");
         if (kmo.Overall < 0.6)
             w.Add(string.Create(ci, $"The overall KMO is {kmo.Overall:F2}; values below about 0.6 suggest the items share too little variance for a factor analysis to be informative (Kaiser, 1974)."));
         var low = Enumerable.Range(0, kmo.PerItem.Length).Where(j => kmo.PerItem[j] < 0.5).Select(j => data.Items[j].Name).ToList();

@@ -14,8 +14,12 @@ public enum CorrelationKind
 /// <summary>Rule that decides how many dimensions to retain.</summary>
 public enum RetentionRule
 {
-    /// <summary>Parallel analysis on the full correlation matrix (default).</summary>
+    /// <summary>Parallel analysis on the full correlation matrix (principal components), 95th-percentile reference.</summary>
     Parallel,
+    /// <summary>Parallel analysis on the reduced (SMC-diagonal) matrix (common factors), 95th-percentile reference;
+    /// default, chosen by the project's simulation study (<see cref="RetentionStudyAccuracy"/>). Needs
+    /// <see cref="DimensionOptions.IncludeReducedMatrix"/>.</summary>
+    ParallelReduced,
     /// <summary>Velicer's minimum average partial test (squared partials).</summary>
     Map,
     /// <summary>Eigenvalue above 1 (Kaiser, 1960); not recommended, available for comparison.</summary>
@@ -49,9 +53,9 @@ public sealed record DimensionOptions
     /// <summary>Seed of every random step; default 1.</summary>
     public ulong Seed { get; init; } = 1;
 
-    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.Parallel"/>.
+    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.ParallelReduced"/>.
     /// <see cref="RetentionRule.Fixed"/> is not allowed here (use <see cref="FixedFactors"/>).</summary>
-    public RetentionRule FactorsRule { get; init; } = RetentionRule.Parallel;
+    public RetentionRule FactorsRule { get; init; } = RetentionRule.ParallelReduced;
 
     /// <summary>When set, retain exactly this many dimensions (1..p) whatever the rules say; default null.</summary>
     public int? FixedFactors { get; init; }

@@ -153,6 +153,7 @@ public static class SummaryJson
     internal static string RuleName(RetentionRule rule) => rule switch
     {
         RetentionRule.Parallel => "parallel",
+        RetentionRule.ParallelReduced => "parallel-reduced",
         RetentionRule.Map => "map",
         RetentionRule.Kaiser => "kaiser",
         RetentionRule.EmpiricalKaiser => "empirical-kaiser",
