@@ -227,11 +227,11 @@ public static class AppendixBuilder
             ReferenceKind.Permutation => "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)" +
               (pa.Subsampled ? Inv($"; to keep the cost independent of the sample size, every shuffled data set was built from the same seeded random subsample of {pa.PermutedRespondents} of the {r.Analysed.RespondentCount} respondents, which makes the reference somewhat conservative") : ""),
             ReferenceKind.Ordinal => Inv($"sets of polychoric correlations of unrelated ordinal items with the observed answer distributions (n = {d.EffectiveRespondents}), as recommended for ordinal items by Garrido, Abad and Ponsoda (2013); they were drawn from the large-sample distribution of the polychoric estimate (a Wishart draw rescaled by each item's information), which the project checked against simulated ordinal data"),
-            _ => Inv($"uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition"),
+            _ => Inv($"sets of uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition"),
         };
         b.Para(Inv($"Parallel analysis compared each eigenvalue of the correlation matrix, and of the reduced matrix with squared multiple correlations on the diagonal, with the mean and the {pa.PercentileLevel}th percentile of the same eigenvalue in {pa.Replicates} {refKind}. ") +
                (d.ComparisonData is { } cdInfo
-                   ? Inv($"Comparison data (Ruscio & Roche, 2012) drew {cdInfo.Samples} samples of n = {d.EffectiveRespondents} from populations with 1, 2, … common factors fitted to the observed correlations (multivariate normal populations, sampled as Wishart matrices) and added factors while the eigenvalues of the samples matched the observed eigenvalues significantly better (one-sided Mann–Whitney test, α = {cdInfo.Alpha:0.##}). ")
+                   ? Inv($"Comparison data (Ruscio & Roche, 2012) drew {cdInfo.Samples} samples of n = {d.EffectiveRespondents} from populations with 1, 2, … common factors fitted to the observed correlations (multivariate normal populations, sampled as Wishart matrices) and added factors while the eigenvalues of the samples matched the observed eigenvalues significantly better (one-sided Mann–Whitney test, α = {cdInfo.Alpha:0.00}). ")
                    : "") +
                "The empirical Kaiser criterion (Braeken & van Assen, 2017) compared each eigenvalue with a reference that accounts for the sample size and for the variance taken by the larger eigenvalues. " +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
@@ -274,11 +274,11 @@ public static class AppendixBuilder
         if (d.ComparisonData is { } cd)
             b.Table("Comparison data: fit of populations with k factors",
                 [new("k", ColumnAlignment.Right), new("Mean RMSR of eigenvalues", ColumnAlignment.Right), new("p (k better than k − 1)", ColumnAlignment.Right)],
-                Enumerable.Range(0, cd.MeanRmsr.Length).Select(c => Row(Integer(c + 1), Fixed(cd.MeanRmsr[c], 4), c == 0 ? "—" : Fixed(cd.PValues[c], 3))).ToList(),
+                Enumerable.Range(0, cd.MeanRmsr.Length).Select(c => Row(Integer(c + 1), Fixed(cd.MeanRmsr[c], 4), c == 0 ? "—" : cd.PValues[c] < 0.001 ? "< .001" : Fixed(cd.PValues[c], 3))).ToList(),
                 "RMSR: root mean squared difference between the eigenvalues of samples from the k-factor population and the observed eigenvalues. The fit curve is also in eigenvalues.csv (comparison_rmsr, comparison_p_value).");
         string why = d.RuleUsed == RetentionRule.ParallelReduced
-            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study comparing nine published rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
-              " Accuracy was lower with few items per factor, strongly correlated factors and 200 respondents, where every rule studied had difficulty."
+            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of nine rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
+              " Accuracy was lowest with three items per factor, strongly correlated factors (r = .5) and 200 respondents."
             : "";
         b.Para("**Decision.** " + d.Reason + why + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));
         refs.Add(MethodReferences.Horn1965);

@@ -149,4 +149,28 @@ public class RetentionRulesReferenceTests
         Assert.Equal(one.MeanRmsr, many.MeanRmsr);
         Assert.Equal(one.Count, many.Count);
     }
+
+    [Fact]
+    public void Quoted_study_accuracy_matches_the_committed_study_tables()
+    {
+        // Outside reference: the committed per-data-set results of the simulation study
+        // (benchmarks/results/dimensions-study-2026-12-02/grid-datasets.csv); the appendix quotes these hit rates.
+        string d = AppContext.BaseDirectory;
+        while (!File.Exists(Path.Combine(d, "ItemReduce.sln"))) d = Path.GetDirectoryName(d)!;
+        var lines = File.ReadAllLines(Path.Combine(d, "benchmarks", "results", "dimensions-study-2026-12-02", "grid-datasets.csv"));
+        var header = lines[0].Split(',');
+        int factors = Array.IndexOf(header, "factors"), n = Array.IndexOf(header, "respondents"), rule = Array.IndexOf(header, "pa-reduced-95");
+        var rows = lines.Skip(1).Where(l => l.Length > 0).Select(l => l.Split(',')).ToList();
+        Assert.Equal(RetentionStudyAccuracy.Surveys, rows.Count);
+        Assert.Equal(RetentionStudyAccuracy.Overall, rows.Average(f => f[factors] == f[rule] ? 1.0 : 0.0), 5e-5);
+        foreach (int level in new[] { 200, 500, 1000 })
+        {
+            var at = rows.Where(f => f[n] == level.ToString(CultureInfo.InvariantCulture)).ToList();
+            Assert.Equal(936, at.Count);
+            Assert.Equal(RetentionStudyAccuracy.Nearest(level).HitRate, at.Average(f => f[factors] == f[rule] ? 1.0 : 0.0), 5e-5);
+        }
+        Assert.Equal(1000, RetentionStudyAccuracy.Nearest(912).Respondents);
+        Assert.Equal(200, RetentionStudyAccuracy.Nearest(150).Respondents);
+        Assert.Contains("99.5%", RetentionStudyAccuracy.Sentence(20_000));
+    }
 }
