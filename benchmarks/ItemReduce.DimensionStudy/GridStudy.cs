@@ -25,6 +25,7 @@ internal static class GridStudy
         new("kaiser", true, c => c.Kaiser),
         new("ekc", true, c => c.EmpiricalKaiser),
         new("cd", true, c => c.ComparisonData ?? 0),
+        new("hull", true, c => c.Hull ?? 0),
         new("median(cd,ekc,pa-pca-95)", false, c => Median(c.ComparisonData ?? 0, c.EmpiricalKaiser, c.Parallel)),
         new("median(cd,ekc,pa-reduced-95)", false, c => Median(c.ComparisonData ?? 0, c.EmpiricalKaiser, c.ParallelReduced ?? 0)),
         new("median(cd,ekc,pa-pca-mean)", false, c => Median(c.ComparisonData ?? 0, c.EmpiricalKaiser, c.ParallelMean ?? 0)),

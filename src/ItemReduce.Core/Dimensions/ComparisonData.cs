@@ -73,6 +73,12 @@ public static class ComparisonData
     /// definite) and its descending <paramref name="eigenvalues"/>, for <paramref name="respondents"/> respondents.</summary>
     /// <exception cref="ArgumentException">p &lt; 3, respondents ≤ p, mismatched lengths or invalid options.</exception>
     public static ComparisonDataResult Run(double[,] correlation, IReadOnlyList<double> eigenvalues, int respondents, ComparisonDataOptions options)
+        => Run(correlation, eigenvalues, respondents, options, null);
+
+    /// <summary>As the public overload; <paramref name="loadings"/> supplies the k-factor minimum-residual loadings of
+    /// <paramref name="correlation"/> (shared with other rules), or null to fit them here.</summary>
+    internal static ComparisonDataResult Run(double[,] correlation, IReadOnlyList<double> eigenvalues, int respondents, ComparisonDataOptions options,
+        Func<int, MathNet.Numerics.LinearAlgebra.Matrix<double>>? loadings)
     {
         ArgumentNullException.ThrowIfNull(correlation);
         ArgumentNullException.ThrowIfNull(eigenvalues);
@@ -88,10 +94,10 @@ public static class ComparisonData
         var rmsr = new List<double[]>();
         var means = new List<double>();
         var pValues = new List<double>();
-        var r = MatrixHelpers.ToMatrix(correlation);
+        loadings ??= new MinimumResidualFits(correlation).Loadings;
         for (int k = 1; k <= maxK; k++)
         {
-            var chol = PopulationFactor(r, k);
+            var chol = PopulationFactor(loadings(k), p);
             var fit = SampleFit(chol, p, respondents - 1, observed, k, options);
             rmsr.Add(fit);
             means.Add(fit.Average());
@@ -114,10 +120,13 @@ public static class ComparisonData
     }
 
     /// <summary>Σ_k of the k-factor comparison population (unit diagonal), as a full p × p array.</summary>
-    internal static double[,] Population(MathNet.Numerics.LinearAlgebra.Matrix<double> r, int k)
+    internal static double[,] Population(MathNet.Numerics.LinearAlgebra.Matrix<double> r, int k) =>
+        Population(MinimumResidual.Extract(r, k, new FactoringOptions()).Loadings);
+
+    /// <summary>Σ = ΛΛᵀ with unit diagonal from p × k loadings (communalities capped at <see cref="MaxCommunality"/>).</summary>
+    internal static double[,] Population(MathNet.Numerics.LinearAlgebra.Matrix<double> lambda)
     {
-        int p = r.RowCount;
-        var lambda = MinimumResidual.Extract(r, k, new FactoringOptions()).Loadings;
+        int p = lambda.RowCount, k = lambda.ColumnCount;
         var sigma = new double[p, p];
         var scale = new double[p];
         for (int j = 0; j < p; j++)
@@ -139,11 +148,10 @@ public static class ComparisonData
         return sigma;
     }
 
-    /// <summary>Lower Cholesky factor (row-major) of Σ_k.</summary>
-    private static double[] PopulationFactor(MathNet.Numerics.LinearAlgebra.Matrix<double> r, int k)
+    /// <summary>Lower Cholesky factor (row-major) of Σ_k from its loadings.</summary>
+    private static double[] PopulationFactor(MathNet.Numerics.LinearAlgebra.Matrix<double> lambda, int p)
     {
-        int p = r.RowCount;
-        var c = MatrixChecks.ToRowMajor(Population(r, k));
+        var c = MatrixChecks.ToRowMajor(Population(lambda));
         CholeskyDecomposition.FactorInPlace(c, p);
         return c;
     }
@@ -181,5 +189,19 @@ public static class ComparisonData
         public double[] D { get; } = new double[p];
         public double[] E { get; } = new double[p];
         public double[] Tri { get; } = new double[2 * p];
+    }
+}
+
+/// <summary>k-factor minimum-residual loadings of one correlation matrix, each k fitted once on first request.</summary>
+internal sealed class MinimumResidualFits(double[,] correlation)
+{
+    private readonly MathNet.Numerics.LinearAlgebra.Matrix<double> _r = MatrixHelpers.ToMatrix(correlation);
+    private readonly Dictionary<int, MathNet.Numerics.LinearAlgebra.Matrix<double>> _fits = [];
+
+    /// <summary>Unrotated p × k loadings (<see cref="MinimumResidual"/>, default options).</summary>
+    public MathNet.Numerics.LinearAlgebra.Matrix<double> Loadings(int k)
+    {
+        if (!_fits.TryGetValue(k, out var l)) _fits[k] = l = MinimumResidual.Extract(_r, k, new FactoringOptions()).Loadings;
+        return l;
     }
 }

@@ -55,16 +55,22 @@ public static class DimensionAnalysis
         var map = VelicerMap.Compute(r);
         int kaiser = KaiserCriterion.Count(eigen);
         var ekcReference = EmpiricalKaiserCriterion.References(eigen, nEff);
-        var comparison = p >= 3 ? Dimensions.ComparisonData.Run(r, eigen, nEff, ToComparisonOptions(options)) : null;
+        // Comparison data and the Hull method both need k-factor minimum-residual fits of R; each k is fitted once.
+        var fits = new MinimumResidualFits(r);
+        var comparison = p >= 3 ? Dimensions.ComparisonData.Run(r, eigen, nEff, ToComparisonOptions(options), fits.Loadings) : null;
+        int parallelCount = ParallelAnalysis.RetainedCount(eigen, reference.Percentile);
+        int? reducedCount = reducedEigen is null || reference.ReducedPercentile is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedPercentile);
+        var hull = p >= 3 ? HullMethod.Run(r, (reducedCount ?? parallelCount) + 1, fits.Loadings) : null;
         var counts = new RuleCounts(
-            ParallelAnalysis.RetainedCount(eigen, reference.Percentile),
-            reducedEigen is null || reference.ReducedPercentile is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedPercentile),
+            parallelCount,
+            reducedCount,
             map.Count, map.RevisedCount, kaiser,
             ParallelAnalysis.RetainedCount(eigen, ekcReference),
             comparison?.Count)
         {
             ParallelMean = ParallelAnalysis.RetainedCount(eigen, reference.Mean),
             ParallelReducedMean = reducedEigen is null || reference.ReducedMean is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedMean),
+            Hull = hull?.Count,
         };
         var kmo = KaiserMeyerOlkin.Compute(r);
         var bartlett = BartlettSphericityTest.Compute(r, nEff);
@@ -91,6 +97,7 @@ public static class DimensionAnalysis
             Bartlett = bartlett,
             EmpiricalKaiserReferences = ekcReference,
             ComparisonData = comparison,
+            Hull = hull,
             MapCurve = map.Curve,
             MapRevisedCurve = map.RevisedCurve,
             Warnings = warnings,
@@ -101,11 +108,11 @@ public static class DimensionAnalysis
     {
         if (data.ItemCount < 2) throw new ArgumentException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
         if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
-            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser or ComparisonData, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData or Hull, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
         if (o.FactorsRule == RetentionRule.ParallelReduced && !o.IncludeReducedMatrix)
             throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
-        if (o.FactorsRule == RetentionRule.ComparisonData && data.ItemCount < 3)
-            throw new ArgumentException($"Comparison data needs at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
+        if (o.FactorsRule is RetentionRule.ComparisonData or RetentionRule.Hull && data.ItemCount < 3)
+            throw new ArgumentException($"Comparison data and the Hull method need at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
         if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
             throw new ArgumentException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o.FixedFactors));
         if (!(o.EigenvalueFloor > 0 && o.EigenvalueFloor <= 0.5))
@@ -209,6 +216,8 @@ public static class DimensionAnalysis
                 $"{Count(c.EmpiricalKaiser)} kept because {(c.EmpiricalKaiser == 1 ? "the first eigenvalue is" : $"the first {c.EmpiricalKaiser} eigenvalues are")} above the reference that random data of this size would reach after the larger ones (empirical Kaiser criterion).")),
             RetentionRule.ComparisonData when c.ComparisonData is int cd => (cd, RetentionRule.ComparisonData, string.Create(ci,
                 $"{Count(cd)} kept because simulated data with {cd + 1} factor{(cd + 1 == 1 ? "" : "s")} did not reproduce the observed eigenvalues significantly better than data with {cd} (comparison data).")),
+            RetentionRule.Hull when c.Hull is int h => (h, RetentionRule.Hull, string.Create(ci,
+                $"{Count(h)} kept because the fit of the {h}-factor solution gains most against its added complexity among the solutions on the convex hull of fit versus free parameters (Hull method).")),
             RetentionRule.Kaiser => (c.Kaiser, RetentionRule.Kaiser, string.Create(ci,
                 $"{Count(c.Kaiser)} kept because {c.Kaiser} eigenvalue{(c.Kaiser == 1 ? " is" : "s are")} above 1; this rule tends to keep too many.")),
             _ => (c.Parallel, RetentionRule.Parallel, string.Create(ci,
@@ -236,7 +245,7 @@ public static class DimensionAnalysis
         var shown = new List<(string Name, int? Count)>
         {
             ("reduced-matrix parallel analysis", c.ParallelReduced), ("principal-component parallel analysis", c.Parallel),
-            ("comparison data", c.ComparisonData), ("empirical Kaiser criterion", c.EmpiricalKaiser), ("MAP", c.Map),
+            ("comparison data", c.ComparisonData), ("empirical Kaiser criterion", c.EmpiricalKaiser), ("Hull method", c.Hull), ("MAP", c.Map),
         };
         if (shown.Where(x => x.Count is not null).Select(x => x.Count).Distinct().Count() > 1)
             w.Add("The rules disagree (" + string.Join(", ", shown.Where(x => x.Count is not null).Select(x => string.Create(ci, $"{x.Name} {x.Count}"))) +

@@ -28,6 +28,8 @@ public enum RetentionRule
     ComparisonData,
     /// <summary>Empirical Kaiser criterion (Braeken &amp; van Assen, 2017), see <see cref="EmpiricalKaiserCriterion"/>.</summary>
     EmpiricalKaiser,
+    /// <summary>The Hull method (Lorenzo-Seva, Timmerman &amp; Kiers, 2011), see <see cref="HullMethod"/>.</summary>
+    Hull,
     /// <summary>Result only: the count was fixed by <see cref="DimensionOptions.FixedFactors"/>. Not a valid option value.</summary>
     Fixed,
 }

@@ -17,6 +17,9 @@ public sealed record RuleCounts(int Parallel, int? ParallelReduced, int Map, int
 
     /// <summary>Parallel analysis on the reduced matrix against the mean of the reference, or null.</summary>
     public int? ParallelReducedMean { get; init; }
+
+    /// <summary>The Hull method (Lorenzo-Seva, Timmerman &amp; Kiers, 2011), or null when not computed (fewer than 3 items).</summary>
+    public int? Hull { get; init; }
 }
 
 /// <summary>One row per component for tables and charts (scree plot with parallel-analysis reference).</summary>
@@ -108,6 +111,9 @@ public sealed record DimensionResult
 
     /// <summary>Comparison-data fit curve and tests, or null when not computed (fewer than 3 items).</summary>
     public ComparisonDataResult? ComparisonData { get; init; }
+
+    /// <summary>Hull-method fit curve and selection, or null when not computed (fewer than 3 items).</summary>
+    public HullResult? Hull { get; init; }
 
     /// <summary>MAP curve (squared partials), index m = components removed, starting at 0.</summary>
     public required double[] MapCurve { get; init; }

@@ -234,6 +234,7 @@ public static class AppendixBuilder
                    ? Inv($"Comparison data (Ruscio & Roche, 2012) drew {cdInfo.Samples} samples of n = {d.EffectiveRespondents} from populations with 1, 2, … common factors fitted to the observed correlations (multivariate normal populations, sampled as Wishart matrices) and added factors while the eigenvalues of the samples matched the observed eigenvalues significantly better (one-sided Mann–Whitney test, α = {cdInfo.Alpha:0.00}). ")
                    : "") +
                "The empirical Kaiser criterion (Braeken & van Assen, 2017) compared each eigenvalue with a reference that accounts for the sample size and for the variance taken by the larger eigenvalues. " +
+               (d.Hull is not null ? Inv($"The Hull method (Lorenzo-Seva, Timmerman & Kiers, 2011) compared the fit (common part accounted for) of solutions with 0 to {d.Hull.Fit.Length - 1} factors against their number of free parameters and chose the solution where the upper boundary of that plot bends most. ") : "") +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
         int p = d.Eigenvalues.Length;
         var comp = Enumerable.Range(1, p).Select(c => (double)c).ToList();
@@ -266,6 +267,7 @@ public static class AppendixBuilder
             Row("Parallel analysis, principal components, mean", d.ByRule.ParallelMean is int pm ? Integer(pm) : "—"),
             Row("Comparison data", d.ByRule.ComparisonData is int cdc ? Integer(cdc) : "—"),
             Row("Empirical Kaiser criterion", Integer(d.ByRule.EmpiricalKaiser)),
+            Row("Hull method", d.ByRule.Hull is int hc ? Integer(hc) : "—"),
             Row("MAP, squared partial correlations (1976)", Integer(d.ByRule.Map)),
             Row("MAP, fourth-power partial correlations (2000)", Integer(d.ByRule.MapRevised)),
             Row("Eigenvalue > 1 (reference only)", Integer(d.ByRule.Kaiser)),
@@ -288,6 +290,7 @@ public static class AppendixBuilder
         refs.Add(MethodReferences.Kaiser1960);
         refs.Add(MethodReferences.HumphreysIlgen1969);
         refs.Add(MethodReferences.BraekenVanAssen2017);
+        if (d.Hull is not null) refs.Add(MethodReferences.LorenzoSevaTimmermanKiers2011);
         if (d.ComparisonData is not null)
         {
             refs.Add(MethodReferences.RuscioRoche2012);

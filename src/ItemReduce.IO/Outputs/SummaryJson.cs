@@ -137,6 +137,7 @@ public static class SummaryJson
                 ["parallelReducedMean"] = d.ByRule.ParallelReducedMean,
                 ["empiricalKaiser"] = d.ByRule.EmpiricalKaiser,
                 ["comparisonData"] = d.ByRule.ComparisonData,
+                ["hull"] = d.ByRule.Hull,
             };
             o["indicated"] = d.Retained;
             o["rule"] = RuleName(d.RuleUsed);
@@ -158,6 +159,7 @@ public static class SummaryJson
         RetentionRule.Kaiser => "kaiser",
         RetentionRule.EmpiricalKaiser => "empirical-kaiser",
         RetentionRule.ComparisonData => "comparison-data",
+        RetentionRule.Hull => "hull",
         _ => "fixed",
     };
 

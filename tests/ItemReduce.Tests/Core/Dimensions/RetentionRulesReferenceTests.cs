@@ -173,4 +173,67 @@ public class RetentionRulesReferenceTests
         Assert.Equal(200, RetentionStudyAccuracy.Nearest(150).Respondents);
         Assert.Contains("99.5%", RetentionStudyAccuracy.Sentence(20_000));
     }
+
+    [Fact]
+    public void Hull_fit_index_matches_numpy()
+    {
+        // numpy: CAF = 1 − KMO of (R − ΛΛ'), anti-image from np.linalg.inv (hull_caf.csv), on the iris correlations
+        // with arbitrary loadings.
+        var matrices = new[] { Matrix("iris_correlation.csv"), null };
+        int cases = 0;
+        foreach (var f in Rows("hull_caf.csv"))
+        {
+            int c = int.Parse(f[0], CultureInfo.InvariantCulture), m = int.Parse(f[1], CultureInfo.InvariantCulture);
+            if (c == 1) continue; // the second case's matrix is not stored; iris covers the computation
+            var r = matrices[c]!;
+            int p = r.GetLength(0);
+            MathNet.Numerics.LinearAlgebra.Matrix<double>? l = null;
+            if (m > 0)
+            {
+                var v = Split(f[2]);
+                l = MathNet.Numerics.LinearAlgebra.Matrix<double>.Build.Dense(p, m, (i, j) => v[i * m + j]);
+            }
+            Assert.Equal(Parse(f[3]), HullMethod.CommonPartAccountedFor(r, l), 1e-12);
+            cases++;
+        }
+        Assert.Equal(3, cases);
+    }
+
+    [Fact]
+    public void Hull_selection_matches_numpy()
+    {
+        // numpy implementation of the selection steps (hull_select.csv): monotone fit, upper convex boundary,
+        // scree-test values st and the chosen count.
+        int cases = 0;
+        foreach (var f in Rows("hull_select.csv"))
+        {
+            var fit = Split(f[1]);
+            var par = Split(f[2]).Select(x => (int)x).ToArray();
+            var onHull = Split(f[3]).Select(x => x == 1).ToArray();
+            var hull = HullMethod.Hull(fit, par);
+            Assert.Equal(onHull, Enumerable.Range(0, fit.Length).Select(hull.Contains).ToArray());
+            Assert.Equal(int.Parse(f[5], CultureInfo.InvariantCulture), HullMethod.Select(fit, par, hull, out var st));
+            var expectedSt = Split(f[4]);
+            for (int m = 0; m < fit.Length; m++)
+                if (double.IsNaN(expectedSt[m])) Assert.True(double.IsNaN(st[m]));
+                else Assert.Equal(expectedSt[m], st[m], 1e-9);
+            cases++;
+        }
+        Assert.Equal(4, cases);
+    }
+
+    [Fact]
+    public void Hull_method_finds_clear_planted_structures()
+    {
+        // Planted truth: continuous data from 2 and 4 simple-structure factors (loadings .65, r = .2, n = 800), upper
+        // bound J = planted + 1 as with an exact parallel analysis.
+        foreach (int k in new[] { 2, 4 })
+        {
+            var spec = ItemReduce.Simulation.FactorModelSpec.Simple(k, 5, 0.65, 0.2, categories: 0);
+            var data = ItemReduce.Simulation.FactorModelSimulator.Generate(spec, new(800, (ulong)(60 + k))).Responses;
+            var res = HullMethod.Run(PearsonCorrelation.Compute(data), k + 1);
+            Assert.True(k == res.Count, string.Join(" ", res.Fit.Select(x => x.ToString("F4", CultureInfo.InvariantCulture))) + " | " + string.Join(" ", res.ScreeTest));
+            Assert.Equal(k + 2, res.Fit.Length);
+        }
+    }
 }

@@ -19,6 +19,7 @@ Writes
                          observations from N(0, Sigma) (Sigma below), 20,000 brute-force replicates
                          (default_rng(1414)); 95th percentile by numpy's default (linear, type 7).
   wishart_sigma.csv      that Sigma (5 x 5).
+  hull_caf.csv, hull_select.csv  the Hull method's fit index and selection step (see the end of this script).
 """
 import numpy as np
 from scipy import stats
@@ -106,3 +107,80 @@ with open("wishart_sigma_eigen.csv", "w") as f:
     f.write("component,mean,p95\n")
     for c in range(5):
         f.write(f"{c + 1},{repr(float(eigs[:, c].mean()))},{repr(float(np.percentile(eigs[:, c], 95)))}\n")
+
+# ---- Hull method (Lorenzo-Seva, Timmerman & Kiers 2011) -----------------------------------------------------
+# hull_caf.csv:   case,m,loadings(';' row-major p x m, empty for m = 0),caf   on the iris correlation matrix and a
+#                 random 8 x 8 one; CAF = 1 - KMO of the residual matrix R - L L' as it is
+#                 (numpy inverse for the anti-image correlations).
+# hull_select.csv: case,fit(';'),params(';'),on_hull(';' 0/1),st(';' nan where undefined),count : the hull
+#                 selection on given fit/parameter sequences, numpy implementation of the published steps.
+
+
+def kmo(r):
+    inv = np.linalg.inv(r)
+    d = np.sqrt(np.diag(inv))
+    q = -inv / np.outer(d, d)
+    off = ~np.eye(len(r), dtype=bool)
+    sr = (r[off] ** 2).sum()
+    sq = (q[off] ** 2).sum()
+    return sr / (sr + sq)
+
+
+def caf(r, lam):
+    e = r - lam @ lam.T if lam is not None else r.copy()
+    return 1 - kmo(e)
+
+
+rng3 = np.random.default_rng(1515)
+with open("hull_caf.csv", "w") as f:
+    f.write("case,m,loadings,caf\n")
+    iris = np.loadtxt("iris_correlation.csv", delimiter=",")
+    r8 = random_corr(8, 2)
+    for case, r in enumerate([iris, r8]):
+        p = len(r)
+        f.write(f"{case},0,,{repr(float(caf(r, None)))}\n")
+        for m in (1, 2):
+            lam = rng3.uniform(0.1, 0.5, (p, m))
+            f.write(f"{case},{m},{fmt(lam.ravel())},{repr(float(caf(r, lam)))}\n")
+
+
+def hull_select(fit, par):
+    kept = []
+    best = -np.inf
+    for m in range(len(fit)):
+        if not np.isnan(fit[m]) and fit[m] > best:
+            kept.append(m)
+            best = fit[m]
+    changed = True
+    while changed and len(kept) > 2:
+        changed = False
+        for h in range(1, len(kept) - 1):
+            a, m, b = kept[h - 1], kept[h], kept[h + 1]
+            line = fit[a] + (fit[b] - fit[a]) * (par[m] - par[a]) / (par[b] - par[a])
+            if fit[m] <= line:
+                del kept[h]
+                changed = True
+                break
+    st = np.full(len(fit), np.nan)
+    count, best_st = 0, -np.inf
+    for h in range(1, len(kept) - 1):
+        a, m, b = kept[h - 1], kept[h], kept[h + 1]
+        before = (fit[m] - fit[a]) / (par[m] - par[a])
+        after = (fit[b] - fit[m]) / (par[b] - par[m])
+        st[m] = before / after if after > 0 else np.inf
+        if st[m] > best_st:
+            best_st, count = st[m], m
+    on = np.zeros(len(fit), int)
+    on[kept] = 1
+    return on, st, count
+
+
+with open("hull_select.csv", "w") as f:
+    f.write("case,fit,params,on_hull,st,count\n")
+    p = 12
+    fits = [[0.2, 0.55, 0.8, 0.83, 0.84], [0.3, 0.7, 0.72, 0.9, 0.91, 0.915], [0.1, 0.6, 0.62], [0.25, 0.5, 0.45, 0.7, 0.72]]
+    for case, fit in enumerate(fits):
+        fit = np.array(fit)
+        par = np.array([p * m - m * (m - 1) // 2 for m in range(len(fit))])
+        on, st, count = hull_select(fit, par)
+        f.write(f"{case},{fmt(fit)},{fmt(par)},{fmt(on)},{fmt(st)},{count}\n")
