@@ -155,13 +155,12 @@ public static class CliApp
                 "ordinal" => ReferenceKind.Ordinal,
                 _ => ReferenceKind.Normal,
             },
-            FactorsRule = Choice(pr.GetValue(o.FactorsRule), "--factors-rule", ["parallel-reduced", "parallel", "map", "kaiser", "empirical-kaiser", "comparison-data", "hull"], "parallel-reduced") switch
+            FactorsRule = Choice(pr.GetValue(o.FactorsRule), "--factors-rule", ["parallel-reduced", "parallel", "map", "kaiser", "empirical-kaiser", "comparison-data"], "parallel-reduced") switch
             {
                 "parallel" => RetentionRule.Parallel,
                 "map" => RetentionRule.Map,
                 "empirical-kaiser" => RetentionRule.EmpiricalKaiser,
                 "comparison-data" => RetentionRule.ComparisonData,
-                "hull" => RetentionRule.Hull,
                 "kaiser" => RetentionRule.Kaiser,
                 _ => RetentionRule.ParallelReduced,
             },

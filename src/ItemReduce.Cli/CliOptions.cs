@@ -32,7 +32,7 @@ internal sealed class CliOptions
     public readonly Option<int?> Replicates = new("--replicates") { Description = "Parallel-analysis replicates (default 1000); comparison data draws a quarter of this number from each comparison population." };
     public readonly Option<double?> Percentile = new("--percentile") { Description = "Percentile of the random eigenvalues used as threshold (default 95)." };
     public readonly Option<string?> Reference = new("--reference") { Description = "Parallel-analysis reference: normal (default for Pearson; Wishart draws), ordinal (default for polychoric; polychoric correlations of unrelated items with the observed answer distributions) or permutation (shuffled columns)." };
-    public readonly Option<string?> FactorsRule = new("--factors-rule") { Description = "Rule that sets the number of factors: parallel-reduced (default; parallel analysis of the reduced matrix, chosen by the project's simulation study), parallel (principal components), map, kaiser, empirical-kaiser, comparison-data or hull." };
+    public readonly Option<string?> FactorsRule = new("--factors-rule") { Description = "Rule that sets the number of factors: parallel-reduced (default; parallel analysis of the reduced matrix, chosen by the project's simulation study), parallel (principal components), map, kaiser, empirical-kaiser or comparison-data." };
     public readonly Option<int?> Factors = new("--factors") { Description = "Fix the number of factors instead of using a rule." };
     public readonly Option<int?> Threads = new("--threads") { Description = "Worker threads for parallel analysis (default: all cores). Results do not depend on it." };
 

@@ -21,7 +21,10 @@ public sealed record HullResult(int Count, double[] Fit, int[] FreeParameters, b
 /// (<see cref="Factoring.MinimumResidual"/>; E_0 = R), the KMO formula applied to E_m as it is (our reading; rescaling
 /// E_m to unit diagonal made the fit fall after the first factor in a check on planted two-factor data). The upper bound J is the parallel-analysis count plus one, as the authors
 /// propose, so the highest solution tried can never be chosen (it is an end of the hull).
-/// These details were implemented from memory of the paper and should be checked against it.
+/// These details were implemented from memory of the paper and should be checked against it: in the project's
+/// simulation study this implementation found the planted number of factors in only 58.7 % of 2,808 surveys, mostly
+/// by keeping too few (<see cref="RetentionStudyAccuracy.HullOverall"/>), far below what the authors report, so it is
+/// reported for comparison and not offered as a command-line rule.
 /// </summary>
 public static class HullMethod
 {

@@ -267,19 +267,20 @@ public static class AppendixBuilder
             Row("Parallel analysis, principal components, mean", d.ByRule.ParallelMean is int pm ? Integer(pm) : "—"),
             Row("Comparison data", d.ByRule.ComparisonData is int cdc ? Integer(cdc) : "—"),
             Row("Empirical Kaiser criterion", Integer(d.ByRule.EmpiricalKaiser)),
-            Row("Hull method", d.ByRule.Hull is int hc ? Integer(hc) : "—"),
+            Row("Hull method (for comparison only; see the note)", d.ByRule.Hull is int hc ? Integer(hc) : "—"),
             Row("MAP, squared partial correlations (1976)", Integer(d.ByRule.Map)),
             Row("MAP, fourth-power partial correlations (2000)", Integer(d.ByRule.MapRevised)),
             Row("Eigenvalue > 1 (reference only)", Integer(d.ByRule.Kaiser)),
         };
-        b.Table("Number of dimensions indicated by each rule", [new("Rule"), new("Dimensions", ColumnAlignment.Right)], mapRows);
+        b.Table("Number of dimensions indicated by each rule", [new("Rule"), new("Dimensions", ColumnAlignment.Right)], mapRows,
+            d.Hull is null ? null : Inv($"The Hull method as implemented here found the planted number of factors in only {RetentionStudyAccuracy.HullOverall * 100:0}% of the project's simulated surveys (it often keeps too few); its count is shown for comparison, not as a recommendation."));
         if (d.ComparisonData is { } cd)
             b.Table("Comparison data: fit of populations with k factors",
                 [new("k", ColumnAlignment.Right), new("Mean RMSR of eigenvalues", ColumnAlignment.Right), new("p (k better than k − 1)", ColumnAlignment.Right)],
                 Enumerable.Range(0, cd.MeanRmsr.Length).Select(c => Row(Integer(c + 1), Fixed(cd.MeanRmsr[c], 4), c == 0 ? "—" : cd.PValues[c] < 0.001 ? "< .001" : Fixed(cd.PValues[c], 3))).ToList(),
                 "RMSR: root mean squared difference between the eigenvalues of samples from the k-factor population and the observed eigenvalues. The fit curve is also in eigenvalues.csv (comparison_rmsr, comparison_p_value).");
         string why = d.RuleUsed == RetentionRule.ParallelReduced
-            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of nine rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
+            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of ten rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
               " Accuracy was lowest with three items per factor, strongly correlated factors (r = .5) and 200 respondents."
             : "";
         b.Para("**Decision.** " + d.Reason + why + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));

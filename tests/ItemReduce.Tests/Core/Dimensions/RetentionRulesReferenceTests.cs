@@ -163,6 +163,8 @@ public class RetentionRulesReferenceTests
         var rows = lines.Skip(1).Where(l => l.Length > 0).Select(l => l.Split(',')).ToList();
         Assert.Equal(RetentionStudyAccuracy.Surveys, rows.Count);
         Assert.Equal(RetentionStudyAccuracy.Overall, rows.Average(f => f[factors] == f[rule] ? 1.0 : 0.0), 5e-5);
+        int hull = Array.IndexOf(header, "hull");
+        Assert.Equal(RetentionStudyAccuracy.HullOverall, rows.Average(f => f[factors] == f[hull] ? 1.0 : 0.0), 5e-5);
         foreach (int level in new[] { 200, 500, 1000 })
         {
             var at = rows.Where(f => f[n] == level.ToString(CultureInfo.InvariantCulture)).ToList();
