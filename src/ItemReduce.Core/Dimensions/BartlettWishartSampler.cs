@@ -17,6 +17,12 @@ namespace ItemReduce.Core.Dimensions;
 /// R = D^{−1/2} W D^{−1/2}. So a reference correlation matrix for n respondents costs p(p+1)/2 random
 /// numbers and p³/6 multiply-adds, independent of n. Requires m ≥ p (n &gt; p).
 /// </para>
+/// <para>
+/// General scale matrix: if W ~ Wishart_p(I, m) and Σ = C Cᵀ (C lower triangular, the Cholesky factor), then
+/// C W Cᵀ ~ Wishart_p(Σ, m) (a standard property of the Wishart distribution; Anderson, 2003, ch. 7). With W = L Lᵀ from the Bartlett factor, C W Cᵀ = A Aᵀ
+/// where A = C L is again lower triangular, so a draw costs p³/3 multiply-adds: the sample correlation matrix of
+/// n = m + 1 normal observations from a population with correlation matrix Σ (used by <see cref="ComparisonData"/>).
+/// </para>
 /// </summary>
 public static class BartlettWishartSampler
 {
@@ -57,6 +63,33 @@ public static class BartlettWishartSampler
         SampleFactor(p, df, rng, l);
         Product(l, p, w);
         ScaleToCorrelation(w, p);
+    }
+
+    /// <summary>Unchecked kernel: fills <paramref name="w"/> (row-major p × p, full) with the sample correlation
+    /// matrix of df + 1 normal observations whose population correlation has the lower Cholesky factor
+    /// <paramref name="c"/> (row-major, strict upper triangle zero); <paramref name="l"/> and <paramref name="a"/> are scratch.</summary>
+    internal static void SampleCorrelationInto(int p, int df, double[] c, RandomStream rng, double[] l, double[] a, double[] w)
+    {
+        SampleFactor(p, df, rng, l);
+        LowerProduct(c, l, p, a);
+        Product(a, p, w);
+        ScaleToCorrelation(w, p);
+    }
+
+    /// <summary>A = C L for lower-triangular C and L (row-major): A_ij = Σ_{j ≤ k ≤ i} C_ik L_kj, lower triangular.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private static void LowerProduct(double[] c, double[] l, int p, double[] a)
+    {
+        Array.Clear(a, 0, p * p);
+        for (int i = 0; i < p; i++)
+        {
+            var ai = a.AsSpan(i * p, i + 1);
+            for (int k = 0; k <= i; k++)
+            {
+                double cik = c[i * p + k];
+                if (cik != 0) VectorKernels.Axpy(cik, l.AsSpan(k * p, k + 1), ai[..(k + 1)]);
+            }
+        }
     }
 
     /// <summary>Bartlett factor: row i (0-based) holds L_i0..L_ii; L_ii = sqrt(χ²(m − i)), i.e. χ²(m − i + 1) in

@@ -54,10 +54,24 @@ public static class DimensionAnalysis
         var reference = Reference(data, options, nEff, progress);
         var map = VelicerMap.Compute(r);
         int kaiser = KaiserCriterion.Count(eigen);
+        var ekcReference = EmpiricalKaiserCriterion.References(eigen, nEff);
+        // Comparison data and the Hull method both need k-factor minimum-residual fits of R; each k is fitted once.
+        var fits = new MinimumResidualFits(r);
+        var comparison = p >= 3 ? Dimensions.ComparisonData.Run(r, eigen, nEff, ToComparisonOptions(options), fits.Loadings) : null;
+        int parallelCount = ParallelAnalysis.RetainedCount(eigen, reference.Percentile);
+        int? reducedCount = reducedEigen is null || reference.ReducedPercentile is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedPercentile);
+        var hull = p >= 3 ? HullMethod.Run(r, (reducedCount ?? parallelCount) + 1, fits.Loadings) : null;
         var counts = new RuleCounts(
-            ParallelAnalysis.RetainedCount(eigen, reference.Percentile),
-            reducedEigen is null || reference.ReducedPercentile is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedPercentile),
-            map.Count, map.RevisedCount, kaiser);
+            parallelCount,
+            reducedCount,
+            map.Count, map.RevisedCount, kaiser,
+            ParallelAnalysis.RetainedCount(eigen, ekcReference),
+            comparison?.Count)
+        {
+            ParallelMean = ParallelAnalysis.RetainedCount(eigen, reference.Mean),
+            ParallelReducedMean = reducedEigen is null || reference.ReducedMean is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedMean),
+            Hull = hull?.Count,
+        };
         var kmo = KaiserMeyerOlkin.Compute(r);
         var bartlett = BartlettSphericityTest.Compute(r, nEff);
 
@@ -82,6 +96,9 @@ public static class DimensionAnalysis
             Kmo = kmo.Overall,
             Msa = kmo.PerItem,
             Bartlett = bartlett,
+            EmpiricalKaiserReferences = ekcReference,
+            ComparisonData = comparison,
+            Hull = hull,
             MapCurve = map.Curve,
             MapRevisedCurve = map.RevisedCurve,
             Warnings = warnings,
@@ -92,7 +109,11 @@ public static class DimensionAnalysis
     {
         if (data.ItemCount < 2) throw new ArgumentException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
         if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
-            throw new ArgumentException($"FactorsRule must be Parallel, Map or Kaiser, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData or Hull, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+        if (o.FactorsRule == RetentionRule.ParallelReduced && !o.IncludeReducedMatrix)
+            throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
+        if (o.FactorsRule is RetentionRule.ComparisonData or RetentionRule.Hull && data.ItemCount < 3)
+            throw new ArgumentException($"Comparison data and the Hull method need at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
         if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
             throw new ArgumentException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o.FixedFactors));
         if (!(o.EigenvalueFloor > 0 && o.EigenvalueFloor <= 0.5))
@@ -107,6 +128,15 @@ public static class DimensionAnalysis
         Reference = o.Reference,
         Seed = o.Seed,
         IncludeReducedMatrix = o.IncludeReducedMatrix,
+        MaxDegreeOfParallelism = o.MaxDegreeOfParallelism,
+    };
+
+    /// <summary>Comparison-data settings: samples per population = a quarter of the parallel-analysis replicates
+    /// (at least 20), so the default 1000 gives 250; same seed and thread cap.</summary>
+    internal static ComparisonDataOptions ToComparisonOptions(DimensionOptions o) => new()
+    {
+        Samples = Math.Max(20, o.Replicates / 4),
+        Seed = o.Seed,
         MaxDegreeOfParallelism = o.MaxDegreeOfParallelism,
     };
 
@@ -144,6 +174,8 @@ public static class DimensionAnalysis
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
             return ParallelAnalysis.PermutationReference(data, d => o.Correlation.Compute(d, 1), po);
+        if (o.Reference == ReferenceKind.Ordinal)
+            return ParallelAnalysis.OrdinalReference(nEff, PolychoricNullDistribution.InformationFactors(data), po);
         return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);
     }
 
@@ -152,11 +184,24 @@ public static class DimensionAnalysis
         var ci = CultureInfo.InvariantCulture;
         if (o.FixedFactors is int k)
             return (k, RetentionRule.Fixed, string.Create(ci, $"The number of dimensions was set to {k} in the settings; the rules below are shown for comparison."));
-        string source = reference.Kind == ReferenceKind.Permutation ? "copies of the data with each item shuffled separately" : "sets of uncorrelated normal data of the same size";
+        string source = reference.Kind switch
+        {
+            ReferenceKind.Permutation => "copies of the data with each item shuffled separately",
+            ReferenceKind.Ordinal => "sets of polychoric correlations of unrelated items with the observed answer distributions",
+            _ => "sets of uncorrelated normal data of the same size",
+        };
         return o.FactorsRule switch
         {
             RetentionRule.Map => (c.Map, RetentionRule.Map, string.Create(ci,
                 $"{Count(c.Map)} kept because the average squared partial correlation between items is lowest once {c.Map} component{(c.Map == 1 ? " is" : "s are")} removed (minimum average partial test).")),
+            RetentionRule.ParallelReduced when c.ParallelReduced is int pr => (pr, RetentionRule.ParallelReduced, string.Create(ci,
+                $"{Count(pr)} kept because {(pr == 1 ? "the first eigenvalue" : $"the first {pr} eigenvalues")} of the reduced correlation matrix (squared multiple correlations on the diagonal, the common-factor version of parallel analysis) {(pr == 1 ? "is" : "are")} larger than the {Ordinal(reference.PercentileLevel)} percentile of the same eigenvalues in {reference.Replicates} {source}.")),
+            RetentionRule.EmpiricalKaiser => (c.EmpiricalKaiser, RetentionRule.EmpiricalKaiser, string.Create(ci,
+                $"{Count(c.EmpiricalKaiser)} kept because {(c.EmpiricalKaiser == 1 ? "the first eigenvalue is" : $"the first {c.EmpiricalKaiser} eigenvalues are")} above the reference that random data of this size would reach after the larger ones (empirical Kaiser criterion).")),
+            RetentionRule.ComparisonData when c.ComparisonData is int cd => (cd, RetentionRule.ComparisonData, string.Create(ci,
+                $"{Count(cd)} kept because simulated data with {cd + 1} factor{(cd + 1 == 1 ? "" : "s")} did not reproduce the observed eigenvalues significantly better than data with {cd} (comparison data).")),
+            RetentionRule.Hull when c.Hull is int h => (h, RetentionRule.Hull, string.Create(ci,
+                $"{Count(h)} kept because the fit of the {h}-factor solution gains most against its added complexity among the solutions on the convex hull of fit versus free parameters (Hull method).")),
             RetentionRule.Kaiser => (c.Kaiser, RetentionRule.Kaiser, string.Create(ci,
                 $"{Count(c.Kaiser)} kept because {c.Kaiser} eigenvalue{(c.Kaiser == 1 ? " is" : "s are")} above 1; this rule tends to keep too many.")),
             _ => (c.Parallel, RetentionRule.Parallel, string.Create(ci,
@@ -179,10 +224,16 @@ public static class DimensionAnalysis
     {
         var ci = CultureInfo.InvariantCulture;
         w.Add("kaiser-caution", KaiserCriterion.Caution);
-        if (c.Parallel == 0)
+        if (c.Parallel == 0 && (c.ParallelReduced ?? 0) == 0)
             w.Add("no-component-above-random", "No component stands out from random data in parallel analysis: the items may not share a common dimension.");
-        if (c.Parallel != c.Map)
-            w.Add("rules-disagree", string.Create(ci, $"The rules disagree (parallel analysis {c.Parallel}, MAP {c.Map}); consider inspecting solutions with each count before deciding."));
+        var shown = new List<(string Name, int? Count)>
+        {
+            ("reduced-matrix parallel analysis", c.ParallelReduced), ("principal-component parallel analysis", c.Parallel),
+            ("comparison data", c.ComparisonData), ("empirical Kaiser criterion", c.EmpiricalKaiser), ("Hull method", c.Hull), ("MAP", c.Map),
+        };
+        if (shown.Where(x => x.Count is not null).Select(x => x.Count).Distinct().Count() > 1)
+            w.Add("rules-disagree", "The rules disagree (" + string.Join(", ", shown.Where(x => x.Count is not null).Select(x => string.Create(ci, $"{x.Name} {x.Count}"))) +
+                  "); consider inspecting solutions with each count before deciding.");
         if (kmo.Overall < 0.6)
             w.Add("kmo-low", string.Create(ci, $"The overall KMO is {kmo.Overall:F2}; values below about 0.6 suggest the items share too little variance for a factor analysis to be informative (Kaiser, 1974)."));
         var low = Enumerable.Range(0, kmo.PerItem.Length).Where(j => kmo.PerItem[j] < 0.5).Select(j => data.Items[j].Name).ToList();
@@ -191,6 +242,8 @@ public static class DimensionAnalysis
         if (b.P > 0.05)
             w.Add("bartlett-not-rejected", string.Create(ci, $"Bartlett's test does not reject uncorrelated items (p = {b.P:G3}); the correlations may be too weak to analyse."));
         if (o.Correlation.Kind == CorrelationKind.Polychoric && o.Reference == ReferenceKind.Normal)
-            w.Add("polychoric-normal-reference", "Polychoric correlations are compared with a normal-data reference; a permutation reference keeps the items' own category distributions.");
+            w.Add("polychoric-normal-reference", "Polychoric correlations are compared with a normal-data reference, which tends to suggest too many dimensions with skewed items; the ordinal reference (the default for polychoric correlations) keeps the items' own category distributions.");
+        if (o.Correlation.Kind == CorrelationKind.Pearson && o.Reference == ReferenceKind.Ordinal)
+            w.Add("pearson-ordinal-reference", "The ordinal reference describes polychoric correlations; with Pearson correlations the normal reference is the matching one.");
     }
 }

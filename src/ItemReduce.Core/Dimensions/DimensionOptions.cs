@@ -5,12 +5,22 @@ namespace ItemReduce.Core.Dimensions;
 /// <summary>Rule that decides how many dimensions to retain.</summary>
 public enum RetentionRule
 {
-    /// <summary>Parallel analysis on the full correlation matrix (default).</summary>
+    /// <summary>Parallel analysis on the full correlation matrix (principal components), 95th-percentile reference.</summary>
     Parallel,
+    /// <summary>Parallel analysis on the reduced (SMC-diagonal) matrix (common factors), 95th-percentile reference;
+    /// default, chosen by the project's simulation study (<see cref="RetentionStudyAccuracy"/>). Needs
+    /// <see cref="DimensionOptions.IncludeReducedMatrix"/>.</summary>
+    ParallelReduced,
     /// <summary>Velicer's minimum average partial test (squared partials).</summary>
     Map,
     /// <summary>Eigenvalue above 1 (Kaiser, 1960); not recommended, available for comparison.</summary>
     Kaiser,
+    /// <summary>Comparison data (Ruscio &amp; Roche, 2012), see <see cref="Dimensions.ComparisonData"/>.</summary>
+    ComparisonData,
+    /// <summary>Empirical Kaiser criterion (Braeken &amp; van Assen, 2017), see <see cref="EmpiricalKaiserCriterion"/>.</summary>
+    EmpiricalKaiser,
+    /// <summary>The Hull method (Lorenzo-Seva, Timmerman &amp; Kiers, 2011), see <see cref="HullMethod"/>.</summary>
+    Hull,
     /// <summary>Result only: the count was fixed by <see cref="DimensionOptions.FixedFactors"/>. Not a valid option value.</summary>
     Fixed,
 }
@@ -35,9 +45,9 @@ public sealed record DimensionOptions
     /// <c>PipelineSettings.Seed</c>).</summary>
     public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
-    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.Parallel"/>.
+    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.ParallelReduced"/>.
     /// <see cref="RetentionRule.Fixed"/> is not allowed here (use <see cref="FixedFactors"/>).</summary>
-    public RetentionRule FactorsRule { get; init; } = RetentionRule.Parallel;
+    public RetentionRule FactorsRule { get; init; } = RetentionRule.ParallelReduced;
 
     /// <summary>When set, retain exactly this many dimensions (1..p) whatever the rules say; default null.</summary>
     public int? FixedFactors { get; init; }

@@ -8,7 +8,19 @@ namespace ItemReduce.Core.Dimensions;
 /// <param name="Map">Velicer's MAP (squared partial correlations).</param>
 /// <param name="MapRevised">Revised MAP with fourth powers (Velicer, Eaton &amp; Fava, 2000).</param>
 /// <param name="Kaiser">Eigenvalues above 1 (for comparison only).</param>
-public sealed record RuleCounts(int Parallel, int? ParallelReduced, int Map, int MapRevised, int Kaiser);
+/// <param name="EmpiricalKaiser">Empirical Kaiser criterion (Braeken &amp; van Assen, 2017).</param>
+/// <param name="ComparisonData">Comparison data (Ruscio &amp; Roche, 2012), or null when not computed (fewer than 3 items).</param>
+public sealed record RuleCounts(int Parallel, int? ParallelReduced, int Map, int MapRevised, int Kaiser, int EmpiricalKaiser, int? ComparisonData)
+{
+    /// <summary>Parallel analysis on the full matrix against the mean (not the percentile) of the reference.</summary>
+    public int? ParallelMean { get; init; }
+
+    /// <summary>Parallel analysis on the reduced matrix against the mean of the reference, or null.</summary>
+    public int? ParallelReducedMean { get; init; }
+
+    /// <summary>The Hull method (Lorenzo-Seva, Timmerman &amp; Kiers, 2011), or null when not computed (fewer than 3 items).</summary>
+    public int? Hull { get; init; }
+}
 
 /// <summary>One row per component for tables and charts (scree plot with parallel-analysis reference).</summary>
 /// <param name="Component">1-based component number.</param>
@@ -16,7 +28,12 @@ public sealed record RuleCounts(int Parallel, int? ParallelReduced, int Map, int
 /// <param name="ReferenceMean">Mean reference eigenvalue.</param>
 /// <param name="ReferencePercentile">Reference eigenvalue at the requested percentile.</param>
 /// <param name="Retained">True for the first <see cref="DimensionResult.Retained"/> components.</param>
-public sealed record ComponentRow(int Component, double Observed, double ReferenceMean, double ReferencePercentile, bool Retained);
+/// <param name="EmpiricalKaiserReference">Reference eigenvalue of the empirical Kaiser criterion.</param>
+/// <param name="ComparisonRmsr">Comparison data fit: mean RMSR of the eigenvalues of samples from a population with
+/// exactly this many factors (row c = c factors), or null when that population was not tried.</param>
+/// <param name="ComparisonPValue">One-sided Mann–Whitney p-value of "this many factors fit better than one fewer", or null.</param>
+public sealed record ComponentRow(int Component, double Observed, double ReferenceMean, double ReferencePercentile, bool Retained,
+    double EmpiricalKaiserReference, double? ComparisonRmsr, double? ComparisonPValue);
 
 /// <summary>
 /// Everything the dimensions stage found. Conventions: p = number of analysed items; eigenvalue arrays have
@@ -92,6 +109,15 @@ public sealed record DimensionResult
     /// <summary>Bartlett's test of sphericity.</summary>
     public required BartlettSphericityResult Bartlett { get; init; }
 
+    /// <summary>Reference eigenvalues of the empirical Kaiser criterion (length p).</summary>
+    public required double[] EmpiricalKaiserReferences { get; init; }
+
+    /// <summary>Comparison-data fit curve and tests, or null when not computed (fewer than 3 items).</summary>
+    public ComparisonDataResult? ComparisonData { get; init; }
+
+    /// <summary>Hull-method fit curve and selection, or null when not computed (fewer than 3 items).</summary>
+    public HullResult? Hull { get; init; }
+
     /// <summary>MAP curve (squared partials), index m = components removed, starting at 0.</summary>
     public required double[] MapCurve { get; init; }
 
@@ -103,5 +129,8 @@ public sealed record DimensionResult
 
     /// <summary>Per-component rows (for an eigenvalue table and a scree / parallel-analysis chart).</summary>
     public IReadOnlyList<ComponentRow> Components =>
-        Eigenvalues.Select((l, c) => new ComponentRow(c + 1, l, ReferenceMean[c], ReferencePercentile[c], c < Retained)).ToList();
+        Eigenvalues.Select((l, c) => new ComponentRow(c + 1, l, ReferenceMean[c], ReferencePercentile[c], c < Retained,
+            EmpiricalKaiserReferences[c],
+            ComparisonData is { } cd && c < cd.MeanRmsr.Length ? cd.MeanRmsr[c] : null,
+            ComparisonData is { } cp && c < cp.PValues.Length && c > 0 ? cp.PValues[c] : null)).ToList();
 }

@@ -15,6 +15,10 @@ public enum ReferenceKind
     /// <summary>The observed data with each item's answers shuffled independently across respondents
     /// (Buja &amp; Eyuboglu, 1992), keeping every item's distribution.</summary>
     Permutation,
+    /// <summary>Polychoric correlations of independent ordinal items with the observed marginal distributions
+    /// (Garrido, Abad &amp; Ponsoda, 2013), drawn from their large-sample distribution
+    /// (<see cref="PolychoricNullDistribution"/>). Default for polychoric correlations.</summary>
+    Ordinal,
 }
 
 /// <summary>Settings of <see cref="ParallelAnalysis"/>.</summary>
@@ -115,6 +119,7 @@ public static class ParallelAnalysis
     internal const ulong PermutationPurpose = 0x5045524D; // "PERM"
     internal const ulong BruteForcePurpose = 0x42525554;  // "BRUT"
     internal const ulong SubsamplePurpose = 0x50535542;   // "PSUB"
+    internal const ulong OrdinalPurpose = 0x4F524449;     // "ORDI"
 
     /// <summary>Normal-reference eigenvalues for <paramref name="respondents"/> × <paramref name="items"/> data.</summary>
     /// <exception cref="ArgumentException">items &lt; 1, respondents ≤ items, or invalid options.</exception>
@@ -128,6 +133,27 @@ public static class ParallelAnalysis
         int p = items, df = respondents - 1;
         return Run(p, options with { Reference = ReferenceKind.Normal }, NormalPurpose, () => new double[p * p],
             (rng, scratch, r) => BartlettWishartSampler.SampleCorrelationInto(p, df, rng, scratch, r));
+    }
+
+    /// <summary>Ordinal-reference eigenvalues (<see cref="ReferenceKind.Ordinal"/>) for <paramref name="respondents"/>
+    /// respondents and items with the information factors <paramref name="information"/>
+    /// (<see cref="PolychoricNullDistribution.InformationFactors"/>).</summary>
+    /// <exception cref="ArgumentException">No items, a factor outside (0, 1], respondents ≤ items, or invalid options.</exception>
+    public static ParallelAnalysisReference OrdinalReference(int respondents, IReadOnlyList<double> information, ParallelAnalysisOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(information);
+        ArgumentNullException.ThrowIfNull(options);
+        options.Validate();
+        int p = information.Count;
+        if (p < 1) throw new ArgumentException("At least one item is needed.", nameof(information));
+        if (information.Any(x => !(x > 0 && x <= 1)))
+            throw new ArgumentException("Information factors must lie in (0, 1].", nameof(information));
+        if (respondents <= p)
+            throw new ArgumentException($"The ordinal reference needs more respondents than items; got n = {respondents}, p = {p}.", nameof(respondents));
+        int df = respondents - 1;
+        var inverseRoot = information.Select(x => 1 / Math.Sqrt(x)).ToArray();
+        return Run(p, options with { Reference = ReferenceKind.Ordinal }, OrdinalPurpose, () => new double[p * p],
+            (rng, scratch, r) => PolychoricNullDistribution.SampleInto(p, df, inverseRoot, rng, scratch, r));
     }
 
     /// <summary>Permutation-reference eigenvalues: every replicate shuffles each item's answers independently

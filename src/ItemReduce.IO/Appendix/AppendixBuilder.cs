@@ -218,11 +218,19 @@ public static class AppendixBuilder
     {
         b.Heading(1, "4. Number of dimensions");
         var pa = d.Reference;
-        string refKind = pa.Kind == ReferenceKind.Permutation
-            ? "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)" +
-              (pa.Subsampled ? Inv($"; to keep the cost independent of the sample size, every shuffled data set was built from the same seeded random subsample of {pa.PermutedRespondents} of the {r.Analysed.RespondentCount} respondents, which makes the reference somewhat conservative") : "")
-            : Inv($"uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition");
-        b.Para(Inv($"Parallel analysis compared each eigenvalue of the correlation matrix with the mean and the {pa.PercentileLevel}th percentile of the same eigenvalue in {pa.Replicates} {refKind}. ") +
+        string refKind = pa.Kind switch
+        {
+            ReferenceKind.Permutation => "data sets in which each item's answers were shuffled independently (which keeps every item's distribution and removes all correlation)" +
+              (pa.Subsampled ? Inv($"; to keep the cost independent of the sample size, every shuffled data set was built from the same seeded random subsample of {pa.PermutedRespondents} of the {r.Analysed.RespondentCount} respondents, which makes the reference somewhat conservative") : ""),
+            ReferenceKind.Ordinal => Inv($"sets of polychoric correlations of unrelated ordinal items with the observed answer distributions (n = {d.EffectiveRespondents}), as recommended for ordinal items by Garrido, Abad and Ponsoda (2013); they were drawn from the large-sample distribution of the polychoric estimate (a Wishart draw rescaled by each item's information), which the project checked against simulated ordinal data"),
+            _ => Inv($"sets of uncorrelated normal data of the same size (n = {d.EffectiveRespondents}, {d.Eigenvalues.Length} variables), drawn directly as Wishart matrices by Bartlett's decomposition"),
+        };
+        b.Para(Inv($"Parallel analysis compared each eigenvalue of the correlation matrix, and of the reduced matrix with squared multiple correlations on the diagonal, with the mean and the {pa.PercentileLevel}th percentile of the same eigenvalue in {pa.Replicates} {refKind}. ") +
+               (d.ComparisonData is { } cdInfo
+                   ? Inv($"Comparison data (Ruscio & Roche, 2012) drew {cdInfo.Samples} samples of n = {d.EffectiveRespondents} from populations with 1, 2, … common factors fitted to the observed correlations (multivariate normal populations, sampled as Wishart matrices) and added factors while the eigenvalues of the samples matched the observed eigenvalues significantly better (one-sided Mann–Whitney test, α = {cdInfo.Alpha:0.00}). ")
+                   : "") +
+               "The empirical Kaiser criterion (Braeken & van Assen, 2017) compared each eigenvalue with a reference that accounts for the sample size and for the variance taken by the larger eigenvalues. " +
+               (d.Hull is not null ? Inv($"The Hull method (Lorenzo-Seva, Timmerman & Kiers, 2011) compared the fit (common part accounted for) of solutions with 0 to {d.Hull.Fit.Length - 1} factors against their number of free parameters and chose the solution where the upper boundary of that plot bends most. ") : "") +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
         int p = d.Eigenvalues.Length;
         var comp = Enumerable.Range(1, p).Select(c => (double)c).ToList();
@@ -232,7 +240,7 @@ public static class AppendixBuilder
             new(Inv($"Random-data {pa.PercentileLevel}th percentile"), comp, d.ReferencePercentile, SeriesStyle.Line),
             new("Random-data mean", comp, d.ReferenceMean, SeriesStyle.Dashed),
         };
-        b.Figure(Inv($"Scree plot of the eigenvalues of the correlation matrix with the parallel-analysis references. Components above the percentile line are retained; here {d.ByRule.Parallel}."),
+        b.Figure(Inv($"Scree plot of the eigenvalues of the correlation matrix with the parallel-analysis references; {d.ByRule.Parallel} component(s) lie above the percentile line."),
             new ChartSpec(ChartKind.Line, "Component", "Eigenvalue", series));
         int show = Math.Min(p, Math.Max(10, d.Retained + 3));
         var rows = Enumerable.Range(0, show).Select(c => new TableRow(
@@ -249,22 +257,52 @@ public static class AppendixBuilder
             rows, "Reduced: squared multiple correlations on the diagonal (common-factor variant). All eigenvalues are in eigenvalues.csv.");
         var mapRows = new List<TableRow>
         {
-            Row("Parallel analysis (principal components)", Integer(d.ByRule.Parallel)),
-            Row("Parallel analysis (reduced matrix)", d.ByRule.ParallelReduced is int pr ? Integer(pr) : "—"),
+            Row(Inv($"Parallel analysis, reduced matrix, P{pa.PercentileLevel} (default)"), d.ByRule.ParallelReduced is int pr ? Integer(pr) : "—"),
+            Row(Inv($"Parallel analysis, principal components, P{pa.PercentileLevel}"), Integer(d.ByRule.Parallel)),
+            Row("Parallel analysis, reduced matrix, mean", d.ByRule.ParallelReducedMean is int prm ? Integer(prm) : "—"),
+            Row("Parallel analysis, principal components, mean", d.ByRule.ParallelMean is int pm ? Integer(pm) : "—"),
+            Row("Comparison data", d.ByRule.ComparisonData is int cdc ? Integer(cdc) : "—"),
+            Row("Empirical Kaiser criterion", Integer(d.ByRule.EmpiricalKaiser)),
+            Row("Hull method (for comparison only; see the note)", d.ByRule.Hull is int hc ? Integer(hc) : "—"),
             Row("MAP, squared partial correlations (1976)", Integer(d.ByRule.Map)),
             Row("MAP, fourth-power partial correlations (2000)", Integer(d.ByRule.MapRevised)),
             Row("Eigenvalue > 1 (reference only)", Integer(d.ByRule.Kaiser)),
         };
-        b.Table("Number of dimensions indicated by each rule", [new("Rule"), new("Dimensions", ColumnAlignment.Right)], mapRows);
-        b.Para("**Decision.** " + d.Reason + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));
+        b.Table("Number of dimensions indicated by each rule", [new("Rule"), new("Dimensions", ColumnAlignment.Right)], mapRows,
+            d.Hull is null ? null : Inv($"The Hull method as implemented here found the planted number of factors in only {RetentionStudyAccuracy.HullOverall * 100:0}% of the project's simulated surveys (it often keeps too few); its count is shown for comparison, not as a recommendation."));
+        if (d.ComparisonData is { } cd)
+            b.Table("Comparison data: fit of populations with k factors",
+                [new("k", ColumnAlignment.Right), new("Mean RMSR of eigenvalues", ColumnAlignment.Right), new("p (k better than k − 1)", ColumnAlignment.Right)],
+                Enumerable.Range(0, cd.MeanRmsr.Length).Select(c => Row(Integer(c + 1), Fixed(cd.MeanRmsr[c], 4), c == 0 ? "—" : cd.PValues[c] < 0.001 ? "< .001" : Fixed(cd.PValues[c], 3))).ToList(),
+                "RMSR: root mean squared difference between the eigenvalues of samples from the k-factor population and the observed eigenvalues. The fit curve is also in eigenvalues.csv (comparison_rmsr, comparison_p_value).");
+        string why = d.RuleUsed == RetentionRule.ParallelReduced
+            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of ten rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
+              " Accuracy was lowest with three items per factor, strongly correlated factors (r = .5) and 200 respondents."
+            : "";
+        b.Para("**Decision.** " + d.Reason + why + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));
         refs.Add(MethodReferences.Horn1965);
         refs.Add(MethodReferences.Glorfeld1995);
         refs.Add(MethodReferences.Velicer1976);
         refs.Add(MethodReferences.VelicerEatonFava2000);
         refs.Add(MethodReferences.Kaiser1960);
+        refs.Add(MethodReferences.HumphreysIlgen1969);
+        refs.Add(MethodReferences.BraekenVanAssen2017);
+        if (d.Hull is not null) refs.Add(MethodReferences.LorenzoSevaTimmermanKiers2011);
+        if (d.ComparisonData is not null)
+        {
+            refs.Add(MethodReferences.RuscioRoche2012);
+            refs.Add(MethodReferences.MannWhitney1947);
+            refs.Add(MethodReferences.Bartlett1933);
+            refs.Add(MethodReferences.MarsagliaTsang2000);
+        }
         if (pa.Kind == ReferenceKind.Permutation) refs.Add(MethodReferences.BujaEyuboglu1992);
         else
         {
+            if (pa.Kind == ReferenceKind.Ordinal)
+            {
+                refs.Add(MethodReferences.GarridoAbadPonsoda2013);
+                refs.Add(MethodReferences.Olsson1979);
+            }
             refs.Add(MethodReferences.Bartlett1933);
             refs.Add(MethodReferences.MarsagliaTsang2000);
         }

@@ -7,6 +7,13 @@ namespace ItemReduce.IO.Appendix;
 /// </summary>
 public static class MethodReferences
 {
+    public const string RuscioRoche2012 = "Ruscio, J., & Roche, B. (2012). Determining the number of factors to retain in an exploratory factor analysis using comparison data of known factorial structure. Psychological Assessment, 24(2), 282–292.";
+    public const string BraekenVanAssen2017 = "Braeken, J., & van Assen, M. A. L. M. (2017). An empirical Kaiser criterion. Psychological Methods, 22(3), 450–466.";
+    public const string GarridoAbadPonsoda2013 = "Garrido, L. E., Abad, F. J., & Ponsoda, V. (2013). A new look at Horn's parallel analysis with ordinal variables. Psychological Methods, 18(4), 454–474.";
+    public const string MannWhitney1947 = "Mann, H. B., & Whitney, D. R. (1947). On a test of whether one of two random variables is stochastically larger than the other. Annals of Mathematical Statistics, 18(1), 50–60.";
+    public const string AuerswaldMoshagen2019 = "Auerswald, M., & Moshagen, M. (2019). How to determine the number of factors to retain in exploratory factor analysis: A comparison of extraction methods under realistic conditions. Psychological Methods, 24(4), 468–491.";
+    public const string LorenzoSevaTimmermanKiers2011 = "Lorenzo-Seva, U., Timmerman, M. E., & Kiers, H. A. L. (2011). The Hull method for selecting the number of common factors. Multivariate Behavioral Research, 46(2), 340–364.";
+    public const string HumphreysIlgen1969 = "Humphreys, L. G., & Ilgen, D. R. (1969). Note on a criterion for the number of common factors. Educational and Psychological Measurement, 29(3), 571–578.";
     public const string Bartlett1933 = "Bartlett, M. S. (1933). On the theory of statistical regression. Proceedings of the Royal Society of Edinburgh, 53, 260–283.";
     public const string Bartlett1950 = "Bartlett, M. S. (1950). Tests of significance in factor analysis. British Journal of Psychology (Statistical Section), 3(2), 77–85.";
     public const string BlackmanVigna2021 = "Blackman, D., & Vigna, S. (2021). Scrambled linear pseudorandom number generators. ACM Transactions on Mathematical Software, 47(4), Article 36.";

@@ -10,12 +10,16 @@ public static class DimensionTables
 
     /// <summary>
     /// <c>eigenvalues.csv</c>: component, observed, reference_mean, reference_percentile, retained; then the
-    /// reduced-matrix (SMC diagonal) eigenvalue and its references, and the share of variance.
+    /// reduced-matrix (SMC diagonal) eigenvalue and its references, and the share of variance; then the empirical Kaiser
+    /// reference and the comparison-data fit (row c: mean RMSR of a population with c factors and the p-value of
+    /// "c factors fit better than c − 1"; empty where that population was not tried).
     /// </summary>
     public static string Eigenvalues(DimensionResult d)
     {
         var w = new SafeCsvWriter(["component", "observed", "reference_mean", "reference_percentile", "retained",
-            "share_of_variance", "reduced_observed", "reduced_reference_mean", "reduced_reference_percentile"]);
+            "share_of_variance", "reduced_observed", "reduced_reference_mean", "reduced_reference_percentile",
+            "empirical_kaiser_reference", "comparison_rmsr", "comparison_p_value"]);
+        var rows = d.Components;
         int p = d.Eigenvalues.Length;
         var share = d.ProportionOfVariance;
         for (int c = 0; c < p; c++)
@@ -23,7 +27,9 @@ public static class DimensionTables
             w.AppendRow([Integer(c + 1), Number(d.Eigenvalues[c], Decimals), Number(d.ReferenceMean[c], Decimals),
                 Number(d.ReferencePercentile[c], Decimals), Bool(c < d.Retained), Number(share[c], Decimals),
                 Number(At(d.ReducedEigenvalues, c), Decimals), Number(At(d.ReducedReferenceMean, c), Decimals),
-                Number(At(d.ReducedReferencePercentile, c), Decimals)]);
+                Number(At(d.ReducedReferencePercentile, c), Decimals),
+                Number(rows[c].EmpiricalKaiserReference, Decimals), Number(rows[c].ComparisonRmsr ?? double.NaN, Decimals),
+                Number(rows[c].ComparisonPValue ?? double.NaN, Decimals)]);
         }
         return w.ToString();
     }

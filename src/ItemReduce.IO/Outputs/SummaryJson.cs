@@ -148,6 +148,11 @@ public static class SummaryJson
                 ["map"] = d.ByRule.Map,
                 ["mapRevised"] = d.ByRule.MapRevised,
                 ["kaiser"] = d.ByRule.Kaiser,
+                ["parallelMean"] = d.ByRule.ParallelMean,
+                ["parallelReducedMean"] = d.ByRule.ParallelReducedMean,
+                ["empiricalKaiser"] = d.ByRule.EmpiricalKaiser,
+                ["comparisonData"] = d.ByRule.ComparisonData,
+                ["hull"] = d.ByRule.Hull,
             };
             o["indicated"] = d.Retained;
             o["rule"] = RuleName(d.RuleUsed);

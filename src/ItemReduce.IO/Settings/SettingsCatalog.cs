@@ -162,14 +162,16 @@ public static class SettingsCatalog
         new()
         {
             Name = "reference", Kind = SettingKind.Choice, Commands = Commands.Correlating, Concerns = Concerns.Dimensions, Group = DimensionsGroup,
-            Choices = ["normal", "permutation"], Default = Dimensions.Reference == ReferenceKind.Normal ? "normal" : "permutation", Example = "permutation",
-            Help = "Parallel-analysis reference: normal (Wishart draws) or permutation (each item shuffled; above 50,000 respondents within one seeded random subsample of 50,000).",
+            Choices = ["normal", "ordinal", "permutation"], Default = null,
+            DefaultText = "normal; ordinal with --correlation polychoric", Example = "permutation",
+            Help = "Parallel-analysis reference: normal (Wishart draws), ordinal (large-sample distribution of polychoric correlations of unrelated items with the observed answer distributions) or permutation (each item shuffled; above 50,000 respondents within one seeded random subsample of 50,000).",
         },
         new()
         {
             Name = "factors-rule", Kind = SettingKind.Choice, Commands = Commands.Correlating, Concerns = Concerns.Dimensions, Group = DimensionsGroup,
-            Choices = ["parallel", "map", "kaiser"], Default = RuleName(Dimensions.FactorsRule), Example = "map",
-            Help = "Rule that sets the number of factors.",
+            Choices = ["parallel-reduced", "parallel", "map", "kaiser", "empirical-kaiser", "comparison-data"], Default = RuleName(Dimensions.FactorsRule),
+            Example = "comparison-data",
+            Help = "Rule that sets the number of factors: parallel-reduced (parallel analysis of the reduced matrix, chosen by the project's simulation study), parallel (principal components), map, kaiser, empirical-kaiser or comparison-data.",
         },
         new()
         {
@@ -239,10 +241,14 @@ public static class SettingsCatalog
     /// <summary>Option value of a retention rule.</summary>
     public static string RuleName(RetentionRule rule) => rule switch
     {
+        RetentionRule.Parallel => "parallel",
+        RetentionRule.ParallelReduced => "parallel-reduced",
         RetentionRule.Map => "map",
         RetentionRule.Kaiser => "kaiser",
-        RetentionRule.Fixed => "fixed",
-        _ => "parallel",
+        RetentionRule.EmpiricalKaiser => "empirical-kaiser",
+        RetentionRule.ComparisonData => "comparison-data",
+        RetentionRule.Hull => "hull",
+        _ => "fixed",
     };
 
     /// <summary>Option value of an extraction method.</summary>

@@ -43,12 +43,20 @@ public static class SettingsMapping
         {
             Replicates = (int)v.Integer("replicates")!.Value,
             Percentile = v.Number("percentile"),
-            Reference = v.Text("reference") == "permutation" ? ReferenceKind.Permutation : ReferenceKind.Normal,
+            Reference = (v.Text("reference") ?? (v.Text("correlation") == "polychoric" ? "ordinal" : "normal")) switch
+            {
+                "permutation" => ReferenceKind.Permutation,
+                "ordinal" => ReferenceKind.Ordinal,
+                _ => ReferenceKind.Normal,
+            },
             FactorsRule = v.Text("factors-rule") switch
             {
+                "parallel" => RetentionRule.Parallel,
                 "map" => RetentionRule.Map,
                 "kaiser" => RetentionRule.Kaiser,
-                _ => RetentionRule.Parallel,
+                "empirical-kaiser" => RetentionRule.EmpiricalKaiser,
+                "comparison-data" => RetentionRule.ComparisonData,
+                _ => RetentionRule.ParallelReduced,
             },
             FixedFactors = v.Integer("factors") is ulong k ? (int)k : null,
             MaxDegreeOfParallelism = v.Integer("threads") is ulong t ? (int)t : -1,

@@ -44,6 +44,35 @@ public class RunCommandTests
     }
 
     [Fact]
+    public void Default_rule_is_reduced_matrix_parallel_analysis_and_polychoric_gets_the_ordinal_reference()
+    {
+        // Defaults chosen in issue 14 (README, "Choosing the number of dimensions"); the new rules are reported.
+        using var s = new TempSurvey().WithCodebook(6).WithResponses(TempSurvey.ValidResponses(200, 6));
+        var r = s.Run("--replicates", "40", "--correlation", "polychoric");
+        Assert.True(r.Code == 0, r.Err);
+        var sum = Summary(s);
+        var factors = sum.GetProperty("factors");
+        Assert.Equal("parallel-reduced", factors.GetProperty("rule").GetString());
+        foreach (string rule in new[] { "parallelMean", "parallelReducedMean", "empiricalKaiser", "comparisonData" })
+            Assert.Equal(JsonValueKind.Number, factors.GetProperty("byRule").GetProperty(rule).ValueKind);
+        Assert.Contains("\"ordinal\"", File.ReadAllText(Path.Combine(s.Out, "summary.json")));
+        var header = File.ReadLines(Path.Combine(s.Out, "eigenvalues.csv")).First();
+        Assert.EndsWith("empirical_kaiser_reference,comparison_rmsr,comparison_p_value", header);
+    }
+
+    [Theory]
+    [InlineData("comparison-data", "comparison-data")]
+    [InlineData("empirical-kaiser", "empirical-kaiser")]
+    [InlineData("parallel", "parallel")]
+    public void Factors_rule_choices_reach_the_decision(string option, string reported)
+    {
+        using var s = new TempSurvey().WithCodebook(6).WithResponses(TempSurvey.ValidResponses(200, 6));
+        var r = s.Run("--replicates", "40", "--factors-rule", option);
+        Assert.True(r.Code == 0, r.Err);
+        Assert.Equal(reported, Summary(s).GetProperty("factors").GetProperty("rule").GetString());
+    }
+
+    [Fact]
     public void Utf8_bom_and_utf16_files_are_read()
     {
         using var a = new TempSurvey().WithCodebook().WithResponses(TempSurvey.ValidResponses(40), new UTF8Encoding(true));

@@ -160,7 +160,7 @@ public class SettingsModelTests
 
         // Per-scale lengths: the sentence gives each scale's kept and requested length, as counted from the kept items.
         string text = string.Join("\n", doc.Blocks.OfType<ParagraphBlock>().Select(p => p.Text));
-        Assert.DoesNotContain("up to", text);
+        Assert.DoesNotMatch(@"up to \d+ (items )?per scale", text); // the old summary that hid per-scale lengths
         var kept = sf.Judgements.Where(j => j.Decision == ItemReduce.Core.ShortForm.ItemDecision.Keep).GroupBy(j => j.Scale).ToDictionary(g => g.Key, g => g.Count());
         Assert.Equal(2, kept["alpha"]);
         Assert.Equal(3, kept["beta"]);

@@ -29,8 +29,10 @@ public class DimensionAnalysisTests
         Assert.Equal(k, res.ByRule.Parallel);
         Assert.Equal(k, res.ByRule.ParallelReduced);
         Assert.Equal(k, res.Retained);
-        Assert.Equal(RetentionRule.Parallel, res.RuleUsed);
+        Assert.Equal(RetentionRule.ParallelReduced, res.RuleUsed);
         Assert.Equal(k, res.ByRule.Map);
+        Assert.Equal(k, res.ByRule.EmpiricalKaiser);
+        Assert.Equal(k, res.ByRule.ComparisonData);
     }
 
     [Fact]
@@ -78,7 +80,9 @@ public class DimensionAnalysisTests
         var rows = res.Components;
         Assert.Equal([1, 2, 3, 4], rows.Select(r => r.Component));
         Assert.Equal(res.Retained, rows.Count(r => r.Retained));
-        Assert.True(rows.Take(res.Retained).All(r => r.Observed > r.ReferencePercentile));
+        Assert.Equal(RetentionRule.ParallelReduced, res.RuleUsed);
+        Assert.True(Enumerable.Range(0, res.Retained).All(c => res.ReducedEigenvalues[c] > res.ReducedReferencePercentile[c]));
+        Assert.Equal(res.Retained, res.ByRule.ParallelReduced);
         Assert.Contains(res.Warnings, w => w.Message == KaiserCriterion.Caution);
         Assert.False(string.IsNullOrWhiteSpace(res.Reason));
         Assert.Equal(res.MapCurve.Length, res.MapRevisedCurve.Length);
