@@ -317,7 +317,7 @@ public static class AppendixBuilder
         }
         b.Table(ShortFormTables.IsOblique(s) ? "Rotated pattern loadings" : "Rotated loadings", columns, rows,
             "Factors: " + string.Join(", ", Enumerable.Range(0, k).Select(f => $"F{f + 1} = {s.FactorLabels[f]}")) + ". " +
-            Inv($"Loadings with absolute value below {Bounded(BlankBelow)} are left blank. h² = communality. (R) = reverse-keyed, rescored before analysis. Items kept in the short form are shaded. ") +
+            Inv($"Loadings with absolute value below {Bounded(BlankBelow)} are left blank. h² = communality. (R) = reverse-keyed, rescored before analysis. Items kept in the short form are highlighted (bold; also shaded in the PDF). ") +
             "Full loadings are in loadings.csv" + (ShortFormTables.IsOblique(s) ? ", structure loadings in structure-loadings.csv." : "."));
         if (ShortFormTables.IsOblique(s) && k > 1)
         {

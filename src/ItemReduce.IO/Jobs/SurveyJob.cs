@@ -84,6 +84,8 @@ public static class SurveyJob
             var doc = Appendix.AppendixBuilder.Build(settings, survey, result);
             Write("tables.md", Report.Export.MarkdownTablesWriter.Write(doc));
             Write("tables.tex", Report.Export.LatexTablesWriter.Write(doc));
+            staging.WriteStream("tables.docx", stream => Report.Export.DocxTablesWriter.Write(doc, stream));
+            files.Add("tables.docx");
             if (!settings.NoPdf)
             {
                 log.Step("drawing the appendix");
