@@ -92,6 +92,16 @@ public class PresentationTests
         }
 
         [Fact]
+        public void Screening_rules_are_numbered_one_two_three_without_gaps()
+        {
+            // The sample has 5 subscales, too few for the even-odd rule to flag, so that rule is left out of the list.
+            string rule = run.Summary.GetProperty("screening").GetProperty("ruleDescription").GetString()!;
+            var numbers = System.Text.RegularExpressions.Regex.Matches(rule, @"\((\d+)\) ").Select(m => int.Parse(m.Groups[1].Value, CultureInfo.InvariantCulture)).ToList();
+            Assert.Equal(Enumerable.Range(1, numbers.Count), numbers);
+            Assert.True(numbers.Count >= 3);
+        }
+
+        [Fact]
         public void Terminal_summary_draws_aligned_tables()
         {
             var blocks = RunSummary.Blocks(JsonSerializer.Deserialize<System.Text.Json.Nodes.JsonObject>(run.Summary.GetRawText())!, "/tmp/x",
