@@ -35,6 +35,9 @@ internal static class ChartPainter
 
     internal static Plot Build(ChartSpec spec)
     {
+        // Before any font lookup: ScottPlot caches the typeface it finds for a name, so an unregistered alias would stick
+        // to a system font for the rest of the process.
+        ChartFontRegistration.EnsureRegistered();
         var plot = new Plot();
         plot.Font.Set(ReportFonts.ChartFamilyAlias);
         plot.FigureBackground.Color = Colors.White;
