@@ -2,6 +2,7 @@ using System.CommandLine;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.IO;
 using ItemReduce.IO.Jobs;
+using ItemReduce.IO.Outputs;
 using ItemReduce.IO.Settings;
 
 namespace ItemReduce.Cli;
@@ -15,9 +16,14 @@ public static class CliApp
     public const int Ok = 0, InternalFailure = 1, InputProblem = 2;
 
     /// <summary>Runs the command line with the given writers.</summary>
-    public static int Run(string[] args, TextWriter stdout, TextWriter stderr, bool stderrIsTerminal = false)
+    /// <param name="args">Arguments.</param>
+    /// <param name="stdout">Standard output.</param>
+    /// <param name="stderr">Standard error.</param>
+    /// <param name="stderrIsTerminal">True when stderr is a terminal (progress messages are shown).</param>
+    /// <param name="stdoutIsTerminal">True when stdout is a terminal (the summary is drawn as tables).</param>
+    public static int Run(string[] args, TextWriter stdout, TextWriter stderr, bool stderrIsTerminal = false, bool stdoutIsTerminal = false)
     {
-        var root = Build(stdout, stderr, stderrIsTerminal);
+        var root = Build(stdout, stderr, stderrIsTerminal, stdoutIsTerminal);
         var config = new InvocationConfiguration { Output = stdout, Error = stderr, EnableDefaultExceptionHandler = false };
         bool verbose = args.Contains("--verbose");
         try
@@ -45,7 +51,7 @@ public static class CliApp
         return InputProblem;
     }
 
-    private static RootCommand Build(TextWriter stdout, TextWriter stderr, bool stderrIsTerminal)
+    internal static RootCommand Build(TextWriter stdout, TextWriter stderr, bool stderrIsTerminal, bool stdoutIsTerminal)
     {
         var root = new RootCommand("ItemReduce: screen respondents, decide the number of dimensions, trim an item bank to a reliable short form, and document every decision.");
         Add(Commands.Check, "Validate the responses and codebook and print a data summary. Writes nothing.", null);
@@ -56,6 +62,7 @@ public static class CliApp
             PipelineScope.Shorten);
         Add(Commands.Run, "The whole pipeline: screening, dimensions, factoring, reliability, short form and the methods appendix (appendix.pdf, tables.md, tables.tex).",
             PipelineScope.All);
+        HelpExamples.Install(root, stdout);
         return root;
 
         void Add(Commands command, string description, PipelineScope? scope)
@@ -77,8 +84,11 @@ public static class CliApp
                     if (!terminal.Quiet) WarningLines.Write(stderr, survey.Prepared.Warnings);
                     return Ok;
                 }
-                var result = SurveyJob.Run(job, scope.Value, stdout, log);
-                if (!terminal.Quiet) WarningLines.Write(stderr, RunWarnings.Of(result));
+                var outcome = SurveyJob.Run(job, scope.Value, log);
+                if (terminal.Json) stdout.Write(JsonOut.Serialize(outcome.Summary));
+                else SummaryConsole.Write(RunSummary.Blocks(outcome.Summary, outcome.OutDir, outcome.Files), stdout, stdoutIsTerminal);
+                stdout.Flush();
+                if (!terminal.Quiet) WarningLines.Write(stderr, RunWarnings.Of(outcome.Result));
                 return Ok;
             });
             root.Subcommands.Add(c);

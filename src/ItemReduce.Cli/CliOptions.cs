@@ -31,10 +31,10 @@ internal sealed class CliOptions
     /// <summary>Help text of a setting: its help, the allowed values and the default.</summary>
     internal static string Describe(Setting s)
     {
-        string text = s.Help;
+        string text = DefaultText(s) == RequiredText ? "[required] " + s.Help : s.Help;
         if (s.Kind is SettingKind.Integer or SettingKind.Number or SettingKind.Choice or SettingKind.Targets) text += $" Allowed: {s.Allowed}.";
         string? def = DefaultText(s);
-        if (def == RequiredText) text += " Required.";
+        if (def == RequiredText) text += " Give it on the command line or in the plan.";
         else if (def is not null && s.Kind != SettingKind.Flag) text += $" Default: {def}.";
         return text;
     }

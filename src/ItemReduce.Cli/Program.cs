@@ -10,7 +10,7 @@ internal static class Program
         // SIGINT (Ctrl+C) and SIGTERM: remove unfinished results, say so in one line, exit 130 / 143.
         using var interrupt = PosixSignalRegistration.Create(PosixSignal.SIGINT, ctx => Stop(ctx, "SIGINT", 130));
         using var terminate = PosixSignalRegistration.Create(PosixSignal.SIGTERM, ctx => Stop(ctx, "SIGTERM", 143));
-        return CliApp.Run(args, Console.Out, Console.Error, !Console.IsErrorRedirected);
+        return CliApp.Run(args, Console.Out, Console.Error, !Console.IsErrorRedirected, !Console.IsOutputRedirected);
     }
 
     private static void Stop(PosixSignalContext context, string signal, int code)

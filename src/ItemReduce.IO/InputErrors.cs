@@ -83,6 +83,10 @@ public static class InputErrors
     public static SurveyInputException HeaderOnly(string file) =>
         At(file, 2, null, "the file has a header but no data rows", "add at least one row per respondent");
 
+    public static SurveyInputException OnlySkippedRows(string file, int skipRows) =>
+        At(file, 2, null, $"the file ends within the {skipRows} row(s) after the header that --skip-rows skips",
+            "give --skip-rows the number of rows between the header and the first respondent");
+
     public static SurveyInputException DuplicateColumn(string file, string name, int first, int second) =>
         At(file, 1, name, $"the column name appears twice (columns {first} and {second})", "give every column a unique name");
 

@@ -56,6 +56,9 @@ public static class ResponseReader
         int idCol = ChooseIdColumn(path, header, position, codebook, options.IdColumn);
         var ignored = header.Where((h, c) => c != idCol && codebook.IndexOf(h) < 0).ToList();
 
+        for (int skipped = 0; skipped < options.SkipRows; skipped++)
+            if (!csv.Read()) throw InputErrors.OnlySkippedRows(path, options.SkipRows);
+
         var missing = new HashSet<string>(options.EffectiveMissingCodes.Select(m => m.Trim()), StringComparer.Ordinal) { "" };
         var builder = new ResponseMatrixBuilder(codebook.Items);
         // Ids seen so far; the line of a first occurrence is looked up again only when a duplicate is found.
@@ -72,7 +75,7 @@ public static class ResponseReader
                 if (id.Length == 0) throw InputErrors.EmptyId(path, csv.Line, header[idCol]);
             }
             else id = csv.Line.ToString(CultureInfo.InvariantCulture);
-            if (!seenIds.Add(id)) throw InputErrors.DuplicateId(path, csv.Line, header[Math.Max(idCol, 0)], id, FirstLineOf(path, delimiter, idCol, id));
+            if (!seenIds.Add(id)) throw InputErrors.DuplicateId(path, csv.Line, header[Math.Max(idCol, 0)], id, FirstLineOf(path, delimiter, idCol, id, options.SkipRows));
             for (int j = 0; j < p; j++)
             {
                 string raw = f[itemCol[j]];
@@ -97,10 +100,10 @@ public static class ResponseReader
 
     /// <summary>Line of the first record whose id is <paramref name="id"/> (re-reads the file; error path only: every
     /// record before the duplicate was valid, so the first match is the first occurrence).</summary>
-    private static long FirstLineOf(string path, char delimiter, int idCol, string id)
+    private static long FirstLineOf(string path, char delimiter, int idCol, string id, int skipRows)
     {
         using var csv = new CsvRecordReader(path, delimiter);
-        csv.Read(); // header
+        for (int r = 0; r <= skipRows; r++) csv.Read(); // header and skipped rows
         while (csv.Read())
             if (csv.Fields.Length > idCol && csv.Fields[idCol].Trim() == id) return csv.Line;
         return 0;

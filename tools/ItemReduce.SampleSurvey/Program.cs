@@ -96,6 +96,26 @@ for (int i = 0; i < m.RespondentCount; i++)
 }
 File.WriteAllText(Path.Combine(outDir, "responses.csv"), sb.ToString(), new UTF8Encoding(false));
 
+// The same answers as a survey platform might export them: two rows under the header hold each question's wording
+// and its answer scale, a submission-time column is added, and every missing answer is the code -99.
+// Read it with --skip-rows 2 --missing=-99 (the README's walkthrough and a test do).
+var export = new StringBuilder("respondent,submitted,route");
+foreach (var it in items) export.Append(',').Append(it.Name);
+export.Append("\n\"Respondent ID\",\"Submitted at\",\"Which route do you use most often?\"");
+foreach (var it in items) export.Append(",\"").Append(it.Text).Append('"');
+export.Append("\nsystem,system,single choice");
+foreach (var _ in items) export.Append(",1 = strongly disagree ... 5 = strongly agree");
+export.Append('\n');
+var start = new DateTime(2026, 9, 1, 7, 0, 0, DateTimeKind.Utc);
+foreach (var (line, i) in sb.ToString().Split('\n', StringSplitOptions.RemoveEmptyEntries).Skip(1).Select((l, i) => (l, i)))
+{
+    var cells = line.Split(',');
+    export.Append(cells[0]).Append(',').Append(start.AddMinutes(37 * i).ToString("yyyy-MM-dd HH:mm", inv)).Append(',').Append(cells[1]);
+    foreach (string c in cells.Skip(2)) export.Append(',').Append(c is "" or "NA" ? "-99" : c);
+    export.Append('\n');
+}
+File.WriteAllText(Path.Combine(outDir, "platform-export.csv"), export.ToString(), new UTF8Encoding(false));
+
 var cb = new StringBuilder("item,subscale,reverse,min,max,text\n");
 foreach (var it in items) cb.Append($"{it.Name},{it.Sub},{(it.Rev ? "true" : "false")},1,5,\"{it.Text}\"\n");
 File.WriteAllText(Path.Combine(outDir, "codebook.csv"), cb.ToString(), new UTF8Encoding(false));

@@ -70,14 +70,15 @@ internal static class ChiSquareTail
         return SpecialFunctions.GammaLowerRegularized(df / 2, x / 2);
     }
 
-    /// <summary>Upper tail <c>P(χ²_k &gt; x)</c>; 1 for x ≤ 0, NaN for NaN input or df ≤ 0.</summary>
+    /// <summary>Upper tail <c>P(χ²_k &gt; x)</c>; 1 for x ≤ 0, NaN for NaN input or df ≤ 0. Never above 1 (the series
+    /// can round to 1 + 2⁻⁵² near x = 0).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double UpperTail(double x, double df)
     {
         if (double.IsNaN(x) || !(df > 0)) return double.NaN;
         if (x <= 0) return 1;
         if (double.IsPositiveInfinity(x)) return 0;
-        return IsSumCase(x, df) ? WholeDfUpperTail(x, (int)df) : GammaUpperTail(x, df);
+        return Math.Min(1, IsSumCase(x, df) ? WholeDfUpperTail(x, (int)df) : GammaUpperTail(x, df));
     }
 
     /// <summary>The general path: Math.NET's regularised upper incomplete gamma function Γ(k/2, x/2)/Γ(k/2).</summary>

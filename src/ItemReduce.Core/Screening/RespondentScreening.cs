@@ -227,23 +227,25 @@ public static class RespondentScreening
     private static string Describe(ScreeningOptions o, bool robust, int runLimit, int p, EvenOddConsistency evenOdd)
     {
         var c = CultureInfo.InvariantCulture;
+        int rule = 0;
+        string Next() => "(" + (++rule).ToString(c) + ")"; // rules that do not apply are left out, so numbers stay consecutive
         var parts = new List<string>
         {
-            string.Format(c, "A respondent is marked for review when any of these holds. (1) The {0} squared Mahalanobis distance, computed on the items the respondent answered, " +
+            string.Format(c, "A respondent is marked for review when any of these holds. {2} The {0} squared Mahalanobis distance, computed on the items the respondent answered, " +
                 "exceeds the chi-square value with as many degrees of freedom as items answered that an attentive respondent from a multivariate normal population would exceed with probability {1}; " +
                 "the cutoff therefore grows with the number of items answered instead of using one fixed radius.",
-                robust ? "robust (reweighted FAST-MCD)" : "classical", o.CutoffP),
-            string.Format(c, "(2) The same answer is given to at least {0} consecutive items (of {1}).", runLimit, p),
+                robust ? "robust (reweighted FAST-MCD)" : "classical", o.CutoffP, Next()),
+            string.Format(c, "{2} The same answer is given to at least {0} consecutive items (of {1}).", runLimit, p, Next()),
         };
         if (o.FlatVariabilityLimit > 0)
-            parts.Add(string.Format(c, "(3) The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit));
+            parts.Add(string.Format(c, "{1} The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit, Next()));
         if (evenOdd.SplittableSubscales >= o.EvenOddFlagSubscales)
-            parts.Add(string.Format(c, "(4) The Spearman–Brown corrected correlation between the odd- and even-numbered halves of the subscales is below {0}, " +
-                "judged only when it rests on at least {1} subscales.", o.EvenOddMinimum, o.EvenOddFlagSubscales));
+            parts.Add(string.Format(c, "{2} The Spearman–Brown corrected correlation between the odd- and even-numbered halves of the subscales is below {0}, " +
+                "judged only when it rests on at least {1} subscales.", o.EvenOddMinimum, o.EvenOddFlagSubscales, Next()));
         else if (evenOdd.Applicable)
             parts.Add(string.Format(c, "Even-odd consistency is reported but raises no flag: with {0} subscales it is too noisy (at least {1} are required).",
                 evenOdd.SplittableSubscales, o.EvenOddFlagSubscales));
-        parts.Add(string.Format(c, "(5) More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit));
+        parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit, Next()));
         parts.Add("Even with no careless respondents, about " + (100 * o.CutoffP).ToString("0.###", c) + " % of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
                   "Flags are for human review, not automatic deletion: inspect each flagged respondent, report how many were set aside and why, " +
                   "and follow your ethics board and professional standards.");

@@ -138,11 +138,11 @@ public static class AppendixBuilder
         // Why a fixed radius fails.
         var hp = s.HalfPeakRegion;
         var xs = hp.Select(h => (double)h.Items).ToList();
-        var chart = new ChartSpec(ChartKind.Line, "Number of items answered (k)", "Share of respondents",
+        var chart = new ChartSpec(ChartKind.Line, "Number of items answered (k)", "Share of respondents (log scale)",
         [
             new ChartSeries("Inside the half-peak-density region (D² ≤ 2 ln 2)", xs, hp.Select(h => h.ShareInsideHalfPeak).ToList(), SeriesStyle.LineAndMarkers),
             new ChartSeries(Inv($"Beyond the χ² cutoff (p = {s.Options.CutoffP})"), xs, hp.Select(h => h.ShareBeyondCutoff).ToList(), SeriesStyle.Dashed),
-        ]) { Marker = new VerticalMarker(p, Inv($"this survey: {p} items")) };
+        ]) { Marker = new VerticalMarker(p, Inv($"this survey: {p} items")), LogY = true };
         var k1 = hp.FirstOrDefault(h => h.Items == 1);
         var k2 = hp.FirstOrDefault(h => h.Items == 2);
         var k9 = hp.FirstOrDefault(h => h.Items == 9);
@@ -355,7 +355,7 @@ public static class AppendixBuilder
         }
         b.Table(ShortFormTables.IsOblique(s) ? "Rotated pattern loadings" : "Rotated loadings", columns, rows,
             "Factors: " + string.Join(", ", Enumerable.Range(0, k).Select(f => $"F{f + 1} = {s.FactorLabels[f]}")) + ". " +
-            Inv($"Loadings with absolute value below {Bounded(BlankBelow)} are left blank. h² = communality. (R) = reverse-keyed, rescored before analysis. Items kept in the short form are shaded. ") +
+            Inv($"Loadings with absolute value below {Bounded(BlankBelow)} are left blank. h² = communality. (R) = reverse-keyed, rescored before analysis. Items kept in the short form are highlighted (bold; also shaded in the PDF). ") +
             "Full loadings are in loadings.csv" + (ShortFormTables.IsOblique(s) ? ", structure loadings in structure-loadings.csv." : "."));
         if (ShortFormTables.IsOblique(s) && k > 1)
         {

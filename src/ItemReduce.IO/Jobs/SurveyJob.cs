@@ -3,11 +3,16 @@ using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.IO.Jobs;
 
+/// <summary>What a finished job produced: the pipeline result, the summary.json model, the results folder (full path)
+/// and the names of the files written there.</summary>
+public sealed record JobOutcome(PipelineResult Result, System.Text.Json.Nodes.JsonObject Summary, string OutDir, IReadOnlyList<string> Files);
+
 /// <summary>Runs the pipeline for a job and writes its outputs atomically into the output folder.</summary>
 public static class SurveyJob
 {
-    /// <summary>Loads the data, runs the stages of <paramref name="scope"/> and writes their outputs into <see cref="JobSettings.Out"/>.</summary>
-    public static PipelineResult Run(JobSettings settings, PipelineScope scope, TextWriter stdout, ProgressLog log)
+    /// <summary>Loads the data, runs the stages of <paramref name="scope"/> and writes their outputs into <see cref="JobSettings.Out"/>.
+    /// Prints nothing on stdout; the caller shows the outcome (<see cref="RunSummary"/>).</summary>
+    public static JobOutcome Run(JobSettings settings, PipelineScope scope, ProgressLog log)
     {
         string?[] inputs = [settings.Responses, settings.Codebook, settings.Plan];
         OutputStaging.CheckDestination(settings.Out, settings.Force, inputs);
@@ -72,12 +77,15 @@ public static class SurveyJob
             Write("reliability.csv", ShortFormTables.Reliability(sf));
             Write("short-form-codebook.csv", ShortFormTables.ShortFormCodebook(items, sf));
         }
-        Write("summary.json", JsonOut.Serialize(SummaryJson.Build(settings, survey, result)));
+        var summary = SummaryJson.Build(settings, survey, result);
+        Write("summary.json", JsonOut.Serialize(summary));
         if (scope == PipelineScope.All)
         {
             var doc = Appendix.AppendixBuilder.Build(settings, survey, result);
             Write("tables.md", Report.Export.MarkdownTablesWriter.Write(doc));
             Write("tables.tex", Report.Export.LatexTablesWriter.Write(doc));
+            staging.WriteStream("tables.docx", stream => Report.Export.DocxTablesWriter.Write(doc, stream));
+            files.Add("tables.docx");
             if (!settings.NoPdf)
             {
                 log.Step("drawing the appendix");
@@ -88,11 +96,7 @@ public static class SurveyJob
         flags?.GetAwaiter().GetResult();
         staging.Commit();
 
-        string outDir = Path.GetFullPath(settings.Out);
-        stdout.WriteLine(Headline(result));
-        stdout.WriteLine($"Results written to {outDir}:");
-        foreach (string f in files.Order(StringComparer.Ordinal)) stdout.WriteLine("  " + Path.Combine(outDir, f));
-        return result;
+        return new JobOutcome(result, summary, Path.GetFullPath(settings.Out), files.Order(StringComparer.Ordinal).ToList());
     }
 
     /// <summary>Waits for a background write before the staging folder is removed; its own error is superseded by the one
@@ -101,16 +105,6 @@ public static class SurveyJob
     {
         try { task?.Wait(); }
         catch (AggregateException) { }
-    }
-
-    private static string Headline(PipelineResult r)
-    {
-        var parts = new List<string> { $"{r.Prepared.Raw.RespondentCount} respondents, {r.Prepared.Scored.ItemCount} items analysed" };
-        if (r.Screening is { } s) parts.Add($"{s.FlaggedRespondents} flagged for review");
-        if (r.FactorsUsed is int k) parts.Add($"{k} factor(s)");
-        else if (r.Dimensions is { } d) parts.Add($"{d.Retained} dimension(s) indicated");
-        if (r.ShortForm is { } sf) parts.Add($"short form of {sf.SelectedIndices.Count} items");
-        return string.Join("; ", parts) + ".";
     }
 
     /// <summary>Tool version (assembly informational version without build metadata).</summary>

@@ -59,7 +59,7 @@ public static class SettingsCatalog
         new()
         {
             Name = "missing", Kind = SettingKind.TextList, Commands = Commands.All, Concerns = Concerns.Intake, Group = General,
-            ValueName = "CODES", Default = IntakeOptions.DefaultMissingCodes, Example = "-99,99",
+            ValueName = "LIST", Default = IntakeOptions.DefaultMissingCodes, Example = "-99,99",
             Help = "Comma-separated missing-data codes, replacing the default list (empty cell, NA), e.g. --missing=-99,99. An empty cell is always missing.",
         },
         new()
@@ -76,6 +76,12 @@ public static class SettingsCatalog
         },
         new()
         {
+            Name = "skip-rows", Kind = SettingKind.Integer, Commands = Commands.All, Concerns = Concerns.Intake, Group = General,
+            ValueName = "N", Default = 0UL, Min = 0, Max = IntakeOptions.MaxSkipRows, Example = "2",
+            Help = "Rows right after the header row that hold no answers (question texts or import codes of a survey-platform export); they are skipped.",
+        },
+        new()
+        {
             Name = "seed", Kind = SettingKind.Integer, Commands = Commands.Writing,
             Concerns = Concerns.Screening | Concerns.Dimensions | Concerns.ShortForm, Group = General,
             ValueName = "N", Default = RandomStream.DefaultSeed, Min = 0, Max = ulong.MaxValue, Example = "42",
@@ -85,6 +91,11 @@ public static class SettingsCatalog
         {
             Name = "quiet", Kind = SettingKind.Flag, Commands = Commands.All, Concerns = Concerns.Terminal, Group = General,
             Default = false, Example = "true", Recorded = false, Help = "No progress messages and no warnings on the terminal.",
+        },
+        new()
+        {
+            Name = "json", Kind = SettingKind.Flag, Commands = Commands.Writing, Concerns = Concerns.Terminal, Group = General,
+            Default = false, Example = "true", Recorded = false, Help = "Print summary.json on stdout instead of the readable summary (for scripts).",
         },
         new()
         {
@@ -113,19 +124,19 @@ public static class SettingsCatalog
         new()
         {
             Name = "run-share", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "S", Default = Screening.LongStringShare, Min = 0, Max = 1, MinExclusive = true, Example = "0.7",
+            Group = ScreeningGroup, ValueName = "P", Default = Screening.LongStringShare, Min = 0, Max = 1, MinExclusive = true, Example = "0.7",
             Help = $"Flag a run of identical consecutive answers covering at least this share of the items (the run must also be at least {Screening.LongStringMinimum} items long).",
         },
         new()
         {
             Name = "flat-sd", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "S", Default = Screening.FlatVariabilityLimit, Min = 0, Example = "0.3",
+            Group = ScreeningGroup, ValueName = "SD", Default = Screening.FlatVariabilityLimit, Min = 0, Example = "0.3",
             Help = "Flag respondents whose own answers have a standard deviation below this value (0 turns the rule off).",
         },
         new()
         {
             Name = "missing-limit", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "S", Default = Screening.MissingShareLimit, Min = 0, Max = ScreeningOptions.MaxMissingShareLimit, MaxExclusive = true, Example = "0.3",
+            Group = ScreeningGroup, ValueName = "P", Default = Screening.MissingShareLimit, Min = 0, Max = ScreeningOptions.MaxMissingShareLimit, MaxExclusive = true, Example = "0.3",
             Help = "Flag respondents who left more than this share of items unanswered.",
         },
         new()
@@ -176,7 +187,7 @@ public static class SettingsCatalog
         new()
         {
             Name = "factors", Kind = SettingKind.Integer, Commands = Commands.Correlating, Concerns = Concerns.Dimensions, Group = DimensionsGroup,
-            ValueName = "K", DefaultText = "set by the rule", Min = 1, Max = int.MaxValue, Example = "2",
+            ValueName = "N", DefaultText = "set by the rule", Min = 1, Max = int.MaxValue, Example = "2",
             Help = "Fix the number of factors instead of using a rule.",
         },
         new()
@@ -208,14 +219,14 @@ public static class SettingsCatalog
         new()
         {
             Name = "scale-targets", Kind = SettingKind.Targets, Commands = Commands.Shorten | Commands.Run, Concerns = Concerns.ShortForm,
-            Group = ShortFormGroup, ValueName = "a=3,b=5", DefaultText = "none", Min = ShortFormOptions.MinItemsPerScale,
+            Group = ShortFormGroup, ValueName = "LIST", DefaultText = "none", Min = ShortFormOptions.MinItemsPerScale,
             Max = ShortFormOptions.MaxItemsPerScale, Example = "S1=2",
             Help = "Short-form lengths of named codebook subscales, e.g. comfort=3,crew=5 (others use items-per-factor).",
         },
         new()
         {
             Name = "holdout", Kind = SettingKind.Number, Commands = Commands.Shorten | Commands.Run, Concerns = Concerns.ShortForm,
-            Group = ShortFormGroup, ValueName = "F", Default = ShortForm.HoldoutFraction, Min = 0, Max = ShortFormOptions.MaxHoldoutFraction,
+            Group = ShortFormGroup, ValueName = "P", Default = ShortForm.HoldoutFraction, Min = 0, Max = ShortFormOptions.MaxHoldoutFraction,
             Example = "0.5", Help = "Share of respondents held out to evaluate the short form on data it was not chosen on (0: none).",
         },
 

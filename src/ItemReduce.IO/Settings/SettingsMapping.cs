@@ -13,7 +13,8 @@ namespace ItemReduce.IO.Settings;
 /// <param name="Quiet">No progress and no warnings.</param>
 /// <param name="Progress">Progress even when stderr is not a terminal.</param>
 /// <param name="Verbose">Full details of internal errors.</param>
-public sealed record TerminalSettings(bool Quiet, bool Progress, bool Verbose);
+/// <param name="Json">Print summary.json on stdout instead of the readable summary.</param>
+public sealed record TerminalSettings(bool Quiet, bool Progress, bool Verbose, bool Json = false);
 
 /// <summary>
 /// Gives each setting's value to the record of the stage that reads it. The only place where settings meet the Core
@@ -105,7 +106,8 @@ public static class SettingsMapping
             PlanSha256 = plan?.Sha256,
             Out = v.Text("out")!,
             Force = v.Flag("force"),
-            Intake = new IntakeOptions(Delimiter(v.Text("delimiter")), v.IsGiven("missing") ? (IReadOnlyList<string>)v["missing"]! : null, v.Text("id-column")),
+            Intake = new IntakeOptions(Delimiter(v.Text("delimiter")), v.IsGiven("missing") ? (IReadOnlyList<string>)v["missing"]! : null, v.Text("id-column"),
+                (int)v.Integer("skip-rows")!.Value),
             Pipeline = pipeline,
             NoPdf = v.Flag("no-pdf"),
             Values = v,
@@ -113,7 +115,7 @@ public static class SettingsMapping
     }
 
     /// <summary>The terminal settings of <paramref name="v"/>.</summary>
-    public static TerminalSettings ToTerminal(SettingValues v) => new(v.Flag("quiet"), v.Flag("progress"), v.Flag("verbose"));
+    public static TerminalSettings ToTerminal(SettingValues v) => new(v.Flag("quiet"), v.Flag("progress"), v.Flag("verbose"), v.Flag("json"));
 
     private static char? Delimiter(string? name) => name switch
     {

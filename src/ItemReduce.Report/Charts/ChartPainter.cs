@@ -35,12 +35,16 @@ internal static class ChartPainter
 
     internal static Plot Build(ChartSpec spec)
     {
+        // Before any font lookup: ScottPlot caches the typeface it finds for a name, so an unregistered alias would stick
+        // to a system font for the rest of the process.
+        ChartFontRegistration.EnsureRegistered();
         var plot = new Plot();
         plot.Font.Set(ReportFonts.ChartFamilyAlias);
         plot.FigureBackground.Color = Colors.White;
 
         for (int i = 0; i < spec.Series.Count; i++)
-            AddSeries(plot, spec.Kind, spec.Series[i], Palette[i % Palette.Length]);
+            AddSeries(plot, spec.Kind, spec.LogY ? spec.Series[i] with { Y = spec.Series[i].Y.Select(Math.Log10).ToList() } : spec.Series[i],
+                Palette[i % Palette.Length]);
 
         if (spec.IdentityLine && FiniteRange(spec) is var (lo, hi))
         {
@@ -80,6 +84,16 @@ internal static class ChartPainter
             axis.TickLabelStyle.FontSize = TickSize;
         }
         plot.Axes.Title.Label.FontName = ReportFonts.ChartFamilyAlias;
+        if (spec.LogY)
+        {
+            // Series hold log10 values; ticks at whole powers of ten with minor ticks between (ScottPlot's log recipe).
+            plot.Axes.Left.TickGenerator = new ScottPlot.TickGenerators.NumericAutomatic
+            {
+                MinorTickGenerator = new ScottPlot.TickGenerators.LogMinorTickGenerator(),
+                IntegerTicksOnly = true,
+                LabelFormatter = PowerOfTenLabel,
+            };
+        }
 
         bool legend = spec.Series.Count > 1 || spec.IdentityLine;
         if (legend)
@@ -102,6 +116,16 @@ internal static class ChartPainter
         if (Math.Abs(value) < 1e-12) value = 0; // avoid "−0" from floating-point tick positions
         return value.ToString("0.####", System.Globalization.CultureInfo.InvariantCulture)
             .Replace("-", Formatting.NumberFormat.Minus, StringComparison.Ordinal);
+    }
+
+    /// <summary>Label of a log-axis tick at 10^<paramref name="exponent"/>: 1, 0.1, 0.01, then 10⁻³, 10⁻⁴, … (and 10, 100, 10³ …).</summary>
+    internal static string PowerOfTenLabel(double exponent)
+    {
+        int e = (int)Math.Round(exponent);
+        if (e is >= -2 and <= 2) return TickLabel(Math.Pow(10, e));
+        const string superscripts = "⁰¹²³⁴⁵⁶⁷⁸⁹";
+        string digits = string.Concat(Math.Abs(e).ToString(System.Globalization.CultureInfo.InvariantCulture).Select(d => superscripts[d - '0']));
+        return "10" + (e < 0 ? "⁻" : "") + digits;
     }
 
     private static void AddSeries(Plot plot, ChartKind kind, ChartSeries series, Color color)
@@ -132,7 +156,7 @@ internal static class ChartPainter
         double lo = double.PositiveInfinity, hi = double.NegativeInfinity;
         foreach (var s in spec.Series)
         {
-            foreach (double v in s.X.Concat(s.Y))
+            foreach (double v in s.X)
             {
                 if (!double.IsFinite(v)) continue;
                 lo = Math.Min(lo, v);

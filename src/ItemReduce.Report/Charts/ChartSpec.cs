@@ -40,8 +40,12 @@ public sealed record ChartSpec(ChartKind Kind, string XLabel, string YLabel, IRe
     /// <summary>Optional vertical marker line with label.</summary>
     public VerticalMarker? Marker { get; init; }
 
-    /// <summary>Draw the diagonal reference line y = x across the common data range (for Q–Q plots).</summary>
+    /// <summary>Draw the diagonal reference line y = x across the x range of the data (for Q–Q plots), so the axes
+    /// fit the points rather than the line.</summary>
     public bool IdentityLine { get; init; }
+
+    /// <summary>Vertical axis on a logarithmic (base 10) scale; values ≤ 0 are not drawn.</summary>
+    public bool LogY { get; init; }
 
     /// <summary>Height of the chart as a fraction of its width (default 0.6; allowed 0.2–1.5).</summary>
     public double AspectRatio { get; init; } = 0.6;

@@ -58,8 +58,10 @@ internal sealed partial class AppendixLayout
         float captionHeight = numberStyle.LineHeight + titleLines.Count * titleStyle.LineHeight + 4f;
 
         Gap(BlockGap);
-        float firstRow = shape.RowHeights.Length > 0 ? shape.RowHeights[0] : 0f;
-        Reserve(captionHeight + shape.HeaderHeight + firstRow + 2f);
+        // The title, header and first two rows start on one page, so a title never stands alone at a page foot and the
+        // first page of a broken table holds more than one row.
+        float firstRows = shape.RowHeights.Take(2).Sum();
+        Reserve(captionHeight + shape.HeaderHeight + firstRows + 2f);
         SingleLine(TableLabel(t.Number), numberStyle, left);
         FlowLines(titleLines, left, left, titleStyle);
         y += 4f;
@@ -77,9 +79,11 @@ internal sealed partial class AppendixLayout
 
         for (int i = 0; i < t.Rows.Count; i++)
         {
-            // The last row takes the note with it, so a note never stands alone at the top of a page.
-            float needed = shape.RowHeights[i] + (i == t.Rows.Count - 1 ? noteHeight : 0f);
-            if (y + needed > page.ContentBottom && i > 0)
+            // The last row takes the note with it, so a note never stands alone at the top of a page, and the last two
+            // rows stay together, so a continuation never holds a single row.
+            int last = t.Rows.Count - 1;
+            float needed = shape.RowHeights[i] + (i == last ? noteHeight : 0f) + (i == last - 1 ? shape.RowHeights[last] + noteHeight : 0f);
+            if (y + needed > page.ContentBottom && i > 1)
             {
                 Rule(left, right, y, 0.5f);
                 NewPage();

@@ -37,7 +37,7 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
     {
         Assert.True(_run.Result.Code == 0, _run.Result.Err);
         foreach (string f in new[] { "summary.json", "respondent-flags.csv", "eigenvalues.csv", "loadings.csv", "structure-loadings.csv",
-                     "factor-correlations.csv", "item-decisions.csv", "reliability.csv", "short-form-codebook.csv", "appendix.pdf", "tables.md", "tables.tex" })
+                     "factor-correlations.csv", "item-decisions.csv", "reliability.csv", "short-form-codebook.csv", "appendix.pdf", "tables.md", "tables.tex", "tables.docx" })
             Assert.True(System.IO.File.Exists(File(f)), f);
     }
 
@@ -196,7 +196,7 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         Assert.Contains("Table 1", md);
         Assert.Contains("|", md);
         string tex = System.IO.File.ReadAllText(File("tables.tex"));
-        Assert.Contains("\\begin{tabular}", tex);
+        Assert.Contains("\\begin{longtable}", tex);
     }
 
     [Fact]

@@ -30,7 +30,7 @@ public class SettingsModelTests
         var intake = job.Intake;
         return new()
         {
-            [Concerns.Intake] = $"{job.Responses}|{job.Codebook}|{job.Plan}|{intake.Delimiter}|{string.Join("/", intake.EffectiveMissingCodes)}|{intake.IdColumn}",
+            [Concerns.Intake] = $"{job.Responses}|{job.Codebook}|{job.Plan}|{intake.Delimiter}|{string.Join("/", intake.EffectiveMissingCodes)}|{intake.IdColumn}|{intake.SkipRows}",
             [Concerns.Screening] = stage.Screening,
             [Concerns.Dimensions] = stage.Dimensions,
             [Concerns.ShortForm] = stage.ShortForm with { ScaleTargets = null },
