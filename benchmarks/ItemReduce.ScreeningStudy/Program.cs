@@ -1,0 +1,70 @@
+using System.Diagnostics;
+using System.Globalization;
+using ItemReduce.Core.Screening;
+using ItemReduce.Simulation;
+
+// Validation study of the respondent-screening rules (seeded; one command):
+//   dotnet run -c Release --project benchmarks/ItemReduce.ScreeningStudy -- [full|quick|case] [output.md]
+// "full" (default) runs the whole design grid, "quick" a small slice, "case p c skew miss n careless reps" one cell.
+var inv = CultureInfo.InvariantCulture;
+string mode = args.Length > 0 ? args[0] : "full";
+var conditions = new List<ScreeningStudy.Condition>();
+const int AttentiveTarget = 12_000;   // attentive respondents per cell: 0.1 % then has a Monte Carlo sd of about 0.03 %
+int Reps(int n, int min = 2) => Math.Max(min, (int)Math.Ceiling(AttentiveTarget / (double)n));
+switch (mode)
+{
+    case "case":
+        conditions.Add(new(int.Parse(args[1], inv), int.Parse(args[2], inv), args[3] == "skew", double.Parse(args[4], inv),
+            int.Parse(args[5], inv), double.Parse(args[6], inv), int.Parse(args[7], inv)));
+        break;
+    case "quick":
+        conditions.Add(new(24, 5, false, 0.0, 200, 0.0, 20));
+        conditions.Add(new(30, 7, false, 0.05, 600, 0.03, 6));
+        conditions.Add(new(24, 5, true, 0.10, 480, 0.10, 6));
+        conditions.Add(new(12, 4, true, 0.05, 60, 0.0, 40));
+        break;
+    default:
+        // The two cases the rules must get right first.
+        conditions.Add(new(30, 7, false, 0.05, 600, 0.03, Reps(600)));
+        conditions.Add(new(24, 5, false, 0.0, 200, 0.0, Reps(200)));
+        foreach (int p in new[] { 12, 24, 36 })
+            foreach (int c in new[] { 4, 5, 7 })
+                foreach (bool skew in new[] { false, true })
+                    foreach (double miss in new[] { 0.0, 0.05, 0.10 })
+                        foreach (int ratio in new[] { 5, 20, 100 })
+                        {
+                            if (ratio == 100 && p == 36) continue;
+                            int n = ratio * p;
+                            conditions.Add(new(p, c, skew, miss, n, 0.0, Reps(n)));
+                        }
+        // Careless respondents at 5 % and 10 %: recall (and the false-flag rate of the attentive rest).
+        foreach (int p in new[] { 12, 24, 36 })
+            foreach (bool skew in new[] { false, true })
+                foreach (double share in new[] { 0.05, 0.10 })
+                    foreach (int ratio in new[] { 5, 20 })
+                    {
+                        int n = ratio * p;
+                        conditions.Add(new(p, 5, skew, 0.05, n, share, Math.Max(2, (int)Math.Ceiling(1_000 / (share * n)))));
+                    }
+        break;
+}
+
+var options = new ScreeningOptions();
+var reasons = ScreeningReasons.All;
+var watch = Stopwatch.StartNew();
+var outcomes = new List<ScreeningStudy.Outcome>();
+for (int i = 0; i < conditions.Count; i++)
+{
+    var c = conditions[i];
+    var o = ScreeningStudy.Run(c, options, 1_000_000UL * (ulong)(i + 1));
+    outcomes.Add(o);
+    string recall = string.Join(" ", ScreeningStudy.Kinds.Select(k => string.Create(inv, $"{ScreeningStudy.KindName(k)} {100 * o.Recall(k):0.#}")));
+    string byReason = string.Join(" ", reasons.Select(r => string.Create(inv, $"{r}={100 * o.FalseFlagRate(r):0.000}")));
+    Console.Error.WriteLine(string.Create(inv, $"[{watch.Elapsed.TotalSeconds,6:0}s] {c.Label}: false {100 * o.FalseFlagRate():0.000}% ({byReason}) {recall} rule ") +
+        string.Join("/", o.DistanceRule.Select(kv => $"{kv.Key}:{kv.Value}")));
+}
+string table = ScreeningStudy.Table(outcomes, reasons);
+string header = string.Create(inv, $"# Screening validation study ({mode})\n\nDefault screening options (cutoff p = {options.CutoffP}). " +
+    $"{conditions.Count} conditions, {watch.Elapsed.TotalMinutes:0.0} minutes on {Environment.ProcessorCount} cores.\n\n");
+if (args.Length > 1 && mode != "case") File.WriteAllText(args[1], header + table);
+else if (mode != "case") Console.WriteLine(header + table);
