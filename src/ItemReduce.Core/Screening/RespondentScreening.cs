@@ -60,14 +60,19 @@ public static class RespondentScreening
                          "), typically because of pairwise-complete estimation, collinear items or fewer respondents than items; " +
                          "eigenvalues were raised to a small floor, so classical distances are approximate.");
         var classical = new MahalanobisDistance(mean, cov);
+        var synonyms = new PsychometricSynonyms(AsAnsweredCorrelation(cov, data), p);
 
-        var (robust, robustDistance) = robustFit.GetAwaiter().GetResult();
+        var (robust, robustDistance, scores, inEstimate) = robustFit.GetAwaiter().GetResult();
         warnings.AddRange(robustWarnings);
 
         // 3. Cutoffs, df = items answered.
         var cutoffByDf = new double[p + 1];
         cutoffByDf[0] = double.NaN;
         for (int k = 1; k <= p; k++) cutoffByDf[k] = ChiSquareTail.UpperQuantile(options.CutoffP, k);
+        int lawRows = robust.SupportSize;
+        var robustCutoffByDf = new double[p + 1];
+        robustCutoffByDf[0] = double.NaN;
+        for (int k = 1; k <= p; k++) robustCutoffByDf[k] = BetaDistanceLaw.UpperQuantile(options.CutoffP, k, lawRows);
 
         var subscales = data.Items.Select(i => i.Subscale).ToList();
         var evenOdd = new EvenOddConsistency(subscales, options.EvenOddMinSubscales);
@@ -86,23 +91,31 @@ public static class RespondentScreening
         var robustD2 = new double[n];
         var answered = new int[n];
         if (robustDistance is null) Array.Fill(robustD2, double.NaN);
-        var rows = new ScreeningRowStore(data.RespondentIds, p, answered, d2, robustD2, cutoffByDf);
+        var rows = new ScreeningRowStore(data.RespondentIds, p, answered, d2, robustD2, useRobust ? robustCutoffByDf : cutoffByDf);
         var raw = asAnswered ?? data;
         const int blockRows = MahalanobisDistance.BlockRows;
         Parallel.For(0, (n + blockRows - 1) / blockRows,
-            () => (Scratch: new MahalanobisDistance.Scratch(p), Rows: new double[blockRows * p], Raw: new double[blockRows * p], Answered: new int[blockRows]),
+            () => (Scratch: new MahalanobisDistance.Scratch(p), Rows: new double[blockRows * p], Raw: new double[blockRows * p], Answered: new int[blockRows],
+                Scores: new double[blockRows * p]),
             [MethodImpl(MethodImplOptions.AggressiveOptimization)] (b, _, local) =>
             {
                 int first = b * blockRows, count = Math.Min(blockRows, n - first);
                 var block = data.Rows(first, count, local.Rows);
                 var rawBlock = ReferenceEquals(raw, data) ? block : raw.Rows(first, count, local.Raw);
                 classical.ComputeBlock(block, count, d2.AsSpan(first, count), answered.AsSpan(first, count), local.Scratch);
-                robustDistance?.ComputeBlock(block, count, robustD2.AsSpan(first, count), local.Answered, local.Scratch);
+                if (robustDistance is not null)
+                {
+                    scores.Apply(block, count, local.Scores);
+                    robustDistance.ComputeBlock(local.Scores.AsSpan(0, count * p), count, robustD2.AsSpan(first, count), local.Answered, local.Scratch);
+                    // Respondents outside the final estimate are judged as if they were in it (ErAlgorithm.LeaveIn).
+                    for (int r = 0; r < count; r++)
+                        if (!inEstimate![first + r]) robustD2[first + r] = ErAlgorithm.LeaveIn(robustD2[first + r], lawRows);
+                }
                 for (int r = 0; r < count; r++)
                 {
                     int i = first + r;
-                    ScreenOne(i, rows, block.Slice(r * p, p), rawBlock.Slice(r * p, p), d2[i], robustD2[i], answered[i], cutoffByDf,
-                        evenOdd, runLimit, useRobust, options);
+                    ScreenOne(i, rows, block.Slice(r * p, p), rawBlock.Slice(r * p, p), d2[i], robustD2[i], answered[i], cutoffByDf, robustCutoffByDf,
+                        lawRows, evenOdd, runLimit, useRobust, options, mean, synonyms);
                 }
                 return local;
             }, _ => { });
@@ -129,24 +142,32 @@ public static class RespondentScreening
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ScreenOne(int i, ScreeningRowStore rows, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
-        double d2, double robustD2, int answered, double[] cutoffByDf, EvenOddConsistency evenOdd, int runLimit, bool useRobust, ScreeningOptions o)
+        double d2, double robustD2, int answered, double[] cutoffByDf, double[] robustCutoffByDf, int lawRows, EvenOddConsistency evenOdd, int runLimit,
+        bool useRobust, ScreeningOptions o, double[] itemMeans, PsychometricSynonyms synonyms)
     {
         int p = x.Length;
         double cutoff = cutoffByDf[answered];
         double pValue = answered > 0 ? ChiSquareTail.UpperTail(d2, answered) : double.NaN;
-        double robustP = answered > 0 ? ChiSquareTail.UpperTail(robustD2, answered) : double.NaN;
+        double robustP = answered > 0 ? BetaDistanceLaw.UpperTail(robustD2, answered, lawRows) : double.NaN;
         int longString = LongString.Compute(rawRow);
         double irv = IntraIndividualResponseVariability.Compute(rawRow);
         double eo = evenOdd.Compute(x, out int eoSubscales);
         double missing = (p - answered) / (double)p;
+        int alternating = AlternatingRun.Compute(rawRow);
+        var (syn, ant) = synonyms.Compute(rawRow);
 
         int reasons = 0;
-        if (useRobust && robustD2 > cutoff) reasons |= RobustBit;
+        if (useRobust && robustD2 > robustCutoffByDf[answered]) reasons |= RobustBit;
         if (!useRobust && d2 > cutoff) reasons |= ClassicalBit;
         if (longString >= runLimit) reasons |= RunBit;
         if (irv < o.FlatVariabilityLimit) reasons |= FlatBit;
         if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons |= HalvesBit;
         if (missing > o.MissingShareLimit) reasons |= UnansweredBit;
+        if (alternating >= runLimit) reasons |= AlternatingBit;
+        rows.AlternatingRun[i] = alternating;
+        rows.PersonTotal[i] = PersonTotalCorrelation.Compute(x, itemMeans);
+        rows.Synonyms[i] = syn;
+        rows.Antonyms[i] = ant;
         rows.PValue[i] = pValue;
         rows.RobustPValue[i] = robustP;
         rows.LongString[i] = longString;
@@ -161,56 +182,88 @@ public static class RespondentScreening
     private static readonly int FlatBit = ScreeningRowStore.Bit(ScreeningReasons.FlatProfile);
     private static readonly int HalvesBit = ScreeningRowStore.Bit(ScreeningReasons.HalvesDisagree);
     private static readonly int UnansweredBit = ScreeningRowStore.Bit(ScreeningReasons.MostlyUnanswered);
+    private static readonly int AlternatingBit = ScreeningRowStore.Bit(ScreeningReasons.AlternatingAnswers);
 
-    /// <summary>FAST-MCD on the complete rows (subsampled above the cap); the distance object is null when robust distances are unavailable.</summary>
-    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance) RobustFit(ResponseMatrix data, ScreeningOptions o, List<string> warnings,
-        Action<string>? progress)
+    /// <summary>Inter-item correlations of the answers as given: those of the analysed covariance, with the sign
+    /// flipped for pairs in which exactly one item was reverse-scored.</summary>
+    private static double[] AsAnsweredCorrelation(double[,] cov, ResponseMatrix data)
+    {
+        int p = data.ItemCount;
+        var r = new double[p * p];
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k < p; k++)
+            {
+                double v = cov[j, k] / Math.Sqrt(cov[j, j] * cov[k, k]);
+                r[j * p + k] = data.Items[j].Reverse != data.Items[k].Reverse ? -v : v;
+            }
+        return r;
+    }
+
+    /// <summary>
+    /// ER estimate (<see cref="ErAlgorithm"/>) on the items' normal scores (<see cref="NormalScores"/>), fitted to every
+    /// respondent who answered at least one item, or above <see cref="ScreeningOptions.RobustMaxRows"/> to a systematic
+    /// subsample (every (n / cap)-th respondent: no random choice, so the result does not depend on the seed).
+    /// The distance object is null when robust distances are unavailable.
+    /// </summary>
+    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate) RobustFit(ResponseMatrix data, ScreeningOptions o,
+        List<string> warnings, Action<string>? progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
-        var complete = new List<int>();
+        var scores = NormalScores.FromData(data);
+        int complete = 0;
+        var answering = new List<int>(n);
+        var buffer = new double[p];
         for (int i = 0; i < n; i++)
-            if (data.IsComplete(i)) complete.Add(i);
+        {
+            if (data.IsComplete(i)) { complete++; answering.Add(i); continue; }
+            data.CopyRow(i, buffer);
+            if (buffer.Any(v => !double.IsNaN(v))) answering.Add(i);
+        }
         RobustEstimatorDetails Unavailable(string note, int used = 0, bool sub = false)
         {
             warnings.Add(note);
-            return new RobustEstimatorDetails(false, complete.Count, sub, used, 0, double.NaN, double.NaN, 0, false, 0, 0, 0, false, null, null, note);
+            return new RobustEstimatorDetails(false, complete, sub, used, 0, double.NaN, double.NaN, 0, false, 0, 0, 0, false, null, null, note);
         }
-        int minimum = Math.Max(2 * (p + 1), p + 2);
-        if (complete.Count < minimum)
-            return (Unavailable($"Robust distances need at least {minimum} respondents who answered every item (2 × (items + 1)); only {complete.Count} did."), null);
+        int minimum = 2 * (p + 1);
+        if (answering.Count < minimum)
+            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null);
 
-        var rowsUsed = complete;
+        var rowsUsed = answering;
         bool subsampled = false;
-        if (complete.Count > o.RobustMaxRows)
+        if (answering.Count > o.RobustMaxRows)
         {
-            var shuffled = complete.ToArray();
-            RandomStream.ForTask(o.Seed, 0, PurposeSubsample).Shuffle(shuffled.AsSpan());
-            rowsUsed = shuffled[..o.RobustMaxRows].OrderBy(i => i).ToList();
+            int m0 = o.RobustMaxRows;
+            rowsUsed = Enumerable.Range(0, m0).Select(t => answering[(int)((long)t * answering.Count / m0)]).ToList();
             subsampled = true;
         }
         int m = rowsUsed.Count;
         var x = new double[(long)m * p];
-        for (int r = 0; r < m; r++) data.CopyRow(rowsUsed[r], x.AsSpan(r * p, p));
-        int? h = o.RobustSupportFraction is double f ? Math.Clamp((int)Math.Ceiling(f * m), p + 1, m) : null;
-        progress?.Invoke(string.Create(CultureInfo.InvariantCulture, $"screening: FAST-MCD on {m} complete respondents"));
-        FastMcdEstimate fit;
+        for (int r = 0; r < m; r++)
+        {
+            data.CopyRow(rowsUsed[r], buffer);
+            scores.Apply(buffer, 1, x.AsSpan(r * p, p));
+        }
+        progress?.Invoke(string.Create(CultureInfo.InvariantCulture, $"screening: robust EM (ER) estimate on {m} respondents"));
+        ErEstimate fit;
         try
         {
-            fit = FastMcd.Fit(x, m, p, new FastMcdSettings(SupportSize: h, InitialSubsets: o.RobustInitialSubsets, Seed: o.Seed));
+            fit = ErAlgorithm.Fit(x, m, p, o.CutoffP);
         }
-        catch (FastMcdExactFitException e)
+        catch (InvalidOperationException e)
         {
-            return (Unavailable("Robust fit failed: " + e.Message + " This happens when more than half the respondents give identical answers on some items.", m, subsampled), null);
+            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null);
         }
-        if (!fit.Converged) warnings.Add("FAST-MCD reached its C-step cap before the determinant stopped decreasing; robust distances may be slightly off.");
+        if (!fit.Converged) warnings.Add("The robust EM (ER) estimate reached its iteration cap before settling; robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
+        var inEstimate = new bool[n];
+        for (int r = 0; r < m; r++) inEstimate[rowsUsed[r]] = fit.KeptRows[r];
         if (!dist.FullFactorAvailable)
-            return (Unavailable("The reweighted robust scatter matrix is singular; robust distances are not available.", m, subsampled), null);
+            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null);
         string note = subsampled
-            ? $"FAST-MCD fitted to a seeded random subsample of {m} of the {complete.Count} complete respondents; robust distances computed for everyone."
-            : $"FAST-MCD fitted to the {m} complete respondents; robust distances of respondents with missing answers use the matching parts of the robust location and scatter.";
-        return (new RobustEstimatorDetails(true, complete.Count, subsampled, m, fit.SupportSize, fit.ConsistencyFactor, fit.ReweightingFactor,
-            fit.ReweightedCount, fit.Nested, fit.SubsetCount, fit.MergedSize, fit.Trials, fit.Converged, fit.Location, fit.Scatter, note), dist);
+            ? $"Robust EM (ER) estimate on the items' normal scores, fitted to a systematic subsample of {m} of the {answering.Count} respondents (every {(double)answering.Count / m:0.#}-th); robust distances computed for everyone."
+            : $"Robust EM (ER) estimate on the items' normal scores, fitted to all {m} respondents who answered any item; {fit.Kept} kept in the final step.";
+        return (new RobustEstimatorDetails(true, complete, subsampled, m, fit.Kept, double.NaN, fit.TruncationFactor,
+            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note), dist, scores, inEstimate);
     }
 
     private static string Meaning(string code) => code switch
@@ -221,6 +274,7 @@ public static class RespondentScreening
         ScreeningReasons.FlatProfile => "answers barely vary across items",
         ScreeningReasons.HalvesDisagree => "odd- and even-numbered items of the same scales disagree",
         ScreeningReasons.MostlyUnanswered => "most items unanswered",
+        ScreeningReasons.AlternatingAnswers => "long run of answers alternating between two values",
         _ => code,
     };
 

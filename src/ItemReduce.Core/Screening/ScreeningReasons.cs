@@ -21,7 +21,10 @@ public static class ScreeningReasons
     /// <summary>More than the allowed share of items unanswered.</summary>
     public const string MostlyUnanswered = "mostly-unanswered";
 
-    /// <summary>All codes in reporting order.</summary>
+    /// <summary>Long run of answers alternating between two values (alternating-run index).</summary>
+    public const string AlternatingAnswers = "alternating-run";
+
+    /// <summary>All codes in reporting order (new codes are appended).</summary>
     public static IReadOnlyList<string> All { get; } =
-        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered];
+        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered, AlternatingAnswers];
 }

@@ -14,6 +14,10 @@ namespace ItemReduce.Core.Screening;
 /// <param name="MissingShare">Share of items not answered, in [0, 1].</param>
 /// <param name="Flagged">True when at least one reason applies.</param>
 /// <param name="Reasons">Reason codes from <see cref="ScreeningReasons"/>, in the order of <see cref="ScreeningReasons.All"/>.</param>
+/// <param name="AlternatingRun">Longest run of answers alternating between two values (<see cref="Screening.AlternatingRun"/>).</param>
+/// <param name="PersonTotal">Person–total correlation (<see cref="PersonTotalCorrelation"/>); NaN when not computable.</param>
+/// <param name="Synonyms">Psychometric-synonyms coefficient (<see cref="PsychometricSynonyms"/>); NaN when not computable.</param>
+/// <param name="Antonyms">Psychometric-antonyms coefficient; NaN when not computable.</param>
 public sealed record RespondentScreeningRow(
     string RespondentId,
     int ItemsAnswered,
@@ -27,7 +31,11 @@ public sealed record RespondentScreeningRow(
     double EvenOdd,
     double MissingShare,
     bool Flagged,
-    IReadOnlyList<string> Reasons);
+    IReadOnlyList<string> Reasons,
+    int AlternatingRun = 0,
+    double PersonTotal = double.NaN,
+    double Synonyms = double.NaN,
+    double Antonyms = double.NaN);
 
 /// <summary>How many respondents carry one reason code.</summary>
 public sealed record ScreeningReasonCount(string Code, string Meaning, int Count);
