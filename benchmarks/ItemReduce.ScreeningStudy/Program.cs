@@ -50,7 +50,7 @@ switch (mode)
 }
 
 var options = new ScreeningOptions();
-var reasons = ScreeningReasons.All;
+var reasons = ScreeningReasons.All.Append(ScreeningStudy.ClassicalChiSquare).ToList();
 var watch = Stopwatch.StartNew();
 var outcomes = new List<ScreeningStudy.Outcome>();
 for (int i = 0; i < conditions.Count; i++)
@@ -68,3 +68,10 @@ string header = string.Create(inv, $"# Screening validation study ({mode})\n\nDe
     $"{conditions.Count} conditions, {watch.Elapsed.TotalMinutes:0.0} minutes on {Environment.ProcessorCount} cores.\n\n");
 if (args.Length > 1 && mode != "case") File.WriteAllText(args[1], header + table);
 else if (mode != "case") Console.WriteLine(header + table);
+if (mode == "case")
+    for (int r = 0; r < conditions[0].Replicates; r++)
+    {
+        var (scored, raw, truth) = ScreeningStudy.Draw(conditions[0], 1_000_000UL + (ulong)r);
+        var res = RespondentScreening.Run(scored, options with { Seed = (ulong)r + 1 }, raw);
+        Console.WriteLine(string.Create(inv, $"rep {r}: robust flags {res.ReasonCounts[0].Count}, kept {res.Robust.SupportSize}/{res.Robust.RowsUsed}, converged {res.Robust.Converged}, available {res.Robust.Available}; ") + string.Join(" | ", res.Warnings));
+    }

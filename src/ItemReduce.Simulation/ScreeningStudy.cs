@@ -63,6 +63,9 @@ public static class ScreeningStudy
         }
     }
 
+    /// <summary>Pseudo reason counted for comparison only: the classical distance beyond its χ² cutoff (whether or not it is the rule in use).</summary>
+    public const string ClassicalChiSquare = "(classical d2 > chi2)";
+
     /// <summary>The careless kinds planted, in order.</summary>
     public static IReadOnlyList<CarelessKind> Kinds { get; } =
         [CarelessKind.UniformRandom, CarelessKind.StraightLine, CarelessKind.WideAlternation, CarelessKind.NarrowAlternation, CarelessKind.MostlyUnanswered];
@@ -131,17 +134,18 @@ public static class ScreeningStudy
             for (int i = 0; i < truth.Length; i++)
             {
                 var row = result.Respondents[i];
+                IEnumerable<string> reasons = row.PValue < options.CutoffP ? row.Reasons.Append(ClassicalChiSquare) : row.Reasons;
                 if (truth[i] == CarelessKind.None)
                 {
                     outcome.Attentive++;
                     if (row.Flagged) outcome.AttentiveFlagged++;
-                    foreach (var reason in row.Reasons) outcome.AttentiveByReason[reason] = outcome.AttentiveByReason.GetValueOrDefault(reason) + 1;
+                    foreach (var reason in reasons) outcome.AttentiveByReason[reason] = outcome.AttentiveByReason.GetValueOrDefault(reason) + 1;
                 }
                 else
                 {
                     outcome.Planted[truth[i]] = outcome.Planted.GetValueOrDefault(truth[i]) + 1;
                     if (row.Flagged) outcome.Caught[truth[i]] = outcome.Caught.GetValueOrDefault(truth[i]) + 1;
-                    foreach (var reason in row.Reasons)
+                    foreach (var reason in reasons)
                         outcome.CaughtByReason[(truth[i], reason)] = outcome.CaughtByReason.GetValueOrDefault((truth[i], reason)) + 1;
                 }
             }

@@ -12,8 +12,9 @@ namespace ItemReduce.Core.Screening;
 /// <param name="Iterations">Robust (ER) iterations.</param>
 /// <param name="Converged">False when an iteration cap was reached.</param>
 /// <param name="TruncationFactor">Factor applied to the covariance of the kept rows.</param>
+/// <param name="StagedCollapsed">True when the staged fit collapsed onto a cluster and the direct fit was used.</param>
 internal sealed record ErEstimate(double[] Location, double[,] Scatter, int Rows, int Kept, bool[] KeptRows,
-    int StartIterations, int Iterations, bool Converged, double TruncationFactor);
+    int StartIterations, int Iterations, bool Converged, double TruncationFactor, bool StagedCollapsed);
 
 /// <summary>
 /// Robust location and scatter from incomplete data by the ER (expectation–robustification) approach of Little, R. J.
@@ -62,8 +63,6 @@ internal static class ErAlgorithm
         if (x.Length != (long)n * p) throw new ArgumentException($"Expected {n}×{p} values, got {x.Length}.", nameof(x));
         if (!(rejectP > 0 && rejectP < 0.5)) throw new ArgumentOutOfRangeException(nameof(rejectP), rejectP, "α must lie in (0, 0.5).");
         var (mean, cov) = PairwiseStart(x, n, p);
-        var all = new bool[n];
-        for (int i = 0; i < n; i++) all[i] = true;
         var none = new double[p + 1];
         Array.Fill(none, double.PositiveInfinity);
 
@@ -79,17 +78,40 @@ internal static class ErAlgorithm
         }
         if (emIterations == maxIterations) converged = false;
 
-        // 2. ER: hard-rejection weights, first at the wider rejection shares of StartRejection (a clean core that
-        //    large clusters of similar careless rows cannot mask), then at the requested α.
-        bool[] kept = all;
+        // 2. ER from the EM estimate, twice: (A) first at the wider rejection shares of StartRejection, each to
+        //    convergence (a clean core that clusters of similar careless rows cannot mask), then at the requested α;
+        //    (B) directly at α. A is used unless it keeps fewer than B's rows minus CollapseShare × n: then the
+        //    narrow core has collapsed onto a dense cluster of tied answers (the exact-fit situation of ordinal
+        //    data) and B is used.
+        var staged = Stages(x, n, p, mean, cov, StartRejection.Where(a => a > rejectP).Append(rejectP), maxIterations);
+        var direct = Stages(x, n, p, mean, cov, [rejectP], maxIterations);
+        bool collapsed = staged.KeptCount < direct.KeptCount - CollapseShare * n;
+        var chosen = collapsed ? direct : staged;
+        var scatter = new double[p, p];
+        for (int j = 0; j < p; j++)
+            for (int k = 0; k < p; k++) scatter[j, k] = chosen.Cov[j * p + k];
+        return new ErEstimate(chosen.Mean, scatter, n, chosen.KeptCount, chosen.Kept, emIterations + 1, staged.Iterations + direct.Iterations,
+            converged && chosen.Converged, chosen.Truncation, collapsed);
+    }
+
+    /// <summary>Share of rows by which the staged fit may keep fewer rows than the direct one before it counts as collapsed.</summary>
+    internal const double CollapseShare = 0.2;
+
+    private sealed record StageResult(double[] Mean, double[] Cov, bool[] Kept, int KeptCount, int Iterations, bool Converged, double Truncation);
+
+    /// <summary>ER iterations at each rejection share in turn, each to convergence, starting from (mean, cov) with every row kept.</summary>
+    private static StageResult Stages(double[] x, int n, int p, double[] mean, double[] cov, IEnumerable<double> alphas, int maxIterations)
+    {
+        var kept = new bool[n];
+        Array.Fill(kept, true);
         int keptCount = n, iterations = 0;
-        bool erConverged = false;
+        bool converged = false;
         double truncation = 1;
-        foreach (double alpha in StartRejection.Where(a => a > rejectP).Append(rejectP))
+        foreach (double alpha in alphas)
         {
             double chiLimit = ChiSquareTail.UpperQuantile(alpha, p);
             truncation = (1 - alpha) / ChiSquareTail.Cdf(chiLimit, p + 2);
-            erConverged = false;
+            converged = false;
             for (int it = 0; it < maxIterations; it++, iterations++)
             {
                 var cut = new double[p + 1];
@@ -101,13 +123,10 @@ internal static class ErAlgorithm
                 bool same = step.Kept.AsSpan().SequenceEqual(kept);
                 bool small = Change(mean, cov, step.Mean, step.Cov, p) < Tolerance;
                 (mean, cov, kept, keptCount) = (step.Mean, step.Cov, step.Kept, step.KeptCount);
-                if (same && small) { erConverged = true; break; }
+                if (same && small) { converged = true; break; }
             }
         }
-        var scatter = new double[p, p];
-        for (int j = 0; j < p; j++)
-            for (int k = 0; k < p; k++) scatter[j, k] = cov[j * p + k];
-        return new ErEstimate(mean, scatter, n, keptCount, kept, emIterations + 1, iterations + 1, converged && erConverged, truncation);
+        return new StageResult(mean, cov, kept, keptCount, iterations + 1, converged, truncation);
     }
 
     private sealed record StepResult(double[] Mean, double[] Cov, bool[] Kept, int KeptCount);
