@@ -9,7 +9,7 @@ using ItemReduce.Simulation;
 var inv = CultureInfo.InvariantCulture;
 string mode = args.Length > 0 ? args[0] : "full";
 var conditions = new List<ScreeningStudy.Condition>();
-const int AttentiveTarget = 12_000;   // attentive respondents per cell: 0.1 % then has a Monte Carlo sd of about 0.03 %
+const int AttentiveTarget = 8_000;   // attentive respondents per cell: 0.1 % then has a Monte Carlo sd of about 0.035 %
 int Reps(int n, int min = 2) => Math.Max(min, (int)Math.Ceiling(AttentiveTarget / (double)n));
 switch (mode)
 {

@@ -107,6 +107,7 @@ internal static class ErAlgorithm
         int keptCount = n, iterations = 0;
         bool converged = false;
         double truncation = 1;
+        var cuts = new Dictionary<(double, int), double[]>();
         foreach (double alpha in alphas)
         {
             double chiLimit = ChiSquareTail.UpperQuantile(alpha, p);
@@ -114,10 +115,14 @@ internal static class ErAlgorithm
             converged = false;
             for (int it = 0; it < maxIterations; it++, iterations++)
             {
-                var cut = new double[p + 1];
-                cut[0] = double.NaN;
-                for (int k = 1; k <= p; k++) cut[k] = BetaDistanceLaw.Applies(keptCount, k) || keptCount > BetaDistanceLaw.ChiSquareAbove
-                    ? BetaDistanceLaw.UpperQuantile(alpha, k, keptCount) : double.PositiveInfinity;
+                if (!cuts.TryGetValue((alpha, keptCount), out var cut))
+                {
+                    cut = new double[p + 1];
+                    cut[0] = double.NaN;
+                    for (int k = 1; k <= p; k++) cut[k] = BetaDistanceLaw.Applies(keptCount, k) || keptCount > BetaDistanceLaw.ChiSquareAbove
+                        ? BetaDistanceLaw.UpperQuantile(alpha, k, keptCount) : double.PositiveInfinity;
+                    cuts[(alpha, keptCount)] = cut;
+                }
                 var step = Step(x, n, p, mean, cov, cut, truncation, kept, keptCount);
                 if (step is null) break;   // too few rows kept for a non-singular covariance: keep the previous estimate
                 bool same = step.Kept.AsSpan().SequenceEqual(kept);

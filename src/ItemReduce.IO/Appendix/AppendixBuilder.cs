@@ -116,7 +116,7 @@ public static class AppendixBuilder
     {
         var d = s.Dimensions;
         var f = s.ShortForm;
-        return Inv($"cutoff p = {s.Screening.CutoffP}; distance = {(s.Screening.UseRobust ? "robust (FAST-MCD)" : "classical")}; flagged respondents {(s.KeepFlagged ? "kept" : "set aside")}; ") +
+        return Inv($"cutoff p = {s.Screening.CutoffP}; distance = {(s.Screening.UseRobust ? "robust (ER estimate)" : "classical")}; flagged respondents {(s.KeepFlagged ? "kept" : "set aside")}; ") +
                Inv($"correlation = {d.Correlation.ToString().ToLowerInvariant()}, {d.MissingData.ToString().ToLowerInvariant()}; reference = {d.Reference.ToString().ToLowerInvariant()}, {d.Replicates} replicates, {d.Percentile}th percentile; ") +
                Inv($"factor rule = {(d.FixedFactors is int k ? $"fixed at {k}" : d.FactorsRule.ToString().ToLowerInvariant())}; extraction = {Outputs.SummaryJson.ExtractionName(f.Factoring.Extraction)}; rotation = {f.Factoring.Rotation.ToString().ToLowerInvariant()}; ") +
                Inv($"items per scale = {f.ItemsPerScale}; holdout = {f.HoldoutFraction}");
@@ -186,7 +186,14 @@ public static class AppendixBuilder
                 "Responses are not reproduced here. Look at each flagged respondent's answers before deciding anything; atypical is not the same as invalid." + more);
         }
         refs.Add(MethodReferences.Mahalanobis1936);
-        refs.Add(MethodReferences.RousseeuwVanDriessen1999);
+        if (s.Options.UseRobust)
+        {
+            refs.Add(MethodReferences.LittleSmith1987);
+            refs.Add(MethodReferences.DempsterLairdRubin1977);
+            refs.Add(MethodReferences.Beasley2009);
+            refs.Add(MethodReferences.Wilks1963);
+        }
+        refs.Add(MethodReferences.Curran2016);
         refs.Add(MethodReferences.Johnson2005);
         refs.Add(MethodReferences.Dunn2018);
         refs.Add(MethodReferences.MeadeCraig2012);
