@@ -73,5 +73,11 @@ if (mode == "case")
     {
         var (scored, raw, truth) = ScreeningStudy.Draw(conditions[0], 1_000_000UL + (ulong)r);
         var res = RespondentScreening.Run(scored, options with { Seed = (ulong)r + 1 }, raw);
-        Console.WriteLine(string.Create(inv, $"rep {r}: robust flags {res.ReasonCounts[0].Count}, kept {res.Robust.SupportSize}/{res.Robust.RowsUsed}, converged {res.Robust.Converged}, available {res.Robust.Available}; ") + string.Join(" | ", res.Warnings));
+        var randomD2 = Enumerable.Range(0, truth.Length).Where(i => truth[i] == CarelessKind.UniformRandom && res.Respondents[i].ItemsAnswered == scored.ItemCount)
+            .Select(i => (res.Respondents[i].RobustD2, res.Respondents[i].D2)).ToList();
+        var attentiveD2 = Enumerable.Range(0, truth.Length).Where(i => truth[i] == CarelessKind.None && res.Respondents[i].ItemsAnswered == scored.ItemCount)
+            .Select(i => res.Respondents[i].RobustD2).OrderBy(v => v).ToList();
+        var full = res.Respondents.First(x => x.ItemsAnswered == scored.ItemCount);
+        Console.WriteLine(string.Create(inv, $"rep {r}: robust flags {res.ReasonCounts[0].Count}, kept {res.Robust.SupportSize}/{res.Robust.RowsUsed}, converged {res.Robust.Converged}, available {res.Robust.Available}; " +
+            $"cutoff {full.Cutoff:0.0}; random robust D2 {string.Join(" ", randomD2.Select(v => v.RobustD2.ToString("0", inv)))}; classical {string.Join(" ", randomD2.Select(v => v.D2.ToString("0", inv)))}; attentive median {attentiveD2[attentiveD2.Count / 2]:0.0} max {attentiveD2[^1]:0.0}"));
     }

@@ -20,7 +20,7 @@ internal sealed class CliOptions
 
     // Screening
     public readonly Option<double?> CutoffP = new("--cutoff-p") { Description = "Upper-tail probability of the chi-square cutoff for squared distances, df = items answered (default 0.001)." };
-    public readonly Option<string?> Distance = new("--distance") { Description = "Distance that raises the atypical flag: robust (FAST-MCD, default) or classical." };
+    public readonly Option<string?> Distance = new("--distance") { Description = "Distance that raises the atypical flag: robust (ER estimate for incomplete data, default) or classical." };
     public readonly Option<double?> RunShare = new("--run-share") { Description = "Flag a run of identical consecutive answers covering at least this share of the items (default 0.5; the run must also be at least 8 items long)." };
     public readonly Option<double?> FlatSd = new("--flat-sd") { Description = "Flag respondents whose own answers have a standard deviation below this value (default 0.2)." };
     public readonly Option<double?> MissingLimit = new("--missing-limit") { Description = "Flag respondents who left more than this share of items unanswered (default 0.5)." };

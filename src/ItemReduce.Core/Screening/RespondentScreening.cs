@@ -7,17 +7,23 @@ namespace ItemReduce.Core.Screening;
 
 /// <summary>
 /// Respondent screening: classical and robust squared Mahalanobis distances on the items each respondent answered,
-/// compared with χ² cutoffs whose degrees of freedom equal the items answered, plus careless-response indices
-/// (long-string, IRV, even-odd consistency, share missing). The result is a list of respondents to look at;
-/// flags are for human review, not for automatic deletion.
-/// <para>Missing answers: the classical distance uses item means over the answered values and the pairwise-complete
-/// covariance (see <see cref="PairwiseCovariance"/>; repaired to be positive definite when it is not, with a warning).
-/// FAST-MCD is fitted to the respondents who answered every item (a seeded random subsample when there are more than
-/// <see cref="ScreeningOptions.RobustMaxRows"/>); every respondent's robust distance then uses the sub-vector and
-/// sub-matrix of the robust location and scatter for the items he or she answered. Both distances therefore have
-/// df = items answered. With too few complete respondents (fewer than 2 (p + 1)) or an exact fit, robust distances
-/// are NaN and the classical distance drives the distance flags, with a warning. A respondent who answered nothing
-/// has NaN distances and is flagged as mostly unanswered.</para>
+/// with cutoffs whose degrees of freedom equal the items answered, plus careless-response indices (long-string,
+/// alternating run, IRV, even-odd consistency, share missing; person–total correlation and psychometric
+/// synonyms/antonyms reported without a flag). The result is a list of respondents to look at; flags are for human
+/// review, not for automatic deletion.
+/// <para>Classical distance: item means over the answered values and the pairwise-complete covariance (see
+/// <see cref="PairwiseCovariance"/>; repaired to be positive definite when it is not, with a warning), on the answers,
+/// compared with the χ² quantile.</para>
+/// <para>Robust distance: the <see cref="ErAlgorithm"/> estimate for incomplete data on the items' normal scores
+/// (<see cref="NormalScores"/>), fitted to every respondent who answered an item (a systematic subsample above
+/// <see cref="ScreeningOptions.RobustMaxRows"/>); each respondent's distance uses the sub-vector and sub-matrix for
+/// the items he or she answered; respondents outside the final estimate get their leave-in distance
+/// (<see cref="ErAlgorithm.LeaveIn"/>); the cutoff is the in-sample law <see cref="BetaDistanceLaw"/>. Nothing random:
+/// the result does not depend on the seed. With fewer than 2 (p + 1) respondents the robust distances are NaN and
+/// the classical distance drives the flags, with a warning; with fewer than <see cref="SmallSampleRatio"/>
+/// respondents per item the classical distance drives the flags (the validation study found the robust rule above
+/// twice its nominal rate there), with a warning. A respondent who answered nothing has NaN distances and is flagged
+/// as mostly unanswered.</para>
 /// </summary>
 public static class RespondentScreening
 {
@@ -43,8 +49,8 @@ public static class RespondentScreening
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new List<string>();
 
-        // 1. Robust location and scatter from FAST-MCD on complete rows, fitted on another thread while the classical
-        //    moments are accumulated (the two do not depend on each other; FAST-MCD leaves cores idle between its steps).
+        // 1. Robust location and scatter (ER estimate on normal scores), fitted on another thread while the classical
+        //    moments are accumulated (the two do not depend on each other).
         var robustWarnings = new List<string>();
         var robustFit = Task.Run(() => RobustFit(data, options, robustWarnings, progress));
 
@@ -83,7 +89,8 @@ public static class RespondentScreening
         bool useRobust = options.UseRobust && robust.Available;
         if (options.UseRobust && !robust.Available)
             warnings.Add("Robust distances were not available; distance flags use the classical distance instead.");
-        if (useRobust && robust.RowsUsed < SmallSampleRatio * p)
+        bool smallSample = useRobust && robust.RowsUsed < SmallSampleRatio * p;
+        if (smallSample)
         {
             useRobust = false;
             warnings.Add(string.Create(CultureInfo.InvariantCulture,
@@ -142,7 +149,7 @@ public static class RespondentScreening
         int flagged = rows.Flagged();
         string rule = Describe(options, useRobust, runLimit, n, p, evenOdd);
         var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
-        return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options);
+        return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample);
     }
 
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
@@ -280,11 +287,13 @@ public static class RespondentScreening
         for (int r = 0; r < m; r++) inEstimate[rowsUsed[r]] = fit.KeptRows[r];
         if (!dist.FullFactorAvailable)
             return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null);
+        if (fit.StagedCollapsed)
+            warnings.Add("The staged robust fit collapsed onto a cluster of identical answers; the direct fit at the cutoff was used instead.");
         string note = subsampled
             ? $"Robust EM (ER) estimate on the items' normal scores, fitted to a systematic subsample of {m} of the {answering.Count} respondents (every {(double)answering.Count / m:0.#}-th); robust distances computed for everyone."
             : $"Robust EM (ER) estimate on the items' normal scores, fitted to all {m} respondents who answered any item; {fit.Kept} kept in the final step.";
         return (new RobustEstimatorDetails(true, complete, subsampled, m, fit.Kept, double.NaN, fit.TruncationFactor,
-            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note), dist, scores, inEstimate);
+            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate);
     }
 
     private static string Meaning(string code) => code switch

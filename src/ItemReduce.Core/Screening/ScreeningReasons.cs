@@ -3,7 +3,7 @@ namespace ItemReduce.Core.Screening;
 /// <summary>Reason codes attached to flagged respondents (our own short kebab-case names).</summary>
 public static class ScreeningReasons
 {
-    /// <summary>Robust (FAST-MCD) squared distance beyond the χ² cutoff for the items answered.</summary>
+    /// <summary>Robust (ER estimate) squared distance beyond the finite-sample cutoff for the items answered.</summary>
     public const string RobustDistance = "atypical-robust";
 
     /// <summary>Classical squared distance beyond the χ² cutoff (used for flags when the robust one is off or unavailable).</summary>
