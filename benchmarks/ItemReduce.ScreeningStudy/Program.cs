@@ -9,8 +9,9 @@ using ItemReduce.Simulation;
 var inv = CultureInfo.InvariantCulture;
 string mode = args.Length > 0 ? args[0] : "full";
 var conditions = new List<ScreeningStudy.Condition>();
-const int AttentiveTarget = 8_000;   // attentive respondents per cell: 0.1 % then has a Monte Carlo sd of about 0.035 %
-int Reps(int n, int min = 2) => Math.Max(min, (int)Math.Ceiling(AttentiveTarget / (double)n));
+const int AttentiveTarget = 4_000;   // attentive respondents per cell (fewer for n = 5 × items, see MaxReps)
+const int MaxReps = 40;
+int Reps(int n, int min = 2) => Math.Min(MaxReps, Math.Max(min, (int)Math.Ceiling(AttentiveTarget / (double)n)));
 switch (mode)
 {
     case "case":
@@ -27,10 +28,11 @@ switch (mode)
         // The two cases the rules must get right first.
         conditions.Add(new(30, 7, false, 0.05, 600, 0.03, Reps(600)));
         conditions.Add(new(24, 5, false, 0.0, 200, 0.0, Reps(200)));
+        // Attentive respondents only: the false-flag rate.
         foreach (int p in new[] { 12, 24, 36 })
             foreach (int c in new[] { 4, 5, 7 })
                 foreach (bool skew in new[] { false, true })
-                    foreach (double miss in new[] { 0.0, 0.05, 0.10 })
+                    foreach (double miss in new[] { 0.0, 0.10 })
                         foreach (int ratio in new[] { 5, 20, 100 })
                         {
                             if (ratio == 100 && p == 36) continue;
@@ -38,13 +40,13 @@ switch (mode)
                             conditions.Add(new(p, c, skew, miss, n, 0.0, Reps(n)));
                         }
         // Careless respondents at 5 % and 10 %: recall (and the false-flag rate of the attentive rest).
-        foreach (int p in new[] { 12, 24, 36 })
+        foreach (int p in new[] { 12, 24, 36, 48 })
             foreach (bool skew in new[] { false, true })
                 foreach (double share in new[] { 0.05, 0.10 })
                     foreach (int ratio in new[] { 5, 20 })
                     {
                         int n = ratio * p;
-                        conditions.Add(new(p, 5, skew, 0.05, n, share, Math.Max(2, (int)Math.Ceiling(1_000 / (share * n)))));
+                        conditions.Add(new(p, 5, skew, 0.05, n, share, Math.Max(2, (int)Math.Ceiling(400 / (share * n)))));
                     }
         break;
 }

@@ -57,7 +57,8 @@ internal static class ErAlgorithm
     /// <param name="p">Items.</param>
     /// <param name="rejectP">α: a row is set aside when its distance exceeds the upper-α in-sample quantile.</param>
     /// <param name="maxIterations">Cap on the EM and on the ER iterations (each).</param>
-    public static ErEstimate Fit(double[] x, int n, int p, double rejectP, int maxIterations = 200)
+    /// <param name="reject">False: stop after the EM start (every row kept; the plain EM estimate).</param>
+    public static ErEstimate Fit(double[] x, int n, int p, double rejectP, int maxIterations = 200, bool reject = true)
     {
         ArgumentNullException.ThrowIfNull(x);
         if (x.Length != (long)n * p) throw new ArgumentException($"Expected {n}×{p} values, got {x.Length}.", nameof(x));
@@ -77,6 +78,15 @@ internal static class ErAlgorithm
             if (small) break;
         }
         if (emIterations == maxIterations) converged = false;
+        if (!reject)
+        {
+            var all = new bool[n];
+            Array.Fill(all, true);
+            var plain = new double[p, p];
+            for (int j = 0; j < p; j++)
+                for (int k = 0; k < p; k++) plain[j, k] = cov[j * p + k];
+            return new ErEstimate(mean, plain, n, n, all, emIterations + 1, 0, converged, 1, false);
+        }
 
         // 2. ER from the EM estimate, twice: (A) first at the wider rejection shares of StartRejection, each to
         //    convergence (a clean core that clusters of similar careless rows cannot mask), then at the requested α;

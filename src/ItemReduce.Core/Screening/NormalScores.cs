@@ -22,13 +22,24 @@ internal sealed class NormalScores
     private readonly Dictionary<double, double>[] _maps;
     private readonly double[]?[] _tables;
     private readonly double[] _tableOrigin;
+    private readonly double[][] _values;
+    private readonly double[][] _shares;
 
-    private NormalScores(Dictionary<double, double>[] maps, double[]?[] tables, double[] tableOrigin)
+    private NormalScores(Dictionary<double, double>[] maps, double[]?[] tables, double[] tableOrigin, double[][] values, double[][] shares)
     {
         _maps = maps;
         _tables = tables;
         _tableOrigin = tableOrigin;
+        _values = values;
+        _shares = shares;
     }
+
+    /// <summary>Distinct answers of item <paramref name="j"/> in ascending order and the share of the item's answers
+    /// each has.</summary>
+    public (double[] Values, double[] Shares) Categories(int j) => (_values[j], _shares[j]);
+
+    /// <summary>Items.</summary>
+    public int Items => _maps.Length;
 
     /// <summary>Most distinct whole-number values per item kept in a lookup table instead of a dictionary.</summary>
     private const int TableRange = 4096;
@@ -76,10 +87,14 @@ internal sealed class NormalScores
         var maps = new Dictionary<double, double>[p];
         var tables = new double[]?[p];
         var origin = new double[p];
+        var allValues = new double[p][];
+        var allShares = new double[p][];
         for (int j = 0; j < p; j++)
         {
             var values = counts[j].Keys.OrderBy(v => v).ToArray();
             long m = counts[j].Values.Sum();
+            allValues[j] = values;
+            allShares[j] = values.Select(v => counts[j][v] / (double)m).ToArray();
             var map = new Dictionary<double, double>(values.Length);
             long below = 0;
             foreach (double v in values)
@@ -98,7 +113,7 @@ internal sealed class NormalScores
                 origin[j] = values[0];
             }
         }
-        return new NormalScores(maps, tables, origin);
+        return new NormalScores(maps, tables, origin, allValues, allShares);
     }
 
     /// <summary>Score of answer <paramref name="v"/> to item <paramref name="j"/>; NaN for a missing answer or a value not counted.</summary>

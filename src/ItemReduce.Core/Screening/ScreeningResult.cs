@@ -8,10 +8,11 @@ namespace ItemReduce.Core.Screening;
 /// answered; for a respondent outside the final estimate, the leave-in distance (<see cref="ErAlgorithm.LeaveIn"/>).
 /// NaN when the robust fit is unavailable.</param>
 /// <param name="Cutoff">Cutoff of the distance that raises the atypical flag, df = <paramref name="ItemsAnswered"/>: the
-/// in-sample Beta quantile (<see cref="BetaDistanceLaw"/>) at <see cref="ScreeningOptions.CutoffP"/> when the robust
-/// rule is in use, otherwise the χ² upper quantile.</param>
+/// in-sample Beta quantile (<see cref="BetaDistanceLaw"/>) at <see cref="ScreeningOptions.CutoffP"/> times the ordinal
+/// calibration factor when the robust rule is in use, otherwise the χ² upper quantile.</param>
 /// <param name="PValue">P(χ²_df &gt; D2).</param>
-/// <param name="RobustPValue">P(D² &gt; RobustD2) under the law of <see cref="BetaDistanceLaw"/>.</param>
+/// <param name="RobustPValue">P(D² &gt; RobustD2 / f) under the law of <see cref="BetaDistanceLaw"/>, f the ordinal
+/// calibration factor (<see cref="RobustEstimatorDetails.ConsistencyFactor"/>).</param>
 /// <param name="LongString">Longest run of identical consecutive answers (0 with no answers).</param>
 /// <param name="Irv">Within-person SD (n − 1) of the answers; NaN with fewer than 2 answers.</param>
 /// <param name="EvenOdd">Spearman–Brown corrected even-odd consistency; NaN when not computable.</param>
@@ -51,7 +52,8 @@ public sealed record ScreeningReasonCount(string Code, string Meaning, int Count
 /// <param name="Subsampled">True when a systematic subsample was used (more than <see cref="ScreeningOptions.RobustMaxRows"/> respondents).</param>
 /// <param name="RowsUsed">Rows the estimate was fitted to (respondents who answered at least one item, or the subsample).</param>
 /// <param name="SupportSize">Rows kept (weight 1) in the final step; the N of the finite-sample cutoff.</param>
-/// <param name="ConsistencyFactor">NaN (no median-based consistency factor is used).</param>
+/// <param name="ConsistencyFactor">Ordinal-answer calibration factor every robust cutoff is multiplied by
+/// (<see cref="DiscretenessCalibration"/>; 1 when not applied).</param>
 /// <param name="ReweightingFactor">Truncation factor applied to the covariance of the kept rows.</param>
 /// <param name="ReweightedCount">Rows kept in the final step (same as <paramref name="SupportSize"/>).</param>
 /// <param name="NestedExtension">Always false (no nested extension).</param>
@@ -97,8 +99,9 @@ public sealed record RobustEstimatorDetails(
 /// <param name="HalfPeakRegion">Figure data for k = 1 .. max(p, 20).</param>
 /// <param name="Warnings">Recoverable problems, in plain English.</param>
 /// <param name="Options">The options used.</param>
-/// <param name="SmallSampleFallback">True when the robust rule was replaced by the classical one because there were
-/// fewer than <see cref="RespondentScreening.SmallSampleRatio"/> respondents per item.</param>
+/// <param name="SmallSampleFallback">True when there were fewer than <see cref="RespondentScreening.SmallSampleRatio"/>
+/// respondents per item, so the robust rejection was switched off (plain EM estimate on the normal scores, every
+/// respondent in it).</param>
 public sealed record ScreeningResult(
     IReadOnlyList<RespondentScreeningRow> Respondents,
     IReadOnlyList<ScreeningReasonCount> ReasonCounts,
