@@ -29,10 +29,10 @@ public class RespondentScreeningContractTests
         Assert.All(r.Respondents, x =>
         {
             Assert.Equal(12 - (int)Math.Round(x.MissingShare * 12), x.ItemsAnswered);
-            // The robust rule's cutoff has df = items answered and lies below the asymptotic χ²_df cutoff (the
-            // in-sample Beta law is bounded; Wilks 1963), with the stated tail probability under that law.
-            Assert.True(x.Cutoff < ChiSquareTail.UpperQuantile(0.001, x.ItemsAnswered));
-            Assert.Equal(0.001, BetaDistanceLaw.UpperTail(x.Cutoff, x.ItemsAnswered, r.Robust.SupportSize), 1e-9);
+            // The robust rule's cutoff (divided by the ordinal calibration factor) has df = items answered and lies below
+            // the asymptotic χ²_df cutoff (the in-sample Beta law is bounded; Wilks 1963), with the stated tail probability.
+            Assert.True(x.Cutoff / r.Robust.ConsistencyFactor < ChiSquareTail.UpperQuantile(0.001, x.ItemsAnswered));
+            Assert.Equal(0.001, BetaDistanceLaw.UpperTail(x.Cutoff / r.Robust.ConsistencyFactor, x.ItemsAnswered, r.Robust.SupportSize), 1e-9);
         });
         Assert.Equal(20, r.HalfPeakRegion.Count); // max(p = 12, 20)
         Assert.Contains("human review", r.RuleDescription);
