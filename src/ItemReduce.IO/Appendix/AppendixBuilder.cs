@@ -192,6 +192,7 @@ public static class AppendixBuilder
             refs.Add(MethodReferences.DempsterLairdRubin1977);
             refs.Add(MethodReferences.Beasley2009);
             refs.Add(MethodReferences.Wilks1963);
+            if (s.Robust.Available && s.Robust.ConsistencyFactor != 1) refs.Add(MethodReferences.Olsson1979);
         }
         refs.Add(MethodReferences.Curran2016);
         refs.Add(MethodReferences.Johnson2005);
