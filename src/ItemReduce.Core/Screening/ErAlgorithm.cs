@@ -311,14 +311,35 @@ internal static class ErAlgorithm
             }
         }
         double d2 = 0;
-        for (int j = 0; j < p; j++)
-        {
-            double w = 0;
-            for (int k = 0; k < p; k++) w += omega[j * p + k] * s.Z[k];
-            d2 += s.Z[j] * w;
-        }
+        var z = s.Z.AsSpan(0, p);
+        for (int j = 0; j < p; j++) d2 += z[j] * Dot(omega.AsSpan(j * p, p), z);
         s.D2 = d2;
         return true;
+    }
+
+    /// <summary>Σ a_i b_i, in SIMD lanes then the tail; the summation order depends only on the length, so results
+    /// do not depend on the thread count.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static double Dot(ReadOnlySpan<double> a, ReadOnlySpan<double> b)
+    {
+        int n = a.Length, i = 0;
+        var acc = System.Numerics.Vector<double>.Zero;
+        int w = System.Numerics.Vector<double>.Count;
+        for (; i <= n - w; i += w) acc += new System.Numerics.Vector<double>(a.Slice(i, w)) * new System.Numerics.Vector<double>(b.Slice(i, w));
+        double sum = System.Numerics.Vector.Sum(acc);
+        for (; i < n; i++) sum += a[i] * b[i];
+        return sum;
+    }
+
+    /// <summary>y += a · x, in SIMD lanes then the tail.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void Axpy(double a, ReadOnlySpan<double> x, Span<double> y)
+    {
+        int n = x.Length, i = 0;
+        int w = System.Numerics.Vector<double>.Count;
+        var va = new System.Numerics.Vector<double>(a);
+        for (; i <= n - w; i += w) (new System.Numerics.Vector<double>(y.Slice(i, w)) + va * new System.Numerics.Vector<double>(x.Slice(i, w))).CopyTo(y.Slice(i, w));
+        for (; i < n; i++) y[i] += a * x[i];
     }
 
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
@@ -328,9 +349,7 @@ internal static class ErAlgorithm
         for (int j = 0; j < p; j++)
         {
             acc[j] += z[j];
-            double zj = z[j];
-            int o = p + j * p;
-            for (int k = 0; k <= j; k++) acc[o + k] += zj * z[k];
+            Axpy(z[j], z.AsSpan(0, j + 1), acc.AsSpan(p + j * p, j + 1));
         }
         int m = s.MissingCount;
         for (int a = 0; a < m; a++)

@@ -25,9 +25,10 @@ public sealed record ScreeningOptions
     /// <summary>
     /// Most respondents the robust estimate is fitted to; above this a systematic subsample of this size (every
     /// (n / cap)-th respondent) is used and the robust distances of all respondents are computed from that fit.
-    /// Default 50,000; range ≥ 100.
+    /// Default 20,000 (the ER estimate makes a few dozen passes over its rows; at 20,000 rows the in-sample law
+    /// is within about p / 20,000 of χ²); range ≥ 100.
     /// </summary>
-    public int RobustMaxRows { get; init; } = 50_000;
+    public int RobustMaxRows { get; init; } = 20_000;
 
     /// <summary>Not used since the ER estimate replaced FAST-MCD (was: share h / n of rows in the MCD support). Range [0.5, 1].</summary>
     public double? RobustSupportFraction { get; init; }
