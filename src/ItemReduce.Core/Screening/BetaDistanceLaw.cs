@@ -27,7 +27,31 @@ internal static class BetaDistanceLaw
     {
         if (!Applies(n, k)) return ChiSquareTail.UpperQuantile(q, k);
         double scale = (n - 1.0) * (n - 1.0) / n;
-        return scale * Beta.InvCDF(k / 2.0, (n - k - 1) / 2.0, 1 - q);
+        return scale * UpperBetaQuantile(k / 2.0, (n - k - 1) / 2.0, q);
+    }
+
+    /// <summary>
+    /// x with P(Beta(a, b) &gt; x) = q: Newton's method on the upper tail <c>I_{1−x}(b, a)</c>, whose derivative in x
+    /// is minus the Beta density, from the χ² approximation <c>x₀ = χ²_{2a}(q) / (2a + 2b)</c>, kept inside (0, 1) by
+    /// bisection steps; falls back to Math.NET's <see cref="Beta.InvCDF"/> when it does not settle in 60 steps.
+    /// </summary>
+    internal static double UpperBetaQuantile(double a, double b, double q)
+    {
+        double logB = SpecialFunctions.BetaLn(a, b);
+        double lo = 0, hi = 1;
+        double x = Math.Clamp(ChiSquareTail.UpperQuantile(q, 2 * a) / (2 * a + 2 * b), 1e-12, 1 - 1e-12);
+        for (int step = 0; step < 60; step++)
+        {
+            double tail = SpecialFunctions.BetaRegularized(b, a, 1 - x);
+            double f = tail - q;
+            if (f > 0) lo = x; else hi = x;   // the tail falls as x grows
+            double density = Math.Exp((a - 1) * Math.Log(x) + (b - 1) * Math.Log(1 - x) - logB);
+            double next = x + f / density;
+            if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+            if (Math.Abs(next - x) <= 1e-14 * x) return next;
+            x = next;
+        }
+        return Beta.InvCDF(a, b, 1 - q);
     }
 
     /// <summary>P(D² &gt; <paramref name="d2"/>); the upper tail is computed directly as I_{1−x}(b, a), never as 1 − CDF.</summary>

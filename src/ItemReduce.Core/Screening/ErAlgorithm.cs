@@ -36,7 +36,8 @@ internal sealed record ErEstimate(double[] Location, double[,] Scatter, int Rows
 /// the covariance multiplied by the normal-theory factor <c>(1 − α) / F_χ²(p+2)(χ²_p(1 − α))</c> for a
 /// distribution truncated at that quantile (Croux, C., &amp; Haesbroeck, G., 1999, Journal of Multivariate Analysis
 /// 71(2), 161–190).</item>
-/// <item>Stop when the kept set repeats and the estimate changes by less than <see cref="Tolerance"/>.</item>
+/// <item>Stop when the kept set repeats and the estimate changes by less than <see cref="Tolerance"/>
+/// (<see cref="StageTolerance"/> for the wider stages, which only provide a start).</item>
 /// </list>
 /// Rows are processed in fixed blocks whose sums are added in block order, so the result does not depend on the
 /// thread count.
@@ -46,8 +47,11 @@ internal static class ErAlgorithm
     /// <summary>Rejection shares of the stages run before the requested one (each to convergence, from the previous).</summary>
     internal static readonly double[] StartRejection = [0.1, 0.025];
 
-    /// <summary>Relative change of μ and Σ below which the iterations stop.</summary>
-    internal const double Tolerance = 1e-9;
+    /// <summary>Relative change of μ and Σ below which the EM start and the final stage stop.</summary>
+    internal const double Tolerance = 1e-8;
+
+    /// <summary>Relative change below which the wider stages before the final one stop (they only provide a start).</summary>
+    internal const double StageTolerance = 1e-4;
 
     private const int BlockRows = 512;
 
@@ -118,8 +122,10 @@ internal static class ErAlgorithm
         bool converged = false;
         double truncation = 1;
         var cuts = new Dictionary<(double, int), double[]>();
-        foreach (double alpha in alphas)
+        var list = alphas.ToList();
+        for (int a = 0; a < list.Count; a++)
         {
+            double alpha = list[a], tolerance = a == list.Count - 1 ? Tolerance : StageTolerance;
             double chiLimit = ChiSquareTail.UpperQuantile(alpha, p);
             truncation = (1 - alpha) / ChiSquareTail.Cdf(chiLimit, p + 2);
             converged = false;
@@ -136,7 +142,7 @@ internal static class ErAlgorithm
                 var step = Step(x, n, p, mean, cov, cut, truncation, kept, keptCount);
                 if (step is null) break;   // too few rows kept for a non-singular covariance: keep the previous estimate
                 bool same = step.Kept.AsSpan().SequenceEqual(kept);
-                bool small = Change(mean, cov, step.Mean, step.Cov, p) < Tolerance;
+                bool small = Change(mean, cov, step.Mean, step.Cov, p) < tolerance;
                 (mean, cov, kept, keptCount) = (step.Mean, step.Cov, step.Kept, step.KeptCount);
                 if (same && small) { converged = true; break; }
             }

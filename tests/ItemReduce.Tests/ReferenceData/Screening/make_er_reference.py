@@ -1,6 +1,6 @@
 """Independent numpy/scipy implementation of the screening's robust EM (ER) estimate, written from its description
-(ErAlgorithm summary) without the C# code: EM start from item means and pairwise covariance, hard-rejection ER
-stages at shares 0.1, 0.025 and then alpha with in-sample Beta cutoffs (scipy.stats.beta.ppf), rows outside the
+(ErAlgorithm summary) without the C# code: EM start from item means and pairwise covariance (stop at relative change 1e-8), hard-rejection ER
+stages (earlier stages stop at 1e-4, the last at 1e-8) at shares 0.1, 0.025 and then alpha with in-sample Beta cutoffs (scipy.stats.beta.ppf), rows outside the
 estimate judged by their leave-in distance, Croux-Haesbroeck truncation factor, and the direct fit used when the
 staged one keeps fewer rows than the direct fit minus 0.2 n. Writes er-reference-data.csv (the data) and
 er-reference-fit.csv (location, scatter, kept flags). Run: python3 make_er_reference.py (numpy, scipy from Debian).
@@ -64,19 +64,20 @@ def step(mean, cov, a, kept_prev, nk, factor):
 mean, cov = pairwise_start(x)
 for _ in range(200):
     m1, c1, _k = step(mean, cov, None, None, n, 1.0)
-    done = max(np.abs(m1 - mean).max() / np.sqrt(cov.diagonal().max()), np.abs(c1 - cov).max() / cov.diagonal().max()) < 1e-9
+    done = max(np.abs(m1 - mean).max() / np.sqrt(cov.diagonal().max()), np.abs(c1 - cov).max() / cov.diagonal().max()) < 1e-8
     mean, cov = m1, c1
     if done:
         break
 
 def stages(mean, cov, alphas):
     kept, nk = np.ones(n, bool), n
-    for a in alphas:
+    for i, a in enumerate(alphas):
+        tol = 1e-8 if i == len(alphas) - 1 else 1e-4
         factor = (1 - a) / stats.chi2.cdf(stats.chi2.isf(a, p), p + 2)
         for _ in range(200):
             m1, c1, k1 = step(mean, cov, a, kept, nk, factor)
             same = (k1 == kept).all()
-            small = max(np.abs(m1 - mean).max() / np.sqrt(cov.diagonal().max()), np.abs(c1 - cov).max() / cov.diagonal().max()) < 1e-9
+            small = max(np.abs(m1 - mean).max() / np.sqrt(cov.diagonal().max()), np.abs(c1 - cov).max() / cov.diagonal().max()) < tol
             mean, cov, kept, nk = m1, c1, k1, int(k1.sum())
             if same and small:
                 break
