@@ -19,6 +19,9 @@ public static class FactorModelSimulator
     /// <param name="RandomResponders">Number of planted uniform-random respondents.</param>
     /// <param name="ItemNames">Optional item names (default q01, q02, ...).</param>
     /// <param name="SubscaleNames">Optional subscale name per factor (default F1, F2, ...).</param>
+    /// <param name="WideAlternators">Number of planted wide-alternation respondents (ordinal items only).</param>
+    /// <param name="NarrowAlternators">Number of planted narrow-alternation respondents (ordinal items only).</param>
+    /// <param name="MostlyUnanswered">Number of planted respondents who answer only about a quarter of the items.</param>
     public sealed record Settings(
         int Respondents,
         ulong Seed,
@@ -26,7 +29,14 @@ public static class FactorModelSimulator
         int StraightLiners = 0,
         int RandomResponders = 0,
         IReadOnlyList<string>? ItemNames = null,
-        IReadOnlyList<string>? SubscaleNames = null);
+        IReadOnlyList<string>? SubscaleNames = null,
+        int WideAlternators = 0,
+        int NarrowAlternators = 0,
+        int MostlyUnanswered = 0)
+    {
+        /// <summary>All planted careless respondents.</summary>
+        public int Careless => StraightLiners + RandomResponders + WideAlternators + NarrowAlternators + MostlyUnanswered;
+    }
 
     /// <summary>Generates a survey.</summary>
     public static SimulatedSurvey Generate(FactorModelSpec spec, Settings settings)
@@ -34,7 +44,7 @@ public static class FactorModelSimulator
         ArgumentNullException.ThrowIfNull(spec);
         ArgumentNullException.ThrowIfNull(settings);
         int n = settings.Respondents, p = spec.ItemFactor.Length, k = spec.FactorCount;
-        if (settings.StraightLiners + settings.RandomResponders > n)
+        if (settings.Careless > n)
             throw new ArgumentException("More careless respondents than respondents.");
         var rng = new RandomStream(settings.Seed);
         var chol = Cholesky(spec.FactorCorrelations ?? Identity(k));
@@ -62,6 +72,14 @@ public static class FactorModelSimulator
         rng.Shuffle(order.AsSpan());
         for (int t = 0; t < settings.StraightLiners; t++) careless[order[t]] = CarelessKind.StraightLine;
         for (int t = 0; t < settings.RandomResponders; t++) careless[order[settings.StraightLiners + t]] = CarelessKind.UniformRandom;
+        int next = settings.StraightLiners + settings.RandomResponders;
+        foreach (var (kind, count) in new[] { (CarelessKind.WideAlternation, settings.WideAlternators),
+                     (CarelessKind.NarrowAlternation, settings.NarrowAlternators), (CarelessKind.MostlyUnanswered, settings.MostlyUnanswered) })
+        {
+            if (count > 0 && c < 2 && kind != CarelessKind.MostlyUnanswered)
+                throw new ArgumentException($"{kind} respondents need ordinal items (Categories ≥ 2).");
+            for (int t = 0; t < count; t++) careless[order[next++]] = kind;
+        }
 
         var values = new double[(long)n * p];
         var z = new double[k];
@@ -80,6 +98,17 @@ public static class FactorModelSimulator
                 case CarelessKind.UniformRandom:
                     for (int j = 0; j < p; j++) values[o + j] = c > 0 ? 1 + rng.NextInt(c) : 3 * (2 * rng.NextDouble() - 1);
                     break;
+                case CarelessKind.WideAlternation:
+                case CarelessKind.NarrowAlternation:
+                {
+                    // Wide: 1 and c. Narrow: one category either side of the midpoint, rounded outwards.
+                    double mid = (1 + c) / 2.0;
+                    bool wide = careless[i] == CarelessKind.WideAlternation;
+                    double lo = wide ? 1 : Math.Floor(mid - 0.5), hi = wide ? c : Math.Ceiling(mid + 0.5);
+                    bool startHigh = rng.NextInt(2) == 1;
+                    for (int j = 0; j < p; j++) values[o + j] = (j % 2 == 0) == startHigh ? hi : lo;
+                    break;
+                }
                 default:
                     for (int a = 0; a < k; a++) z[a] = rng.NextGaussian();
                     for (int a = 0; a < k; a++)
@@ -98,10 +127,21 @@ public static class FactorModelSimulator
             }
             // Reverse-keyed items are mirrored only for model-generated answers: careless respondents'
             // raw answers are planted as given (a straight-liner ticks the same box on every item).
-            if (c > 0 && careless[i] == CarelessKind.None && spec.ReverseKeyed is { } rev)
+            if (c > 0 && careless[i] is (CarelessKind.None or CarelessKind.MostlyUnanswered) && spec.ReverseKeyed is { } rev)
                 for (int j = 0; j < p; j++) if (rev[j]) values[o + j] = 1 + c - values[o + j];
             if (settings.MissingRate > 0)
                 for (int j = 0; j < p; j++) if (rng.NextDouble() < settings.MissingRate) values[o + j] = double.NaN;
+            if (careless[i] == CarelessKind.MostlyUnanswered)
+            {
+                // Keep about a quarter of the items (at least one), chosen at random; the rest are left blank.
+                int keep = Math.Max(1, p / 4), kept = 0;
+                for (int j = 0; j < p; j++)
+                {
+                    bool take = rng.NextInt(p - j) < keep - kept;
+                    if (take) kept++;
+                    else values[o + j] = double.NaN;
+                }
+            }
         }
 
         var items = new ItemDefinition[p];

@@ -19,25 +19,27 @@ public sealed record ScreeningOptions
     /// </summary>
     public double CutoffP { get; init; } = 0.001;
 
-    /// <summary>Flag by the robust (FAST-MCD) distance when true (default), by the classical distance when false.
-    /// Both distances are always reported when they can be computed.</summary>
+    /// <summary>Flag by the robust (ER estimate) distance when true (default), by the classical distance when false.
+    /// Both distances are always reported when they can be computed. With fewer than 10 respondents per item the
+    /// classical distance raises the flags even when this is true (with a warning).</summary>
     public bool UseRobust { get; init; } = true;
 
-    /// <summary>Seed of every random step (FAST-MCD starts and subsampling). Default
-    /// <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline: <c>PipelineSettings.Seed</c>).</summary>
+    /// <summary>Seed of random steps. The screening has none since the ER estimate replaced FAST-MCD; kept so one seed
+    /// reaches every stage. Default <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline: <c>PipelineSettings.Seed</c>).</summary>
     public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
     /// <summary>
-    /// Most complete rows FAST-MCD is fitted to; above this a seeded random subsample of this size is used and the
-    /// robust distances of all respondents are computed from that fit. Default 50,000; range ≥ 100.
+    /// Most respondents the robust estimate is fitted to; above this a systematic subsample of this size (every
+    /// (n / cap)-th respondent) is used and the robust distances of all respondents are computed from that fit.
+    /// Default 20,000 (the ER estimate makes a few dozen passes over its rows; at 20,000 rows the in-sample law
+    /// is within about p / 20,000 of χ²); range ≥ 100.
     /// </summary>
-    public int RobustMaxRows { get; init; } = 50_000;
+    public int RobustMaxRows { get; init; } = 20_000;
 
-    /// <summary>Share h / n of rows in the MCD support; null (default) means h = ⌊(n + p + 1) / 2⌋, the highest
-    /// breakdown point. Range [0.5, 1].</summary>
+    /// <summary>Not used since the ER estimate replaced FAST-MCD (was: share h / n of rows in the MCD support). Range [0.5, 1].</summary>
     public double? RobustSupportFraction { get; init; }
 
-    /// <summary>Random (p + 1)-subsets FAST-MCD starts from (Rousseeuw &amp; Van Driessen 1999 use 500). Range 1..100000.</summary>
+    /// <summary>Not used since the ER estimate replaced FAST-MCD (was: random (p + 1)-subsets FAST-MCD starts from). Range 1..100000.</summary>
     public int RobustInitialSubsets { get; init; } = 500;
 
     /// <summary>

@@ -3,7 +3,7 @@ namespace ItemReduce.Core.Screening;
 /// <summary>Reason codes attached to flagged respondents (our own short kebab-case names).</summary>
 public static class ScreeningReasons
 {
-    /// <summary>Robust (FAST-MCD) squared distance beyond the χ² cutoff for the items answered.</summary>
+    /// <summary>Robust (ER estimate) squared distance beyond the finite-sample cutoff for the items answered.</summary>
     public const string RobustDistance = "atypical-robust";
 
     /// <summary>Classical squared distance beyond the χ² cutoff (used for flags when the robust one is off or unavailable).</summary>
@@ -21,7 +21,10 @@ public static class ScreeningReasons
     /// <summary>More than the allowed share of items unanswered.</summary>
     public const string MostlyUnanswered = "mostly-unanswered";
 
-    /// <summary>All codes in reporting order.</summary>
+    /// <summary>Long run of answers alternating between two values (alternating-run index).</summary>
+    public const string AlternatingAnswers = "alternating-run";
+
+    /// <summary>All codes in reporting order (new codes are appended).</summary>
     public static IReadOnlyList<string> All { get; } =
-        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered];
+        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered, AlternatingAnswers];
 }

@@ -4,16 +4,25 @@ namespace ItemReduce.Core.Screening;
 /// <param name="RespondentId">Id from the input, rows in input order.</param>
 /// <param name="ItemsAnswered">Items answered = degrees of freedom of both distances.</param>
 /// <param name="D2">Classical squared Mahalanobis distance (sample mean, pairwise n − 1 covariance) on the items answered.</param>
-/// <param name="RobustD2">Robust squared distance (reweighted FAST-MCD location and scatter) on the items answered; NaN when the robust fit is unavailable.</param>
-/// <param name="Cutoff">χ² upper quantile at <see cref="ScreeningOptions.CutoffP"/> with df = <paramref name="ItemsAnswered"/>.</param>
+/// <param name="RobustD2">Robust squared distance (ER location and scatter, on the items' normal scores) on the items
+/// answered; for a respondent outside the final estimate, the leave-in distance (<see cref="ErAlgorithm.LeaveIn"/>).
+/// NaN when the robust fit is unavailable.</param>
+/// <param name="Cutoff">Cutoff of the distance that raises the atypical flag, df = <paramref name="ItemsAnswered"/>: the
+/// in-sample Beta quantile (<see cref="BetaDistanceLaw"/>) at <see cref="ScreeningOptions.CutoffP"/> times the ordinal
+/// calibration factor when the robust rule is in use, otherwise the χ² upper quantile.</param>
 /// <param name="PValue">P(χ²_df &gt; D2).</param>
-/// <param name="RobustPValue">P(χ²_df &gt; RobustD2).</param>
+/// <param name="RobustPValue">P(D² &gt; RobustD2 / f) under the law of <see cref="BetaDistanceLaw"/>, f the ordinal
+/// calibration factor (<see cref="RobustEstimatorDetails.ConsistencyFactor"/>).</param>
 /// <param name="LongString">Longest run of identical consecutive answers (0 with no answers).</param>
 /// <param name="Irv">Within-person SD (n − 1) of the answers; NaN with fewer than 2 answers.</param>
 /// <param name="EvenOdd">Spearman–Brown corrected even-odd consistency; NaN when not computable.</param>
 /// <param name="MissingShare">Share of items not answered, in [0, 1].</param>
 /// <param name="Flagged">True when at least one reason applies.</param>
 /// <param name="Reasons">Reason codes from <see cref="ScreeningReasons"/>, in the order of <see cref="ScreeningReasons.All"/>.</param>
+/// <param name="AlternatingRun">Longest run of answers alternating between two values (<see cref="Screening.AlternatingRun"/>).</param>
+/// <param name="PersonTotal">Person–total correlation (<see cref="PersonTotalCorrelation"/>); NaN when not computable.</param>
+/// <param name="Synonyms">Psychometric-synonyms coefficient (<see cref="PsychometricSynonyms"/>); NaN when not computable.</param>
+/// <param name="Antonyms">Psychometric-antonyms coefficient; NaN when not computable.</param>
 public sealed record RespondentScreeningRow(
     string RespondentId,
     int ItemsAnswered,
@@ -27,28 +36,37 @@ public sealed record RespondentScreeningRow(
     double EvenOdd,
     double MissingShare,
     bool Flagged,
-    IReadOnlyList<string> Reasons);
+    IReadOnlyList<string> Reasons,
+    int AlternatingRun = 0,
+    double PersonTotal = double.NaN,
+    double Synonyms = double.NaN,
+    double Antonyms = double.NaN);
 
 /// <summary>How many respondents carry one reason code.</summary>
 public sealed record ScreeningReasonCount(string Code, string Meaning, int Count);
 
-/// <summary>Details of the robust (FAST-MCD) fit.</summary>
+/// <summary>Details of the robust fit (the <see cref="ErAlgorithm"/> estimate; field names kept from the earlier
+/// FAST-MCD fit, with the meanings below).</summary>
 /// <param name="Available">False when the robust fit could not be made (see <paramref name="Note"/>); flags then use the classical distance.</param>
-/// <param name="CompleteRows">Respondents who answered every item (the rows FAST-MCD may use).</param>
-/// <param name="Subsampled">True when a seeded random subsample of the complete rows was used.</param>
-/// <param name="RowsUsed">Rows FAST-MCD was fitted to.</param>
-/// <param name="SupportSize">h, the MCD support size.</param>
-/// <param name="ConsistencyFactor">median(raw D²) / χ²_p(0.5) applied to the raw scatter.</param>
-/// <param name="ReweightingFactor">Normal-theory factor applied to the reweighted scatter.</param>
-/// <param name="ReweightedCount">Rows kept by the one-step reweighting (D² ≤ χ²_p(0.975)).</param>
-/// <param name="NestedExtension">True when the subsample-and-merge extension was used (more than 600 rows).</param>
-/// <param name="SubsetCount">Subsets of the nested extension (1 when not nested).</param>
-/// <param name="MergedSetSize">Rows of the merged set (RowsUsed when not nested).</param>
-/// <param name="InitialSubsets">Random (p + 1)-subsets started from.</param>
-/// <param name="Converged">False when some C-step iteration hit its cap.</param>
-/// <param name="Location">Reweighted robust location (length p), or null.</param>
-/// <param name="Scatter">Reweighted robust scatter (p × p), or null.</param>
+/// <param name="CompleteRows">Respondents who answered every item.</param>
+/// <param name="Subsampled">True when a systematic subsample was used (more than <see cref="ScreeningOptions.RobustMaxRows"/> respondents).</param>
+/// <param name="RowsUsed">Rows the estimate was fitted to (respondents who answered at least one item, or the subsample).</param>
+/// <param name="SupportSize">Rows kept (weight 1) in the final step; the N of the finite-sample cutoff.</param>
+/// <param name="ConsistencyFactor">Ordinal-answer calibration factor every robust cutoff is multiplied by
+/// (<see cref="DiscretenessCalibration"/>; 1 when not applied).</param>
+/// <param name="ReweightingFactor">Truncation factor applied to the covariance of the kept rows.</param>
+/// <param name="ReweightedCount">Rows kept in the final step (same as <paramref name="SupportSize"/>).</param>
+/// <param name="NestedExtension">Always false (no nested extension).</param>
+/// <param name="SubsetCount">Always 1.</param>
+/// <param name="MergedSetSize">Equal to <paramref name="RowsUsed"/>.</param>
+/// <param name="InitialSubsets">Always 0: no random starts.</param>
+/// <param name="Converged">False when an iteration cap was reached.</param>
+/// <param name="Location">Robust location on the normal-score scale (length p), or null.</param>
+/// <param name="Scatter">Robust scatter on the normal-score scale (p × p), or null.</param>
 /// <param name="Note">Plain-English remark.</param>
+/// <param name="Method">"er" (robust EM estimate on normal scores).</param>
+/// <param name="StagedCollapsed">True when the staged fit collapsed onto tied answers and the direct fit was used.</param>
+/// <param name="Iterations">EM and ER iterations in all.</param>
 public sealed record RobustEstimatorDetails(
     bool Available,
     int CompleteRows,
@@ -65,7 +83,10 @@ public sealed record RobustEstimatorDetails(
     bool Converged,
     double[]? Location,
     double[,]? Scatter,
-    string Note);
+    string Note,
+    string Method = "er",
+    bool StagedCollapsed = false,
+    int Iterations = 0);
 
 /// <summary>Result of <see cref="RespondentScreening.Run"/>.</summary>
 /// <param name="Respondents">One row per respondent, in input order.</param>
@@ -78,6 +99,9 @@ public sealed record RobustEstimatorDetails(
 /// <param name="HalfPeakRegion">Figure data for k = 1 .. max(p, 20).</param>
 /// <param name="Warnings">Recoverable problems, in plain English.</param>
 /// <param name="Options">The options used.</param>
+/// <param name="SmallSampleFallback">True when there were fewer than <see cref="RespondentScreening.SmallSampleRatio"/>
+/// respondents per item, so the robust rejection was switched off (plain EM estimate on the normal scores, every
+/// respondent in it).</param>
 public sealed record ScreeningResult(
     IReadOnlyList<RespondentScreeningRow> Respondents,
     IReadOnlyList<ScreeningReasonCount> ReasonCounts,
@@ -88,7 +112,8 @@ public sealed record ScreeningResult(
     RobustEstimatorDetails Robust,
     IReadOnlyList<HalfPeakRegionRow> HalfPeakRegion,
     IReadOnlyList<AnalysisWarning> Warnings,
-    ScreeningOptions Options)
+    ScreeningOptions Options,
+    bool SmallSampleFallback = false)
 {
     /// <summary>Indices of the respondents who answered at least one item and, unless <paramref name="keepFlagged"/>,
     /// carry no flag: the respondents the later stages analyse.</summary>

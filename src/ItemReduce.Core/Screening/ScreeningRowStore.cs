@@ -39,6 +39,10 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
         Irv = new double[n];
         EvenOdd = new double[n];
         ReasonMask = new byte[n];
+        AlternatingRun = new int[n];
+        PersonTotal = new double[n];
+        Synonyms = new double[n];
+        Antonyms = new double[n];
     }
 
     public double[] PValue { get; }
@@ -46,6 +50,10 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
     public int[] LongString { get; }
     public double[] Irv { get; }
     public double[] EvenOdd { get; }
+    public int[] AlternatingRun { get; }
+    public double[] PersonTotal { get; }
+    public double[] Synonyms { get; }
+    public double[] Antonyms { get; }
 
     /// <summary>Bit k set when reason <see cref="ScreeningReasons.All"/>[k] applies.</summary>
     public byte[] ReasonMask { get; }
@@ -68,7 +76,7 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
             int mask = ReasonMask[index];
             return new RespondentScreeningRow(_ids[index], a, _d2[index], _robustD2[index], _cutoffByDf[a], PValue[index],
                 RobustPValue[index], LongString[index], Irv[index], EvenOdd[index], (_items - a) / (double)_items,
-                mask != 0, ReasonLists[mask]);
+                mask != 0, ReasonLists[mask], AlternatingRun[index], PersonTotal[index], Synonyms[index], Antonyms[index]);
         }
     }
 

@@ -182,7 +182,15 @@ public static class AppendixBuilder
                 "Responses are not reproduced here. Look at each flagged respondent's answers before deciding anything; atypical is not the same as invalid." + more);
         }
         refs.Add(MethodReferences.Mahalanobis1936);
-        refs.Add(MethodReferences.RousseeuwVanDriessen1999);
+        if (s.Options.UseRobust)
+        {
+            refs.Add(MethodReferences.LittleSmith1987);
+            refs.Add(MethodReferences.DempsterLairdRubin1977);
+            refs.Add(MethodReferences.Beasley2009);
+            refs.Add(MethodReferences.Wilks1963);
+            if (s.Robust.Available && s.Robust.ConsistencyFactor != 1) refs.Add(MethodReferences.Olsson1979);
+        }
+        refs.Add(MethodReferences.Curran2016);
         refs.Add(MethodReferences.Johnson2005);
         refs.Add(MethodReferences.Dunn2018);
         refs.Add(MethodReferences.MeadeCraig2012);

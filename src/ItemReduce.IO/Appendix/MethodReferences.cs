@@ -38,6 +38,11 @@ public static class MethodReferences
     public const string McDonald1999 = "McDonald, R. P. (1999). Test theory: A unified treatment. Lawrence Erlbaum.";
     public const string MeadeCraig2012 = "Meade, A. W., & Craig, S. B. (2012). Identifying careless responses in survey data. Psychological Methods, 17(3), 437–455.";
     public const string Olsson1979 = "Olsson, U. (1979). Maximum likelihood estimation of the polychoric correlation coefficient. Psychometrika, 44(4), 443–460.";
+    public const string LittleSmith1987 = "Little, R. J. A., & Smith, P. J. (1987). Editing and imputation for quantitative survey data. Journal of the American Statistical Association, 82(397), 58–68.";
+    public const string DempsterLairdRubin1977 = "Dempster, A. P., Laird, N. M., & Rubin, D. B. (1977). Maximum likelihood from incomplete data via the EM algorithm. Journal of the Royal Statistical Society B, 39(1), 1–38.";
+    public const string Beasley2009 = "Beasley, T. M., Erickson, S., & Allison, D. B. (2009). Rank-based inverse normal transformations are increasingly used, but are they merited? Behavior Genetics, 39(5), 580–595.";
+    public const string Wilks1963 = "Wilks, S. S. (1963). Multivariate statistical outliers. Sankhyā A, 25(4), 407–426.";
+    public const string Curran2016 = "Curran, P. G. (2016). Methods for the detection of carelessly invalid responses in survey data. Journal of Experimental Social Psychology, 66, 4–19.";
     public const string RousseeuwVanDriessen1999 = "Rousseeuw, P. J., & Van Driessen, K. (1999). A fast algorithm for the minimum covariance determinant estimator. Technometrics, 41(3), 212–223.";
     public const string Velicer1976 = "Velicer, W. F. (1976). Determining the number of components from the matrix of partial correlations. Psychometrika, 41(3), 321–327.";
     public const string VelicerEatonFava2000 = "Velicer, W. F., Eaton, C. A., & Fava, J. L. (2000). Construct explication through factor or component analysis: A review and evaluation of alternative procedures for determining the number of factors or components. In R. D. Goffin & E. Helmes (Eds.), Problems and solutions in human assessment (pp. 41–71). Kluwer.";

@@ -12,7 +12,8 @@ public static class ScreeningTables
 
     /// <summary>
     /// <c>respondent-flags.csv</c>: one row per respondent in input order: respondent, items_answered, d2,
-    /// robust_d2, cutoff, p_value, long_string, irv, missing_share, flagged, reasons (then robust_p_value, even_odd).
+    /// robust_d2, cutoff, p_value, long_string, irv, missing_share, flagged, reasons (then robust_p_value, even_odd,
+    /// alternating_run, person_total, synonyms, antonyms).
     /// </summary>
     public static string RespondentFlags(ScreeningResult r)
     {
@@ -30,7 +31,7 @@ public static class ScreeningTables
         ArgumentNullException.ThrowIfNull(r);
         ArgumentNullException.ThrowIfNull(sink);
         var header = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
-            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd"]);
+            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms"]);
         sink.Write(Utf8NoBom.GetBytes(header.ToString()));
         // Rows are formatted straight into reused UTF-8 buffers with the same cell rules as SafeCsvWriter (Text, Integer,
         // Number, Bool), so no per-cell strings are made; reason cells are cached per reason list. Blocks of rows are
@@ -54,7 +55,8 @@ public static class ScreeningTables
                     byte[] reasons = reasonCells.GetOrAdd(x.Reasons, list => Utf8NoBom.GetBytes(Text(string.Join(';', list))));
                     line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
                         .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
-                        .Bytes(x.Flagged ? True : False).Sep().Bytes(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd).Bytes("\n"u8);
+                        .Bytes(x.Flagged ? True : False).Sep().Bytes(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd)
+                        .Sep().Integer(x.AlternatingRun).Sep().Rounded(x.PersonTotal).Sep().Rounded(x.Synonyms).Sep().Rounded(x.Antonyms).Bytes("\n"u8);
                 }
             });
             foreach (var line in buffers) sink.Write(line.Span);

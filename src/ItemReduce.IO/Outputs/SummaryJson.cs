@@ -133,7 +133,11 @@ public static class SummaryJson
             ["nestedExtension"] = s.Robust.NestedExtension,
             ["converged"] = s.Robust.Converged,
             ["note"] = s.Robust.Note,
+            ["method"] = s.Robust.Method,
+            ["stagedCollapsed"] = s.Robust.StagedCollapsed,
+            ["iterations"] = s.Robust.Iterations,
         },
+        ["smallSampleFallback"] = s.SmallSampleFallback,
     };
 
     private static JsonObject Factors(PipelineResult r)

@@ -119,7 +119,7 @@ public static class SettingsCatalog
         {
             Name = "distance", Kind = SettingKind.Choice, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
             Group = ScreeningGroup, Choices = ["robust", "classical"], Default = Screening.UseRobust ? "robust" : "classical",
-            Example = "classical", Help = "Distance that raises the atypical flag: robust (FAST-MCD) or classical; both are reported.",
+            Example = "classical", Help = "Distance that raises the atypical flag: robust (ER estimate for incomplete data on normal scores) or classical; both are reported.",
         },
         new()
         {
