@@ -33,6 +33,11 @@ public sealed record ConfirmatoryCheckResult(IReadOnlyList<ConfirmatoryFormFit> 
 /// </summary>
 public static class ConfirmatoryCheck
 {
+    /// <summary>Caution added when there is no holdout: the short form was chosen on the respondents it is tested on.</summary>
+    public const string OptimismCaution =
+        "The confirmatory fit was computed on the same respondents the short form was chosen on, so it is optimistic; " +
+        "confirm the structure in a holdout or, better, a new sample.";
+
     /// <summary>Runs the fits.</summary>
     /// <param name="data">The analysed responses the short form was built from (same rows and items).</param>
     /// <param name="shortForm">The short form.</param>
@@ -74,6 +79,8 @@ public static class ConfirmatoryCheck
                 }
             }
         }
+        if (holdout.Count == 0 && fits.Any(f => f.Result is not null))
+            warnings.Add(new AnalysisWarning("confirmatory-on-selection-sample", "confirmatory", OptimismCaution));
         return new ConfirmatoryCheckResult(fits, warnings, listwise);
     }
 

@@ -407,7 +407,7 @@ public static class AppendixBuilder
             "Follow the requirements of your ethics board and the professional standards of your field for data use, exclusions and test use.",
         ]);
         var warnings = r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
-            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Select(w => w.Message).Distinct().ToList();
+            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Concat(r.Confirmatory?.Warnings ?? []).Select(w => w.Message).Distinct().ToList();
         if (warnings.Count > 0)
         {
             b.Heading(2, "Warnings raised during this run");
