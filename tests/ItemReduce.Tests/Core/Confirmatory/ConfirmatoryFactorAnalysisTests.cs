@@ -137,3 +137,25 @@ public class NoncentralChiSquareTests
         Assert.Equal(0, NoncentralChiSquare.NoncentralityFor(5, 20, 0.05));
     }
 }
+
+/// <summary>Item descriptives against numpy/scipy.stats.skew/kurtosis (bias=True)
+/// (ReferenceData/Confirmatory/make_descriptives_reference.py on cfa_missing_data.csv).</summary>
+public class ItemDescriptivesTests
+{
+    [Fact]
+    public void Descriptives_match_scipy()
+    {
+        var rows = ReferenceData.Numbers("Confirmatory", "cfa_missing_data.csv");
+        var items = Enumerable.Range(0, 7).Select(j => new ItemDefinition($"i{j + 1}", null, false, 1, 5, null)).ToList();
+        var data = new ResponseMatrix(Enumerable.Range(0, rows.Length).Select(i => $"r{i}").ToList(), items, rows.SelectMany(r => r).ToArray());
+        var actual = ItemDescriptives.Compute(data);
+        var expected = ReferenceData.Numbers("Confirmatory", "descriptives_expected.csv");
+        for (int j = 0; j < 7; j++)
+        {
+            var a = actual[j];
+            double[] got = [a.Respondents, a.Mean, a.StandardDeviation, a.Skewness, a.ExcessKurtosis, a.LowestShare, a.HighestShare, a.MissingShare];
+            for (int c = 0; c < got.Length; c++)
+                Assert.True(Math.Abs(got[c] - expected[j][c]) <= 1e-12 * Math.Max(1, Math.Abs(expected[j][c])), $"item {j}, column {c}: scipy {expected[j][c]:R}, ours {got[c]:R}");
+        }
+    }
+}
