@@ -268,7 +268,7 @@ public static class ConfirmatoryFactorAnalysis
         double c = double.NaN, c0 = double.NaN;
         if (robust && df > 0)
         {
-            var root = SatorraBentlerScaling.GammaRoot(data, mu1, sigma1);
+            var root = SatorraBentlerScaling.ScaledGamma(data, mu1, sigma1);
             c = SatorraBentlerScaling.Factor(data, sigma, model.CovarianceJacobian(theta), model.CovarianceParameters, root, df);
             var jac0 = new double[ps * p];
             for (int j = 0; j < p; j++) jac0[(j * (j + 1) / 2 + j) * p + j] = 1;

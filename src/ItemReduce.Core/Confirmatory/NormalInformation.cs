@@ -27,19 +27,29 @@ internal static class NormalInformation
             for (int a = 0; a < q; a++)
                 for (int b = 0; b < q; b++) kf[o[a] * p + o[b]] = inverses[gi][a * q + b];
             // vech positions whose two items are both answered.
-            var pairs = new List<(int R, int A, int B, double S)>();
+            int count = q * (q + 1) / 2, t = 0;
+            var pr = new int[count];
+            var pa = new int[count];
+            var pb = new int[count];
+            var psc = new double[count];
             for (int a = 0; a < q; a++)
-                for (int b = 0; b <= a; b++)
+                for (int b = 0; b <= a; b++, t++)
                 {
                     int ia = o[a], ib = o[b];
-                    pairs.Add((ia * (ia + 1) / 2 + ib, ia, ib, ia == ib ? 0.5 : 1.0));
+                    (pr[t], pa[t], pb[t], psc[t]) = (ia * (ia + 1) / 2 + ib, ia * p, ib * p, ia == ib ? 0.5 : 1.0);
                 }
             double n = g.Count;
-            foreach (var (r1, a, b, s1) in pairs)
+            for (int x = 0; x < count; x++)
             {
-                int rowOffset = r1 * ps;
-                foreach (var (r2, c, d, s2) in pairs)
-                    info[rowOffset + r2] += n * s1 * s2 * (kf[a * p + c] * kf[b * p + d] + kf[a * p + d] * kf[b * p + c]);
+                int rowOffset = pr[x] * ps, a = pa[x], b = pb[x];
+                double s1 = n * psc[x];
+                for (int y = 0; y <= x; y++)
+                {
+                    int c = pa[y] / p, d = pb[y] / p;
+                    double v = s1 * psc[y] * (kf[a + c] * kf[b + d] + kf[a + d] * kf[b + c]);
+                    info[rowOffset + pr[y]] += v;
+                    if (y != x) info[pr[y] * ps + pr[x]] += v;
+                }
             }
         }
         return info;

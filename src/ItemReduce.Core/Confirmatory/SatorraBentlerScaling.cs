@@ -18,21 +18,22 @@ namespace ItemReduce.Core.Confirmatory;
 /// </summary>
 internal static class SatorraBentlerScaling
 {
-    /// <summary>A root of the saturated model's asymptotic covariance Γ of vech S, ready for <see cref="Factor"/>:
-    /// R = S A₁⁻¹ (N × p*) with S the casewise scores and A₁ the summed expected information, so that
-    /// Γ = A⁻¹ B A⁻¹ (per-respondent A = A₁/N, B = SᵀS/N) equals N · Rᵀ R.</summary>
-    public static Matrix<double> GammaRoot(MissingDataPatterns data, double[] mu1, double[] sigma1)
+    /// <summary>N·Γ of the saturated model (p* × p*), ready for <see cref="Factor"/>: Γ = A⁻¹ B A⁻¹ with the per-respondent
+    /// expected information A = A₁/N (A₁ summed over respondents) and B = SᵀS/N (S: casewise scores), so
+    /// N·Γ = N²·A₁⁻¹ SᵀS A₁⁻¹ / N = N·RᵀR with R = S A₁⁻¹. Computed once and shared by the model and the independence model.</summary>
+    public static Matrix<double> ScaledGamma(MissingDataPatterns data, double[] mu1, double[] sigma1)
     {
         int p = data.Items, ps = p * (p + 1) / 2, n = data.Respondents;
         var a1 = Matrix<double>.Build.DenseOfRowMajor(ps, ps, NormalInformation.ExpectedCovarianceBlock(data, sigma1));
         var s = Matrix<double>.Build.DenseOfRowMajor(n, ps, NormalInformation.CovarianceScores(data, mu1, sigma1));
-        var a1Inverse = a1.Cholesky().Solve(Matrix<double>.Build.DenseIdentity(ps));
-        return s * a1Inverse;
+        // Rᵀ = A₁⁻¹ Sᵀ by a Cholesky solve (A₁ symmetric positive definite).
+        var rt = a1.Cholesky().Solve(s.Transpose());
+        return rt.TransposeAndMultiply(rt);
     }
 
     /// <summary>c = tr(U Γ) / df for a model with Jacobian <paramref name="jacobian"/> (p* × q, row-major) whose
-    /// information is taken at <paramref name="sigmaModel"/>; <paramref name="gammaRoot"/> from <see cref="GammaRoot"/>.</summary>
-    public static double Factor(MissingDataPatterns data, double[] sigmaModel, double[] jacobian, int parameters, Matrix<double> gammaRoot, double df)
+    /// information is taken at <paramref name="sigmaModel"/>; <paramref name="scaledGamma"/> = RᵀR from <see cref="ScaledGamma"/>.</summary>
+    public static double Factor(MissingDataPatterns data, double[] sigmaModel, double[] jacobian, int parameters, Matrix<double> scaledGamma, double df)
     {
         if (!(df > 0)) return double.NaN;
         int p = data.Items, ps = p * (p + 1) / 2;
@@ -41,12 +42,10 @@ internal static class SatorraBentlerScaling
         var wDelta = w * delta;
         var dwd = delta.TransposeThisAndMultiply(wDelta);
         // U is linear in W, so with the summed information W_tot = N·W and Γ = N·RᵀR: tr(U(W) Γ) = tr(U(W_tot) RᵀR).
-        var rw = gammaRoot * w;
         double first = 0;
-        for (int i = 0; i < rw.RowCount; i++)
-            for (int j = 0; j < ps; j++) first += rw[i, j] * gammaRoot[i, j];
-        var rwd = gammaRoot * wDelta;
-        var m = rwd.TransposeThisAndMultiply(rwd);
+        for (int i = 0; i < ps; i++)
+            for (int j = 0; j < ps; j++) first += w[i, j] * scaledGamma[j, i];
+        var m = wDelta.TransposeThisAndMultiply(scaledGamma * wDelta);
         var solved = dwd.Cholesky().Solve(m);
         return (first - solved.Trace()) / df;
     }
