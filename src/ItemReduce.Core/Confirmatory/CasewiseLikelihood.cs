@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Confirmatory;
 
 /// <summary>
@@ -14,6 +15,7 @@ internal static class CasewiseLikelihood
     /// (row-major p × p). NaN when a pattern's covariance block is not positive definite. When
     /// <paramref name="gradSigma"/> (p × p) / <paramref name="gradMu"/> (p) are given they receive the derivative of
     /// −2 ln L with respect to each entry of Σ (symmetric form: n K − K T K per pattern, K = Σ_oo⁻¹) and to μ.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double Minus2LogLikelihood(MissingDataPatterns data, double[] mu, double[] sigma, double[]? gradSigma = null, double[]? gradMu = null)
     {
         int p = data.Items;
@@ -58,6 +60,7 @@ internal static class CasewiseLikelihood
 
     /// <summary>Inverse of each pattern's covariance block at <paramref name="sigma"/> (for information matrices and
     /// scores); null when one is not positive definite.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double[][]? PatternInverses(MissingDataPatterns data, double[] sigma)
     {
         int p = data.Items;
@@ -76,6 +79,7 @@ internal static class CasewiseLikelihood
     }
 
     /// <summary>Row-major q × q product.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double[] Multiply(double[] a, double[] b, int q)
     {
         var c = new double[q * q];

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using System.Globalization;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
@@ -180,6 +181,7 @@ public static class ConfirmatoryFactorAnalysis
     /// <summary>Expected (Fisher) information of θ for ln L, summed over respondents (q × q, row-major), or null when a
     /// covariance block is not positive definite. Every ∂Σ/∂θ is u wᵀ + w uᵀ (scaled), so each entry is a product of
     /// the quadratic forms zᵀ K z' of a few vectors (our derivation from ½ tr(K ∂Σ_i K ∂Σ_j)).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double[]? FisherInformation(IndependentClustersModel model, MissingDataPatterns data, double[] theta)
     {
         int p = model.Items, k = model.Factors, q = model.Parameters, qc = model.CovarianceParameters;
@@ -321,6 +323,7 @@ public static class ConfirmatoryFactorAnalysis
 
     private static double[]? InvertOrNull(double[] a, int q) => SymmetricFactor.TryInvert(a, q, out var inv, out _) ? inv : null;
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static double[]? SolveOrNull(double[] a, int q, double[] b)
     {
         var inv = InvertOrNull(a, q);

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Confirmatory;
 
 /// <summary>
@@ -47,6 +48,7 @@ internal sealed class IndependentClustersModel
     }
 
     /// <summary>Model-implied covariance (row-major p × p).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double[] Sigma(double[] theta)
     {
         int p = Items, k = Factors;
@@ -63,6 +65,7 @@ internal sealed class IndependentClustersModel
 
     /// <summary>Chain rule: the gradient with respect to θ from the gradient with respect to each entry of Σ
     /// (<paramref name="gradSigma"/>, symmetric, p × p) and to μ.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double[] Gradient(double[] theta, double[] gradSigma, double[] gradMu)
     {
         int p = Items, k = Factors;
@@ -91,6 +94,7 @@ internal sealed class IndependentClustersModel
 
     /// <summary>Jacobian ∂ vech Σ / ∂θ of the covariance parameters: row-major p* × q with vech in the order
     /// (0,0), (1,0), (1,1), (2,0), … (lower triangle by rows).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double[] CovarianceJacobian(double[] theta)
     {
         int p = Items, k = Factors, q = CovarianceParameters, ps = p * (p + 1) / 2;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Confirmatory;
@@ -43,6 +44,7 @@ internal sealed class MissingDataPatterns
     public bool Complete => Patterns.Count == 1 && Patterns[0].Observed.Length == Items;
 
     /// <summary>Groups the respondents of <paramref name="data"/> on the items <paramref name="items"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static MissingDataPatterns From(ResponseMatrix data, IReadOnlyList<int> items, bool listwise)
     {
         int p = items.Count, n = data.RespondentCount;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Confirmatory;
 
 /// <summary>
@@ -11,6 +12,7 @@ namespace ItemReduce.Core.Confirmatory;
 internal static class NormalInformation
 {
     /// <summary>Σ over respondents of the expected information of σ (p* × p*, row-major), at <paramref name="sigma"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double[] ExpectedCovarianceBlock(MissingDataPatterns data, double[] sigma)
     {
         int p = data.Items, ps = p * (p + 1) / 2;
@@ -56,6 +58,7 @@ internal static class NormalInformation
     }
 
     /// <summary>Casewise scores of σ at (<paramref name="mu"/>, <paramref name="sigma"/>): row-major N × p*.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double[] CovarianceScores(MissingDataPatterns data, double[] mu, double[] sigma)
     {
         int p = data.Items, ps = p * (p + 1) / 2, n = data.Respondents;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using MathNet.Numerics.LinearAlgebra;
 
 namespace ItemReduce.Core.Confirmatory;
@@ -33,6 +34,7 @@ internal static class SatorraBentlerScaling
 
     /// <summary>c = tr(U Γ) / df for a model with Jacobian <paramref name="jacobian"/> (p* × q, row-major) whose
     /// information is taken at <paramref name="sigmaModel"/>; <paramref name="scaledGamma"/> = RᵀR from <see cref="ScaledGamma"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double Factor(MissingDataPatterns data, double[] sigmaModel, double[] jacobian, int parameters, Matrix<double> scaledGamma, double df)
     {
         if (!(df > 0)) return double.NaN;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 namespace ItemReduce.Core.Confirmatory;
 
 /// <summary>
@@ -65,6 +66,7 @@ internal static class SaturatedNormalEm
     }
 
     /// <summary>E-step: expected Σ x and Σ x xᵀ over all respondents given the observed answers.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static (double[] T1, double[] T2) ExpectedSums(MissingDataPatterns data, double[] mu, double[] sigma)
     {
         int p = data.Items;

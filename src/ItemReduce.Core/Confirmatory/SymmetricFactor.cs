@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.LinearAlgebra;
 
 namespace ItemReduce.Core.Confirmatory;
@@ -8,6 +9,7 @@ internal static class SymmetricFactor
 {
     /// <summary>Inverse (row-major q × q) and ln det of the row-major q × q matrix <paramref name="a"/> (left unchanged);
     /// false when it is not positive definite.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static bool TryInvert(double[] a, int q, out double[] inverse, out double logDet)
     {
         var l = (double[])a.Clone();
