@@ -42,10 +42,10 @@ public static partial class AppendixBuilder
                 [
                     ConfirmatoryTables.FormName(f.Form), ConfirmatoryTables.SampleName(f.Sample), Integer(f.Result.Respondents),
                     Inv($"{Fixed(x.Chi2, 1)} ({x.Df})"), Cell(x.Cfi), Cell(x.Tli),
-                    double.IsFinite(x.Rmsea) ? Inv($"{Bounded(x.Rmsea, 3)} [{Bounded(x.RmseaLow, 3)}, {Bounded(x.RmseaHigh, 3)}]") : "—",
-                    double.IsFinite(x.Srmr) ? Bounded(x.Srmr, 3) : "—",
+                    double.IsFinite(x.Rmsea) ? Inv($"{Cell(x.Rmsea)} [{Cell(x.RmseaLow)}, {Cell(x.RmseaHigh)}]") : "—",
+                    Cell(x.Srmr),
                     double.IsFinite(x.ScaledChi2) ? Inv($"{Fixed(x.ScaledChi2, 1)} ({Fixed(x.ScalingFactor, 2)})") : "—",
-                    Cell(x.RobustCfi), double.IsFinite(x.RobustRmsea) ? Bounded(x.RobustRmsea, 3) : "—",
+                    Cell(x.RobustCfi), Cell(x.RobustRmsea),
                 ], f.Form == ScaleForm.Short ? RowMark.Highlighted : RowMark.None);
             }).ToList();
             b.Table("Fit of the confirmatory models",
@@ -67,6 +67,7 @@ public static partial class AppendixBuilder
             refs.Add(reference);
     }
 
+    /// <summary>Three decimals, without the leading zero only when |v| ≤ 1 (RMSEA and SRMR can exceed 1 on degenerate data).</summary>
     private static string Cell(double v) => !double.IsFinite(v) ? "—" : Math.Abs(v) <= 1 ? Bounded(v, 3) : Fixed(v, 3);
 
     /// <summary>Which respondents each estimate came from, with counts, and why the forms' n differ.</summary>
