@@ -5,8 +5,8 @@ namespace ItemReduce.Core;
 /// in plain words without program option names; the command line and the appendix decide how to show it.
 /// </summary>
 /// <param name="Code">Stable kebab-case identifier, e.g. <c>kmo-low</c> (for scripts reading summary.json).</param>
-/// <param name="Stage">Stage that raised it: <c>data</c>, <c>screening</c>, <c>dimensions</c>, <c>factoring</c> or
-/// <c>short-form</c>.</param>
+/// <param name="Stage">Stage that raised it: <c>data</c>, <c>screening</c>, <c>dimensions</c>, <c>factoring</c>,
+/// <c>short-form</c> or <c>confirmatory</c>.</param>
 /// <param name="Message">One plain-language sentence or two, ending with a full stop.</param>
 public sealed record AnalysisWarning(string Code, string Stage, string Message)
 {

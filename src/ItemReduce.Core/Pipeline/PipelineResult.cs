@@ -32,6 +32,9 @@ public sealed record PipelineResult
     /// <summary>Factoring, reliability and short form, when run.</summary>
     public ShortFormResult? ShortForm { get; init; }
 
+    /// <summary>Confirmatory factor analysis of the full and short forms, when the short form was built and the check could run.</summary>
+    public Confirmatory.ConfirmatoryCheckResult? Confirmatory { get; init; }
+
     /// <summary>Pipeline-level warnings (stage warnings stay in their results).</summary>
     public required IReadOnlyList<AnalysisWarning> Warnings { get; init; }
 }

@@ -40,6 +40,10 @@ public sealed record PipelineSettings
     /// <summary>When true, flagged respondents stay in the later stages (default false: they are set aside).</summary>
     public bool KeepFlagged { get; init; }
 
+    /// <summary>When true, the short and full forms are fitted as confirmatory factor models after the short form is built
+    /// (default false until the check meets its speed target on wide banks; see README "Confirmatory check").</summary>
+    public bool Confirmatory { get; init; }
+
     /// <summary>Dimension options (the fixed factor count, when set, also fixes the short form's factor count).</summary>
     public DimensionOptions Dimensions { get; init; } = new();
 
@@ -51,7 +55,8 @@ public sealed record PipelineSettings
         Screening with { Seed = Seed },
         Dimensions with { Seed = Seed, Correlation = Correlation },
         ShortForm with { Seed = Seed, Correlation = Correlation },
-        KeepFlagged);
+        KeepFlagged,
+        Confirmatory);
 }
 
 /// <summary>What each stage receives (see <see cref="PipelineSettings.StageOptions"/>).</summary>
@@ -59,4 +64,6 @@ public sealed record PipelineSettings
 /// <param name="Dimensions">Options of the dimensions stage.</param>
 /// <param name="ShortForm">Options of factoring, item judgements, reliability and the short form.</param>
 /// <param name="KeepFlagged">Whether flagged respondents stay in the later stages.</param>
-public sealed record StageOptionSet(ScreeningOptions Screening, DimensionOptions Dimensions, ShortFormOptions ShortForm, bool KeepFlagged);
+/// <param name="Confirmatory">Whether the confirmatory check runs after the short form.</param>
+public sealed record StageOptionSet(ScreeningOptions Screening, DimensionOptions Dimensions, ShortFormOptions ShortForm, bool KeepFlagged,
+    bool Confirmatory);

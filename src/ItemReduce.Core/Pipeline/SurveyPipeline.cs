@@ -84,11 +84,31 @@ public static class SurveyPipeline
         progress?.Invoke(string.Create(ci, $"factoring {analysed.ItemCount} items into {k} factor(s) and building the short form"));
         var shortForm = Stage("factoring", () => ShortFormBuilder.Build(analysed, k, stage.ShortForm, progress,
             dims is not null && stage.ShortForm.HoldoutFraction == 0 ? dims.CorrelationMatrix : null));
+        Confirmatory.ConfirmatoryCheckResult? confirmatory = null;
+        if (stage.Confirmatory)
+        {
+            progress?.Invoke("confirmatory factor analysis of the full and short forms");
+            confirmatory = Confirm(analysed, shortForm, stage.ShortForm.Correlation.MissingData == Correlation.MissingDataHandling.Listwise, warnings);
+        }
         return new PipelineResult
         {
             Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,
-            Dimensions = dims, FactorsUsed = k, ShortForm = shortForm, Warnings = warnings,
+            Dimensions = dims, FactorsUsed = k, ShortForm = shortForm, Confirmatory = confirmatory, Warnings = warnings,
         };
+    }
+
+    /// <summary>The confirmatory check never stops a run: a failure becomes a warning and no confirmatory result.</summary>
+    private static Confirmatory.ConfirmatoryCheckResult? Confirm(ResponseMatrix analysed, ShortFormResult shortForm, bool listwise, WarningList warnings)
+    {
+        try
+        {
+            return Confirmatory.ConfirmatoryCheck.Run(analysed, shortForm, listwise);
+        }
+        catch (Exception e) when (e is ArgumentException or LinearAlgebra.MatrixNotPositiveDefiniteException or LinearAlgebra.NonConvergenceException)
+        {
+            warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", "The confirmatory factor analysis could not be run: " + e.Message.Split(" (Parameter")[0]));
+            return null;
+        }
     }
 
     private static T Stage<T>(string name, Func<T> run)

@@ -20,7 +20,7 @@ namespace ItemReduce.IO.Appendix;
 /// cautions and references). Wording is ours; numbers follow common reporting conventions (two or three
 /// decimals, no leading zero for values bounded by 1).
 /// </summary>
-public static class AppendixBuilder
+public static partial class AppendixBuilder
 {
     /// <summary>Loadings with absolute value below this are left blank in the loading table.</summary>
     public const double BlankBelow = 0.30;
@@ -44,6 +44,8 @@ public static class AppendixBuilder
             SolutionSection(b, r, sf, refs);
             ReliabilitySection(b, r, sf, refs);
         }
+        if (r.Confirmatory is { } cfa) ConfirmatorySection(b, r, cfa, refs);
+        if (r.ShortForm is not null) ItemDescriptivesSection(b, r, refs);
         CautionsSection(b, r);
         b.Heading(1, "References");
         b.Add(new ReferenceListBlock(refs.ToList()));
@@ -439,11 +441,11 @@ public static class AppendixBuilder
     internal static string ScaleLengths(ShortFormResult sf) =>
         string.Join(", ", sf.Scales.Select(sc => Inv($"{sc.Scale} {sc.SelectedItems.Count} of {sc.Target} requested")));
 
-    // ---- 7. Cautions -------------------------------------------------------------------------------
+    // ---- 8. Cautions -------------------------------------------------------------------------------
 
     private static void CautionsSection(Builder b, PipelineResult r)
     {
-        b.Heading(1, "7. Cautions and limitations");
+        b.Heading(1, "8. Cautions and limitations");
         b.Bullets(
         [
             "Screening flags are for human review, not automatic exclusion. Check each flagged respondent's answers, and report how many were set aside and why.",
@@ -453,7 +455,7 @@ public static class AppendixBuilder
             "Follow the requirements of your ethics board and the professional standards of your field for data use, exclusions and test use.",
         ]);
         var warnings = r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
-            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Select(w => w.Message).Distinct().ToList();
+            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Concat(r.Confirmatory?.Warnings ?? []).Select(w => w.Message).Distinct().ToList();
         if (warnings.Count > 0)
         {
             b.Heading(2, "Warnings raised during this run");

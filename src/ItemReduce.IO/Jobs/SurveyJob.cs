@@ -28,7 +28,8 @@ public static class SurveyJob
             result = SurveyPipeline.Run(survey.Prepared, pipelineSettings, log.Step, screening => flags = Task.Run(() =>
             {
                 log.Step("writing respondent-flags.csv");
-                staging.WriteStream("respondent-flags.csv", stream => ScreeningTables.WriteRespondentFlags(screening, stream));
+                staging.WriteStream("respondent-flags.csv", stream => ScreeningTables.WriteRespondentFlags(screening, stream,
+                    RespondentSamples.Labels(screening, pipelineSettings)));
             }));
         }
         catch (AnalysisStoppedException e)
@@ -74,9 +75,16 @@ public static class SurveyJob
                 Write("factor-correlations.csv", ShortFormTables.FactorCorrelations(sf.FullSolution));
             }
             Write("item-decisions.csv", ShortFormTables.ItemDecisions(sf));
-            Write("reliability.csv", ShortFormTables.Reliability(sf));
+            Write("reliability.csv", ShortFormTables.Reliability(sf, result.Confirmatory));
             Write("short-form-codebook.csv", ShortFormTables.ShortFormCodebook(items, sf));
         }
+        if (result.Confirmatory is { } cfa)
+        {
+            Write("confirmatory-fit.csv", ConfirmatoryTables.Fit(cfa));
+            Write("confirmatory-loadings.csv", ConfirmatoryTables.Loadings(cfa));
+        }
+        if (result.Dimensions is not null || result.ShortForm is not null)
+            Write("item-descriptives.csv", ConfirmatoryTables.ItemDescriptivesTable(Core.Data.ItemDescriptives.Compute(result.Analysed)));
         var summary = SummaryJson.Build(settings, survey, result);
         Write("summary.json", JsonOut.Serialize(summary));
         if (scope == PipelineScope.All)

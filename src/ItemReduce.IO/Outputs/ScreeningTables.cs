@@ -13,12 +13,12 @@ public static class ScreeningTables
     /// <summary>
     /// <c>respondent-flags.csv</c>: one row per respondent in input order: respondent, items_answered, d2,
     /// robust_d2, cutoff, p_value, long_string, irv, missing_share, flagged, reasons (then robust_p_value, even_odd,
-    /// alternating_run, person_total, synonyms, antonyms).
+    /// alternating_run, person_total, synonyms, antonyms, and sample when <paramref name="samples"/> is given).
     /// </summary>
-    public static string RespondentFlags(ScreeningResult r)
+    public static string RespondentFlags(ScreeningResult r, IReadOnlyList<string>? samples = null)
     {
         using var bytes = new MemoryStream();
-        WriteRespondentFlags(r, bytes);
+        WriteRespondentFlags(r, bytes, samples);
         return Utf8NoBom.GetString(bytes.GetBuffer(), 0, (int)bytes.Length);
     }
 
@@ -26,12 +26,18 @@ public static class ScreeningTables
 
     /// <summary>Streams <c>respondent-flags.csv</c> as UTF-8 (no BOM; same text as <see cref="RespondentFlags"/>) to
     /// <paramref name="sink"/> block by block, so a large panel never becomes one string in memory.</summary>
-    public static void WriteRespondentFlags(ScreeningResult r, Stream sink)
+    /// <param name="r">Screening result.</param>
+    /// <param name="sink">Destination.</param>
+    /// <param name="samples">Optional: one sample label per respondent (<see cref="Core.Pipeline.RespondentSamples"/>), written as
+    /// the last column <c>sample</c>.</param>
+    public static void WriteRespondentFlags(ScreeningResult r, Stream sink, IReadOnlyList<string>? samples = null)
     {
         ArgumentNullException.ThrowIfNull(r);
         ArgumentNullException.ThrowIfNull(sink);
         var header = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
-            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms"]);
+            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms",
+            .. samples is null ? Array.Empty<string>() : ["sample"]]);
+        var sampleCells = samples?.Distinct().ToDictionary(x => x, x => Utf8NoBom.GetBytes("," + Text(x)));
         sink.Write(Utf8NoBom.GetBytes(header.ToString()));
         // Rows are formatted straight into reused UTF-8 buffers with the same cell rules as SafeCsvWriter (Text, Integer,
         // Number, Bool), so no per-cell strings are made; reason cells are cached per reason list. Blocks of rows are
@@ -56,7 +62,9 @@ public static class ScreeningTables
                     line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
                         .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
                         .Bytes(x.Flagged ? True : False).Sep().Bytes(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd)
-                        .Sep().Integer(x.AlternatingRun).Sep().Rounded(x.PersonTotal).Sep().Rounded(x.Synonyms).Sep().Rounded(x.Antonyms).Bytes("\n"u8);
+                        .Sep().Integer(x.AlternatingRun).Sep().Rounded(x.PersonTotal).Sep().Rounded(x.Synonyms).Sep().Rounded(x.Antonyms);
+                    if (samples is not null) line.Bytes(sampleCells![samples[i]]);
+                    line.Bytes("\n"u8);
                 }
             });
             foreach (var line in buffers) sink.Write(line.Span);

@@ -75,17 +75,19 @@ public static class ShortFormTables
         return w.ToString();
     }
 
-    /// <summary><c>reliability.csv</c>: scale, form, items, alpha, alpha_ci_low, alpha_ci_high, omega, plus sample details.</summary>
-    public static string Reliability(ShortFormResult r)
+    /// <summary><c>reliability.csv</c>: scale, form, items, alpha, alpha_ci_low, alpha_ci_high, omega, plus sample details, and last
+    /// <c>omega_cfa</c>: composite reliability from the confirmatory loadings of the same form and sample (empty when not fitted).</summary>
+    public static string Reliability(ShortFormResult r, Core.Confirmatory.ConfirmatoryCheckResult? confirmatory = null)
     {
         var w = new SafeCsvWriter(["scale", "form", "items", "alpha", "alpha_ci_low", "alpha_ci_high", "omega",
-            "standardized_alpha", "sample", "respondents", "short_full_r", "short_full_r_observed"]);
+            "standardized_alpha", "sample", "respondents", "short_full_r", "short_full_r_observed", "omega_cfa"]);
         foreach (var row in r.Reliability)
         {
             w.AppendRow([Text(row.Scale), Text(row.FormLabel), Integer(row.Items), Number(row.Alpha, Decimals), Number(row.AlphaCiLow, Decimals),
                 Number(row.AlphaCiHigh, Decimals), Number(row.Omega, Decimals), Number(row.StandardizedAlpha, Decimals),
                 row.Sample.ToString().ToLowerInvariant(), Integer(row.Respondents), Number(row.ShortFullCorrelation, Decimals),
-                Number(row.ShortFullCorrelationObserved, Decimals)]);
+                Number(row.ShortFullCorrelationObserved, Decimals),
+                Number(ConfirmatoryTables.CompositeReliability(confirmatory, row.Scale, row.Form, row.Sample), Decimals)]);
         }
         return w.ToString();
     }

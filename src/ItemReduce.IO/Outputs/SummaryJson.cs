@@ -84,6 +84,7 @@ public static class SummaryJson
             root["bartlett"] = new JsonObject { ["chi2"] = Num(d.Bartlett.ChiSquare), ["df"] = d.Bartlett.DegreesOfFreedom, ["p"] = Num(d.Bartlett.P) };
         }
         if (r.ShortForm is { } sf) AddShortForm(root, r, sf);
+        if (r.Confirmatory is { } cfa) root["confirmatory"] = Confirmatory(cfa);
         root["warnings"] = new JsonArray(RunWarnings.Of(r).Select(w => (JsonNode?)new JsonObject
         {
             ["code"] = w.Code,
@@ -219,6 +220,33 @@ public static class SummaryJson
             ["caution"] = ShortFormBuilder.ValidationCaution,
         };
     }
+
+    /// <summary>The <c>confirmatory</c> block: one entry per form and sample with estimator, respondents, convergence, the
+    /// fit statistics of confirmatory-fit.csv and the composite reliability per scale.</summary>
+    private static JsonObject Confirmatory(Core.Confirmatory.ConfirmatoryCheckResult c) => new()
+    {
+        ["missingData"] = c.Listwise ? "listwise" : "casewise",
+        ["fits"] = new JsonArray(c.Fits.Select(f => (JsonNode?)new JsonObject
+        {
+            ["form"] = ConfirmatoryTables.FormName(f.Form),
+            ["sample"] = ConfirmatoryTables.SampleName(f.Sample),
+            ["fitted"] = f.Result is not null,
+            ["estimator"] = f.Result is { } r0 ? ConfirmatoryTables.EstimatorName(r0.Estimator) : null,
+            ["respondents"] = f.Result?.Respondents,
+            ["converged"] = f.Result?.Converged,
+            ["iterations"] = f.Result?.Iterations,
+            ["statistics"] = f.Result is { Fit: var x } ? new JsonObject
+            {
+                ["chi2"] = Num(x.Chi2), ["df"] = x.Df, ["p"] = Num(x.PValue), ["cfi"] = Num(x.Cfi), ["tli"] = Num(x.Tli), ["rmsea"] = Num(x.Rmsea),
+                ["rmseaCi90"] = Nums([x.RmseaLow, x.RmseaHigh]), ["srmr"] = Num(x.Srmr), ["scaledChi2"] = Num(x.ScaledChi2),
+                ["scalingFactor"] = Num(x.ScalingFactor), ["robustCfi"] = Num(x.RobustCfi), ["robustTli"] = Num(x.RobustTli),
+                ["robustRmsea"] = Num(x.RobustRmsea), ["independenceChi2"] = Num(x.IndependenceChi2), ["independenceDf"] = x.IndependenceDf,
+            } : null,
+            ["compositeReliability"] = f.Result is { } r1
+                ? new JsonObject(r1.Factors.Select((name, k) => KeyValuePair.Create(name, Num(r1.CompositeReliability[k])))) : null,
+        }).ToArray()),
+        ["files"] = Strs(["confirmatory-fit.csv", "confirmatory-loadings.csv"]),
+    };
 
     internal static string ExtractionName(FactorExtraction e) => Settings.SettingsCatalog.ExtractionName(e);
 }

@@ -229,6 +229,12 @@ public static class SettingsCatalog
             Group = ShortFormGroup, ValueName = "P", Default = ShortForm.HoldoutFraction, Min = 0, Max = ShortFormOptions.MaxHoldoutFraction,
             Example = "0.5", Help = "Share of respondents held out to evaluate the short form on data it was not chosen on (0: none).",
         },
+        new()
+        {
+            Name = "confirmatory", Kind = SettingKind.Flag, Commands = Commands.Shorten | Commands.Run, Concerns = Concerns.Pipeline, Group = ShortFormGroup,
+            Default = false, Example = "true",
+            Help = "Fit the full and short forms as confirmatory factor models (ML; casewise ML with missing answers) and report fit, loadings and composite reliability. Off by default: on wide banks it still costs several times the rest of the run.",
+        },
 
         // Appendix
         new()

@@ -95,6 +95,7 @@ public static class SettingsMapping
             },
             Screening = screening,
             KeepFlagged = v.Flag("keep-flagged"),
+            Confirmatory = v.Flag("confirmatory"),
             Dimensions = dimensions,
             ShortForm = shortForm,
         };

@@ -17,7 +17,7 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         {
             Truth = SimulatedFiles.ThreeFactorSurvey();
             Survey = SimulatedFiles.Write(Truth);
-            Result = Survey.Run("--replicates", "200", "--seed", "5", "--holdout", "0.5", "--items-per-factor", "3");
+            Result = Survey.Run("--replicates", "200", "--seed", "5", "--holdout", "0.5", "--items-per-factor", "3", "--confirmatory");
         }
         public SimulatedSurvey Truth { get; }
         public TempSurvey Survey { get; }
@@ -181,7 +181,7 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         var s = _run.Survey;
         string again = Path.Combine(s.Folder, "again");
         var r = TempSurvey.Cli("run", "--responses", s.Responses, "--codebook", s.Codebook, "--out", again,
-            "--replicates", "200", "--seed", "5", "--holdout", "0.5", "--items-per-factor", "3");
+            "--replicates", "200", "--seed", "5", "--holdout", "0.5", "--items-per-factor", "3", "--confirmatory");
         Assert.True(r.Code == 0, r.Err);
         static string WithoutTimes(string t) => System.Text.RegularExpressions.Regex.Replace(t, @"\d{4}-\d{2}-\d{2} ?\d{2}:\d{2}(:\d{2})?", "<time>");
         Assert.Equal(WithoutTimes(PdfText(File("appendix.pdf"))), WithoutTimes(PdfText(Path.Combine(again, "appendix.pdf"))));

@@ -34,7 +34,7 @@ public class SettingsModelTests
             [Concerns.Screening] = stage.Screening,
             [Concerns.Dimensions] = stage.Dimensions,
             [Concerns.ShortForm] = stage.ShortForm with { ScaleTargets = null },
-            [Concerns.Pipeline] = stage.KeepFlagged,
+            [Concerns.Pipeline] = (stage.KeepFlagged, stage.Confirmatory),
             [Concerns.Outputs] = (job.Out, job.Force, job.NoPdf),
             [Concerns.Terminal] = SettingsMapping.ToTerminal(v),
         };
