@@ -12,7 +12,7 @@ rids=("$@")
 for rid in "${rids[@]}"; do
   echo "publish-executables: $rid"
   dotnet publish src/ItemReduce.Cli/ItemReduce.Cli.csproj -c Release -r "$rid" --self-contained true \
-    -p:PublishSingleFile=true -p:IncludeNativeLibrariesForSelfExtract=true -p:PackAsTool=false \
+    -p:PublishSingleFile=true -p:PublishReadyToRun=true -p:IncludeNativeLibrariesForSelfExtract=true -p:PackAsTool=false \
     -p:DebugType=none -p:GenerateDocumentationFile=false -o "dist/$rid"
 done
 ls -l dist/*/itemreduce*

@@ -1,11 +1,14 @@
 # Generates the 20,000 respondents x 100 items survey used by pa-end-to-end.sh (invented data:
 # four correlated factors, 25 seven-point items each). Run with Debian's /usr/bin/python3 (numpy).
+# Optional: OUT N FACTORS (e.g. "out 5000 12" for 5,000 respondents x 300 items, 25 items per factor).
 import sys
 import numpy as np
 
 out = sys.argv[1] if len(sys.argv) > 1 else "."
 rng = np.random.default_rng(20261202)
-n, k, per = 20000, 4, 25
+n = int(sys.argv[2]) if len(sys.argv) > 2 else 20000
+k = int(sys.argv[3]) if len(sys.argv) > 3 else 4
+per = 25
 p = k * per
 phi = np.full((k, k), 0.3) + 0.7 * np.eye(k)
 f = rng.standard_normal((n, k)) @ np.linalg.cholesky(phi).T

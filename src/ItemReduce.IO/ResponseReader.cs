@@ -60,39 +60,13 @@ public static class ResponseReader
             if (!csv.Read()) throw InputErrors.OnlySkippedRows(path, options.SkipRows);
 
         var missing = new HashSet<string>(options.EffectiveMissingCodes.Select(m => m.Trim()), StringComparer.Ordinal) { "" };
-        var builder = new ResponseMatrixBuilder(codebook.Items);
-        // Ids seen so far; the line of a first occurrence is looked up again only when a duplicate is found.
-        var seenIds = new HashSet<string>(StringComparer.Ordinal);
-        var row = new double[p];
-        while (csv.Read())
-        {
-            var f = csv.Fields;
-            if (f.Length != header.Length) throw InputErrors.Ragged(path, csv.Line, header.Length, f.Length);
-            string id;
-            if (idCol >= 0)
-            {
-                id = f[idCol].Trim();
-                if (id.Length == 0) throw InputErrors.EmptyId(path, csv.Line, header[idCol]);
-            }
-            else id = csv.Line.ToString(CultureInfo.InvariantCulture);
-            if (!seenIds.Add(id)) throw InputErrors.DuplicateId(path, csv.Line, header[Math.Max(idCol, 0)], id, FirstLineOf(path, delimiter, idCol, id, options.SkipRows));
-            for (int j = 0; j < p; j++)
-            {
-                string raw = f[itemCol[j]];
-                string cell = raw.Trim();
-                if (missing.Contains(cell)) { row[j] = double.NaN; continue; }
-                double v;
-                // Fast path for the common one-digit answer; gives exactly what double.TryParse gives.
-                if (cell.Length == 1 && char.IsAsciiDigit(cell[0])) v = cell[0] - '0';
-                else if (!double.TryParse(cell, NumberStyles.Float, CultureInfo.InvariantCulture, out v) || !double.IsFinite(v))
-                    throw InputErrors.NotANumber(path, csv.Line, header[itemCol[j]], raw);
-                var item = codebook.Items[j];
-                if (!item.InRange(v)) throw InputErrors.OutOfRange(path, csv.Line, header[itemCol[j]], raw, item.Min, item.Max);
-                row[j] = v;
-            }
-            builder.Add(id, row);
-            if (progress is not null && builder.Count % ProgressEveryRows == 0) progress(builder.Count);
-        }
+        // Rows expected: the file's length over the header's (rows are usually shorter than the header, so this rarely
+        // overshoots); it only sizes the first allocations.
+        int expectedRows = (int)Math.Min(1 << 24, new FileInfo(path).Length / Math.Max(16, first.Length + 1));
+        var builder = new ResponseMatrixBuilder(codebook.Items, expectedRows);
+        var rows = new ResponseRows(csv, path, header, itemCol, idCol, codebook.Items.ToArray(), missing, builder, expectedRows,
+            id => FirstLineOf(path, delimiter, idCol, id, options.SkipRows));
+        rows.ReadAll(progress, ProgressEveryRows);
         if (builder.Count == 0) throw InputErrors.HeaderOnly(path);
         var matrix = builder.Build();
         return new ResponseIntake(matrix, idCol >= 0 ? header[idCol] : null, delimiter, ignored);

@@ -13,7 +13,8 @@ namespace ItemReduce.IO;
 /// without running ahead of the line count, and the characters before a bad byte are still delivered, so the error is
 /// raised only when the parser reaches it (an earlier error in the file is reported first);</item>
 /// <item>a line longer than <see cref="MaxLineChars"/> characters stops the read at that line, before the parser
-/// buffers it.</item>
+/// buffers it; with <c>boundQuotedRecords</c>, so does a CSV record that runs on inside double quotes over many lines
+/// for more than that many characters (a quote opened and never closed), reported on the line where it starts.</item>
 /// </list>
 /// Lines end at <c>\n</c>, <c>\r\n</c> or a lone <c>\r</c>.
 /// </summary>
@@ -38,10 +39,17 @@ internal sealed class SurveyTextReader : TextReader
     private bool _lastWasCr;
     private bool _eof;
     private SurveyInputException? _pending; // raised once the characters before it are consumed
+    private readonly bool _boundRecords;
+    private bool _inQuotes; // CSV quote parity (every double quote toggles it, as the parser counts them)
+    private long _recordLength; // characters of the current CSV record decoded so far (line breaks inside quotes included)
+    private long _recordLine = 1; // line on which the current CSV record starts
 
-    public SurveyTextReader(string path)
+    /// <param name="path">The file.</param>
+    /// <param name="boundQuotedRecords">Also bound CSV records that continue over line breaks inside double quotes.</param>
+    public SurveyTextReader(string path, bool boundQuotedRecords = false)
     {
         _path = path;
+        _boundRecords = boundQuotedRecords;
         _stream = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16, FileOptions.SequentialScan);
         try
         {
@@ -177,6 +185,12 @@ internal sealed class SurveyTextReader : TextReader
             _eof = true;
             return;
         }
+        if (_boundRecords && BoundRecords(span))
+        {
+            span = span[.._charLen];
+            if (span.Length == 0) return;
+            first = span.IndexOfAny('\n', '\r');
+        }
         if (first < 0)
         {
             _lineLength += span.Length;
@@ -197,8 +211,62 @@ internal sealed class SurveyTextReader : TextReader
             }
         }
         _line += lf + cr - pairs;
+        if (_recordLine < 0) _recordLine = _line;
         _lineLength = span.Length - 1 - span.LastIndexOfAny('\n', '\r');
         _lastWasCr = span[^1] == '\r';
+    }
+
+    /// <summary>Tracks the CSV record that the freshly decoded characters continue (records end at a line break outside
+    /// double quotes) and cuts them where a record passes <see cref="MaxLineChars"/>; true when it cut. Blocks without
+    /// a quote are handled with vectorised searches; only blocks holding a quote are walked character by character.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private bool BoundRecords(ReadOnlySpan<char> span)
+    {
+        int cut = -1;
+        if (!span.Contains('"'))
+        {
+            int first = _inQuotes ? -1 : span.IndexOfAny('\n', '\r');
+            if (first < 0)
+            {
+                if (_recordLength + span.Length > MaxLineChars) cut = (int)(MaxLineChars - _recordLength);
+                else _recordLength += span.Length;
+            }
+            else if (_recordLength + first > MaxLineChars) cut = (int)(MaxLineChars - _recordLength);
+            else
+            {
+                _recordLength = span.Length - 1 - span.LastIndexOfAny('\n', '\r');
+                _recordLine = -1; // the line after the block's last break: set once the block's lines are counted
+            }
+        }
+        else
+        {
+            long line = _line;
+            bool lastWasCr = _lastWasCr;
+            for (int k = 0; k < span.Length; k++)
+            {
+                char c = span[k];
+                if (c == '\n' || c == '\r')
+                {
+                    if (c == '\r' || !lastWasCr) line++;
+                    lastWasCr = c == '\r';
+                    if (!_inQuotes) { _recordLength = 0; _recordLine = line; continue; }
+                }
+                else
+                {
+                    lastWasCr = false;
+                    if (c == '"') _inQuotes = !_inQuotes;
+                }
+                if (++_recordLength > MaxLineChars) { cut = k; break; }
+            }
+        }
+        if (cut < 0) return false;
+        _charLen = cut;
+        _pending ??= InputErrors.At(_path, _recordLine, null,
+            $"a field is longer than {MaxLineChars.ToString("N0", CultureInfo.InvariantCulture)} characters",
+            "check for a quote that is opened and never closed");
+        _carry = 0;
+        _eof = true;
+        return true;
     }
 
     /// <summary>Length of the prefix that holds whole characters (the rest waits for the next block).</summary>

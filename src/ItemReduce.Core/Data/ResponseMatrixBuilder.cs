@@ -9,8 +9,12 @@ namespace ItemReduce.Core.Data;
 /// </summary>
 public sealed class ResponseMatrixBuilder
 {
+    /// <summary>Byte code of a missing answer in <see cref="AddCodes"/>.</summary>
+    public const byte MissingCode = ResponseMatrix.MissingCode;
+
     private readonly IReadOnlyList<ItemDefinition> _items;
     private readonly int _p;
+    private readonly double[] _mins; // item minima, read per cell when encoding
     private readonly List<string> _ids;
     private byte[]? _codes;
     private double[]? _values;
@@ -24,6 +28,7 @@ public sealed class ResponseMatrixBuilder
         if (expectedRows < 0) throw new ArgumentException($"expectedRows must be ≥ 0, got {expectedRows}.", nameof(expectedRows));
         _items = items;
         _p = items.Count;
+        _mins = items.Select(i => i.Min).ToArray();
         int rows = Math.Max(expectedRows, 1024);
         _ids = new List<string>(rows);
         if (items.All(CanStoreCompact)) _codes = new byte[(long)rows * _p];
@@ -57,6 +62,20 @@ public sealed class ResponseMatrixBuilder
         _ids.Add(id);
     }
 
+    /// <summary>Adds one respondent given as byte codes (answer − item minimum; 255 = missing) while
+    /// <see cref="IsCompact"/>; every code must lie within its item's scale. The same as <see cref="Add"/> with the
+    /// decoded values, without decoding.</summary>
+    public void AddCodes(string id, ReadOnlySpan<byte> codes)
+    {
+        ArgumentNullException.ThrowIfNull(id);
+        if (_codes is null) throw new InvalidOperationException("The builder no longer stores byte codes.");
+        if (codes.Length != _p) throw new ArgumentException($"Expected {_p} codes, got {codes.Length}.", nameof(codes));
+        Reserve();
+        codes.CopyTo(_codes.AsSpan((int)_cells, _p));
+        _cells += _p;
+        _ids.Add(id);
+    }
+
     /// <summary>The matrix; the builder must not be used afterwards.</summary>
     public ResponseMatrix Build()
     {
@@ -78,7 +97,7 @@ public sealed class ResponseMatrixBuilder
         {
             double x = values[j];
             if (double.IsNaN(x)) { codes[j] = ResponseMatrix.MissingCode; continue; }
-            double min = _items[j].Min, c = x - min;
+            double min = _mins[j], c = x - min;
             // The code must decode to exactly the same double (this also rejects −0 and non-integers).
             if (!(c >= 0 && c < ResponseMatrix.MissingCode) || Math.Floor(c) != c
                 || BitConverter.DoubleToInt64Bits(min + c) != BitConverter.DoubleToInt64Bits(x)) return false;

@@ -24,7 +24,7 @@ internal static class MinimumResidual
 
     internal static double Criterion(Matrix<double> r, double[] psi, int k)
     {
-        var (e, _) = MatrixHelpers.SymmetricEigenDescending(Reduced(r, psi));
+        var e = MatrixHelpers.SymmetricEigenvaluesDescending(Reduced(r, psi));
         double s = 0;
         for (int i = k; i < e.Length; i++) s += e[i] * e[i];
         return 0.5 * s;

@@ -143,6 +143,27 @@ public class InputErrorTests
         AssertInputError(s, s.Run(), "line 21", "\"id3\"", "already appeared on line 4");
     }
 
+    /// <summary>Ids are checked for duplicates a batch of rows at a time beside the cell checks; the error named is still
+    /// the first in the file, and on one row the id comes before the cells (common practice, no source: report the
+    /// first problem in reading order).</summary>
+    [Theory]
+    [InlineData(9001, 9500, "line 9001", "already appeared on line 2")]
+    [InlineData(9500, 9001, "line 9001", "not a finite number")]
+    [InlineData(9001, 9001, "line 9001", "already appeared on line 2")]
+    [InlineData(9001, 0, "line 9001", "already appeared on line 2")]
+    public void The_first_error_in_the_file_is_reported_when_a_duplicate_id_and_a_bad_cell_both_occur(int duplicateLine, int badLine,
+        string line, string problem)
+    {
+        var text = TempSurvey.ValidResponses(10_000).Split('\n');
+        text[duplicateLine - 1] = "id1" + text[duplicateLine - 1][text[duplicateLine - 1].IndexOf(',')..];
+        if (badLine > 0) text[badLine - 1] += "x";
+        using var s = new TempSurvey().WithCodebook().WithResponses(string.Join('\n', text));
+        var r = TempSurvey.Cli("check", "--responses", s.Responses, "--codebook", s.Codebook);
+        Assert.Equal(2, r.Code);
+        Assert.Contains(line + ",", r.Err);
+        Assert.Contains(problem, r.Err);
+    }
+
     [Fact]
     public void Too_few_respondents_says_how_many_are_needed()
     {
