@@ -290,7 +290,10 @@ public static partial class AppendixBuilder
         string why = d.RuleUsed == RetentionRule.ParallelReduced
             ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of ten rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
               " Accuracy was lowest with three items per factor, strongly correlated factors (r = .5) and 200 respondents."
-            : "";
+            : d.RuleUsed == RetentionRule.Combined
+                ? " The combined rule was chosen in the settings; it is not the default because, in the project's simulation study (benchmarks/results/dimensions-study-2026-12-02.md), it improved the overall hit rate only modestly and was weaker than reduced-matrix parallel analysis in a few conditions. " +
+                  RetentionStudyAccuracy.CombinedSentence(d.EffectiveRespondents) + " It was fitted to Pearson correlations with the normal reference; with other settings its accuracy is untested."
+                : "";
         b.Para("**Decision.** " + d.Reason + why + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));
         refs.Add(MethodReferences.Horn1965);
         refs.Add(MethodReferences.Glorfeld1995);
