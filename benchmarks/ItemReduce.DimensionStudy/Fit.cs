@@ -168,7 +168,7 @@ internal static class Fit
         sb.AppendLine("/// <summary>");
         sb.AppendLine("/// Fitted coefficients of <see cref=\"CombinedRetention\"/>: training-feature means and standard deviations, and per step");
         sb.AppendLine("/// (−2, −1, 0, +1, +2; step 0 is the reference class, all zero) an intercept and one weight per standardised feature.");
-        foreach (var line in provenance.Split('\n')) sb.AppendLine("/// " + line.TrimEnd());
+        foreach (var line in provenance.Trim().Split('\n')) sb.AppendLine("/// " + line.TrimEnd());
         sb.AppendLine("/// " + summary + ".");
         sb.AppendLine("/// </summary>");
         sb.AppendLine("internal static class CombinedRetentionModel");

@@ -12,7 +12,6 @@ namespace ItemReduce.Core.Dimensions;
 ///   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- fit src/ItemReduce.Core/Dimensions/CombinedRetentionModel.cs PROVENANCE_TXT OUT_DIR/training-datasets.csv OUT_DIR/training-hard-datasets.csv
 /// (multinomial logistic regression, Newton's method, ridge chosen by five-fold cross-validation on the training table only).
 /// Checked against an independent scipy fit: tests/ItemReduce.Tests/ReferenceData/Dimensions/make_combined_fixture.py.
-/// 
 /// 3000 training surveys; ridge 0.03 (five-fold cross-validated hit rate 0.9477); in-sample hit rate 0.9577; reduced-matrix parallel analysis alone 0.9283.
 /// </summary>
 internal static class CombinedRetentionModel
