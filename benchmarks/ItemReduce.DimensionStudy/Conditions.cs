@@ -33,6 +33,24 @@ internal static class Conditions
         return cells;
     }
 
+    /// <summary>Training design of the combined rule, separate from the grid: every training survey draws its own
+    /// conditions — factors 1–6 (including 5, absent from the grid), items per factor 3–10, factor correlation uniform
+    /// on [0, .5], respondents log-uniform on [200, 1000] — and then, like a grid data set, 4–7 categories, symmetric or
+    /// skewed answers and cross-loadings in a third of the surveys, from its own random stream.
+    /// <para>The second part of the design (<paramref name="hard"/>) oversamples the conditions in which the published
+    /// comparisons found the rules to disagree (Crawford et al. 2010; Garrido, Abad &amp; Ponsoda 2013): factors 2–6,
+    /// 3–5 items per factor, factor correlation uniform on [.25, .5], respondents log-uniform on [200, 600].</para></summary>
+    public static (Cell Cell, FactorModelSpec Spec) TrainingSurvey(bool hard, RandomStream rng)
+    {
+        int k = hard ? 2 + rng.NextInt(5) : 1 + rng.NextInt(6);
+        int ipf = 3 + rng.NextInt(hard ? 3 : 8);
+        double r = k == 1 ? 0 : hard ? 0.25 + 0.25 * rng.NextDouble() : 0.5 * rng.NextDouble();
+        int n = (int)Math.Round(200 * Math.Exp(Math.Log(hard ? 3 : 5) * rng.NextDouble()));
+        var cell = new Cell(-1, k, ipf, r, n);
+        int d = rng.NextInt(24); // categories, skew and cross-loadings as data set d of a grid cell
+        return (cell, Spec(cell, d, rng));
+    }
+
     /// <summary>Data set <paramref name="d"/> of a cell: categories cycle through 4–7 (d mod 4), items are symmetric
     /// or skewed (⌊d/4⌋ mod 2), and every third block of eight data sets has cross-loadings (the first item of each
     /// factor also loads .3 on the next factor). Primary loadings are uniform on [.4, .7].</summary>

@@ -66,18 +66,28 @@ internal static class Tables
         }
         File.WriteAllText(Path.Combine(outDir, "grid-cells.csv"), csv.ToString());
 
+        WriteDataSets(Path.Combine(outDir, "grid-datasets.csv"), outcomes);
+        Console.Write(sb.ToString());
+    }
+
+    /// <summary>One row per data set: conditions, every single rule's count, the combined rule's count and its features.</summary>
+    public static void WriteDataSets(string path, IReadOnlyList<GridStudy.Outcome> outcomes)
+    {
+        var rules = GridStudy.Rules;
+        bool Raw(GridStudy.Rule r) => r.Single || r.Name == "combined";
         var raw = new StringBuilder("cell,set,factors,items_per_factor,factor_correlation,respondents,categories,skewed,cross_loadings");
-        foreach (var rule in rules.Where(r => r.Single)) raw.Append(',').Append(rule.Name);
+        foreach (var rule in rules.Where(Raw)) raw.Append(',').Append(rule.Name);
+        foreach (var name in ItemReduce.Core.Dimensions.CombinedRetention.FeatureNames) raw.Append(',').Append(name);
         raw.AppendLine();
         foreach (var o in outcomes)
         {
             raw.Append(string.Create(CultureInfo.InvariantCulture,
                 $"{o.Cell.Index},{o.Set},{o.Cell.Factors},{o.Cell.ItemsPerFactor},{o.Cell.FactorCorrelation},{o.Cell.Respondents},{o.Categories},{(o.Skewed ? 1 : 0)},{(o.Cross ? 1 : 0)}"));
-            for (int r = 0; r < m; r++) if (rules[r].Single) raw.Append(',').Append(o.Counts[r].ToString(CultureInfo.InvariantCulture));
+            for (int r = 0; r < rules.Length; r++) if (Raw(rules[r])) raw.Append(',').Append(o.Counts[r].ToString(CultureInfo.InvariantCulture));
+            foreach (double v in o.Features) raw.Append(',').Append(v.ToString("R", CultureInfo.InvariantCulture));
             raw.AppendLine();
         }
-        File.WriteAllText(Path.Combine(outDir, "grid-datasets.csv"), raw.ToString());
-        Console.Write(sb.ToString());
+        File.WriteAllText(path, raw.ToString());
     }
 
     private static void Breakdown(StringBuilder sb, GridStudy.Outcome[] outcomes, string title, Func<GridStudy.Outcome, string> key)

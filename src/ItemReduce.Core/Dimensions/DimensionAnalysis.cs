@@ -72,6 +72,13 @@ public static class DimensionAnalysis
             ParallelReducedMean = reducedEigen is null || reference.ReducedMean is null ? null : ParallelAnalysis.RetainedCount(reducedEigen, reference.ReducedMean),
             Hull = hull?.Count,
         };
+        CombinedRetentionResult? combined = null;
+        if (reducedCount is int m && reducedEigen is not null && p >= 3)
+        {
+            combined = CombinedRetention.Decide(
+                CombinedRetention.Features(counts, m, eigen, reducedEigen, reference, comparison, nEff), m, p);
+            counts = counts with { Combined = combined.Count };
+        }
         var kmo = KaiserMeyerOlkin.Compute(r);
         var bartlett = BartlettSphericityTest.Compute(r, nEff);
 
@@ -99,6 +106,7 @@ public static class DimensionAnalysis
             EmpiricalKaiserReferences = ekcReference,
             ComparisonData = comparison,
             Hull = hull,
+            Combined = combined,
             MapCurve = map.Curve,
             MapRevisedCurve = map.RevisedCurve,
             Warnings = warnings,
@@ -109,11 +117,13 @@ public static class DimensionAnalysis
     {
         if (data.ItemCount < 2) throw new ArgumentException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
         if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
-            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData or Hull, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData, Hull or Combined, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
         if (o.FactorsRule == RetentionRule.ParallelReduced && !o.IncludeReducedMatrix)
             throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
-        if (o.FactorsRule is RetentionRule.ComparisonData or RetentionRule.Hull && data.ItemCount < 3)
-            throw new ArgumentException($"Comparison data and the Hull method need at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
+        if (o.FactorsRule == RetentionRule.Combined && !o.IncludeReducedMatrix)
+            throw new ArgumentException("FactorsRule Combined needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
+        if (o.FactorsRule is RetentionRule.ComparisonData or RetentionRule.Hull or RetentionRule.Combined && data.ItemCount < 3)
+            throw new ArgumentException($"Comparison data, the Hull method and the combined rule need at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
         if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
             throw new ArgumentException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o.FixedFactors));
         if (!(o.EigenvalueFloor > 0 && o.EigenvalueFloor <= 0.5))
@@ -202,6 +212,8 @@ public static class DimensionAnalysis
                 $"{Count(cd)} kept because simulated data with {cd + 1} factor{(cd + 1 == 1 ? "" : "s")} did not reproduce the observed eigenvalues significantly better than data with {cd} (comparison data).")),
             RetentionRule.Hull when c.Hull is int h => (h, RetentionRule.Hull, string.Create(ci,
                 $"{Count(h)} kept because the fit of the {h}-factor solution gains most against its added complexity among the solutions on the convex hull of fit versus free parameters (Hull method).")),
+            RetentionRule.Combined when c.Combined is int cb && c.ParallelReduced is int start => (cb, RetentionRule.Combined, string.Create(ci,
+                $"{Count(cb)} kept by the combined rule: a model fitted to invented surveys of known structure read what the single rules found here (reduced-matrix parallel analysis {start}, principal-component parallel analysis {c.Parallel}, comparison data {(c.ComparisonData is int cdc ? cdc.ToString(ci) : "not run")}, empirical Kaiser criterion {c.EmpiricalKaiser}) and how far the eigenvalues stand out from random data, and {(cb == start ? "kept the reduced-matrix count" : $"moved the reduced-matrix count of {start} to {cb}")}.")),
             RetentionRule.Kaiser => (c.Kaiser, RetentionRule.Kaiser, string.Create(ci,
                 $"{Count(c.Kaiser)} kept because {c.Kaiser} eigenvalue{(c.Kaiser == 1 ? " is" : "s are")} above 1; this rule tends to keep too many.")),
             _ => (c.Parallel, RetentionRule.Parallel, string.Create(ci,

@@ -21,6 +21,9 @@ public enum RetentionRule
     EmpiricalKaiser,
     /// <summary>The Hull method (Lorenzo-Seva, Timmerman &amp; Kiers, 2011), see <see cref="HullMethod"/>.</summary>
     Hull,
+    /// <summary>Combined rule (<see cref="CombinedRetention"/>): a fitted model corrects the reduced-matrix
+    /// parallel-analysis count using the other rules and eigenvalue margins. Needs <see cref="DimensionOptions.IncludeReducedMatrix"/>.</summary>
+    Combined,
     /// <summary>Result only: the count was fixed by <see cref="DimensionOptions.FixedFactors"/>. Not a valid option value.</summary>
     Fixed,
 }

@@ -20,6 +20,10 @@ public sealed record RuleCounts(int Parallel, int? ParallelReduced, int Map, int
 
     /// <summary>The Hull method (Lorenzo-Seva, Timmerman &amp; Kiers, 2011), or null when not computed (fewer than 3 items).</summary>
     public int? Hull { get; init; }
+
+    /// <summary>The combined rule (<see cref="CombinedRetention"/>), or null when not computed (no reduced matrix or
+    /// fewer than 3 items).</summary>
+    public int? Combined { get; init; }
 }
 
 /// <summary>One row per component for tables and charts (scree plot with parallel-analysis reference).</summary>
@@ -117,6 +121,9 @@ public sealed record DimensionResult
 
     /// <summary>Hull-method fit curve and selection, or null when not computed (fewer than 3 items).</summary>
     public HullResult? Hull { get; init; }
+
+    /// <summary>The combined rule's features, step probabilities and count, or null when not computed.</summary>
+    public CombinedRetentionResult? Combined { get; init; }
 
     /// <summary>MAP curve (squared partials), index m = components removed, starting at 0.</summary>
     public required double[] MapCurve { get; init; }

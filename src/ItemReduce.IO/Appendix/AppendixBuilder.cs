@@ -241,6 +241,7 @@ public static partial class AppendixBuilder
                    : "") +
                "The empirical Kaiser criterion (Braeken & van Assen, 2017) compared each eigenvalue with a reference that accounts for the sample size and for the variance taken by the larger eigenvalues. " +
                (d.Hull is not null ? Inv($"The Hull method (Lorenzo-Seva, Timmerman & Kiers, 2011) compared the fit (common part accounted for) of solutions with 0 to {d.Hull.Fit.Length - 1} factors against their number of free parameters and chose the solution where the upper boundary of that plot bends most. ") : "") +
+               (d.Combined is not null ? "The combined rule started from the reduced-matrix parallel-analysis count and moved it by up to two factors up or down according to a multinomial logistic regression that reads the other rules' counts, the size of the survey and how far the eigenvalues around that count stand out from the random reference; the project fitted it to separate invented surveys of known structure, in the spirit of Goretzko and Bühner (2020). " : "") +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
         int p = d.Eigenvalues.Length;
         var comp = Enumerable.Range(1, p).Select(c => (double)c).ToList();
@@ -273,6 +274,7 @@ public static partial class AppendixBuilder
             Row("Parallel analysis, principal components, mean", d.ByRule.ParallelMean is int pm ? Integer(pm) : "—"),
             Row("Comparison data", d.ByRule.ComparisonData is int cdc ? Integer(cdc) : "—"),
             Row("Empirical Kaiser criterion", Integer(d.ByRule.EmpiricalKaiser)),
+            Row("Combined rule (model fitted to invented surveys)", d.ByRule.Combined is int cbc ? Integer(cbc) : "—"),
             Row("Hull method (for comparison only; see the note)", d.ByRule.Hull is int hc ? Integer(hc) : "—"),
             Row("MAP, squared partial correlations (1976)", Integer(d.ByRule.Map)),
             Row("MAP, fourth-power partial correlations (2000)", Integer(d.ByRule.MapRevised)),
@@ -286,9 +288,12 @@ public static partial class AppendixBuilder
                 Enumerable.Range(0, cd.MeanRmsr.Length).Select(c => Row(Integer(c + 1), Fixed(cd.MeanRmsr[c], 4), c == 0 ? "—" : cd.PValues[c] < 0.001 ? "< .001" : Fixed(cd.PValues[c], 3))).ToList(),
                 "RMSR: root mean squared difference between the eigenvalues of samples from the k-factor population and the observed eigenvalues. The fit curve is also in eigenvalues.csv (comparison_rmsr, comparison_p_value).");
         string why = d.RuleUsed == RetentionRule.ParallelReduced
-            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of ten rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often overall and never suggested more than one factor for one-factor data; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
+            ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of ten published rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often of them overall and never suggested more than one factor for one-factor data; a combined rule fitted afterwards found it slightly more often overall (" + Inv($"{RetentionStudyAccuracy.CombinedOverall * 100:0.#}%") + ") but less often in some conditions and at 1,000 respondents, so it is offered as a choice, not the default; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
               " Accuracy was lowest with three items per factor, strongly correlated factors (r = .5) and 200 respondents."
-            : "";
+            : d.RuleUsed == RetentionRule.Combined
+                ? " The combined rule was chosen in the settings; it is not the default because, in the project's simulation study (benchmarks/results/dimensions-study-2026-12-02.md), it improved the overall hit rate only modestly and was weaker than reduced-matrix parallel analysis in a few conditions. " +
+                  RetentionStudyAccuracy.CombinedSentence(d.EffectiveRespondents) + " It was fitted to Pearson correlations with the normal reference; with other settings its accuracy is untested."
+                : "";
         b.Para("**Decision.** " + d.Reason + why + (r.FactorsUsed is int k && k != d.Retained ? Inv($" {k} factor(s) were extracted (see the warnings).") : ""));
         refs.Add(MethodReferences.Horn1965);
         refs.Add(MethodReferences.Glorfeld1995);
@@ -298,6 +303,7 @@ public static partial class AppendixBuilder
         refs.Add(MethodReferences.HumphreysIlgen1969);
         refs.Add(MethodReferences.BraekenVanAssen2017);
         if (d.Hull is not null) refs.Add(MethodReferences.LorenzoSevaTimmermanKiers2011);
+        if (d.Combined is not null) refs.Add(MethodReferences.GoretzkoBuhner2020);
         if (d.ComparisonData is not null)
         {
             refs.Add(MethodReferences.RuscioRoche2012);

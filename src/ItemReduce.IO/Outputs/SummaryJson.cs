@@ -158,6 +158,7 @@ public static class SummaryJson
                 ["empiricalKaiser"] = d.ByRule.EmpiricalKaiser,
                 ["comparisonData"] = d.ByRule.ComparisonData,
                 ["hull"] = d.ByRule.Hull,
+                ["combined"] = d.ByRule.Combined,
             };
             o["indicated"] = d.Retained;
             o["rule"] = RuleName(d.RuleUsed);

@@ -180,9 +180,9 @@ public static class SettingsCatalog
         new()
         {
             Name = "factors-rule", Kind = SettingKind.Choice, Commands = Commands.Correlating, Concerns = Concerns.Dimensions, Group = DimensionsGroup,
-            Choices = ["parallel-reduced", "parallel", "map", "kaiser", "empirical-kaiser", "comparison-data"], Default = RuleName(Dimensions.FactorsRule),
+            Choices = ["parallel-reduced", "parallel", "map", "kaiser", "empirical-kaiser", "comparison-data", "combined"], Default = RuleName(Dimensions.FactorsRule),
             Example = "comparison-data",
-            Help = "Rule that sets the number of factors: parallel-reduced (parallel analysis of the reduced matrix, chosen by the project's simulation study), parallel (principal components), map, kaiser, empirical-kaiser or comparison-data.",
+            Help = "Rule that sets the number of factors: parallel-reduced (parallel analysis of the reduced matrix, chosen by the project's simulation study), parallel (principal components), map, kaiser, empirical-kaiser, comparison-data or combined (a model fitted to invented surveys adjusts the parallel-reduced count using the other rules and the eigenvalue margins).",
         },
         new()
         {
@@ -265,6 +265,7 @@ public static class SettingsCatalog
         RetentionRule.EmpiricalKaiser => "empirical-kaiser",
         RetentionRule.ComparisonData => "comparison-data",
         RetentionRule.Hull => "hull",
+        RetentionRule.Combined => "combined",
         _ => "fixed",
     };
 

@@ -57,6 +57,7 @@ public static class SettingsMapping
                 "kaiser" => RetentionRule.Kaiser,
                 "empirical-kaiser" => RetentionRule.EmpiricalKaiser,
                 "comparison-data" => RetentionRule.ComparisonData,
+                "combined" => RetentionRule.Combined,
                 _ => RetentionRule.ParallelReduced,
             },
             FixedFactors = v.Integer("factors") is ulong k ? (int)k : null,

@@ -53,7 +53,7 @@ public class RunCommandTests
         var sum = Summary(s);
         var factors = sum.GetProperty("factors");
         Assert.Equal("parallel-reduced", factors.GetProperty("rule").GetString());
-        foreach (string rule in new[] { "parallelMean", "parallelReducedMean", "empiricalKaiser", "comparisonData" })
+        foreach (string rule in new[] { "parallelMean", "parallelReducedMean", "empiricalKaiser", "comparisonData", "combined" })
             Assert.Equal(JsonValueKind.Number, factors.GetProperty("byRule").GetProperty(rule).ValueKind);
         Assert.Contains("\"ordinal\"", File.ReadAllText(Path.Combine(s.Out, "summary.json")));
         var header = File.ReadLines(Path.Combine(s.Out, "eigenvalues.csv")).First();
@@ -64,6 +64,7 @@ public class RunCommandTests
     [InlineData("comparison-data", "comparison-data")]
     [InlineData("empirical-kaiser", "empirical-kaiser")]
     [InlineData("parallel", "parallel")]
+    [InlineData("combined", "combined")]
     public void Factors_rule_choices_reach_the_decision(string option, string reported)
     {
         using var s = new TempSurvey().WithCodebook(6).WithResponses(TempSurvey.ValidResponses(200, 6));

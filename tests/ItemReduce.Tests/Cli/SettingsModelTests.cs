@@ -168,6 +168,20 @@ public class SettingsModelTests
     }
 
     [Fact]
+    public void Combined_rule_reaches_the_decision_and_the_appendix_states_its_study_accuracy()
+    {
+        var (job, survey, r) = RunFixture(("factors-rule", "combined"), ("replicates", "30"));
+        var d = r.Dimensions!;
+        Assert.Equal(ItemReduce.Core.Dimensions.RetentionRule.Combined, d.RuleUsed);
+        Assert.Equal(d.ByRule.Combined, d.Retained);
+        var doc = AppendixBuilder.Build(job, survey, r);
+        string text = string.Join("\n", doc.Blocks.OfType<ParagraphBlock>().Select(p => p.Text));
+        // The quoted figures are the study's (checked against the committed tables in RetentionRulesReferenceTests).
+        Assert.Contains(ItemReduce.Core.Dimensions.RetentionStudyAccuracy.CombinedSentence(d.EffectiveRespondents), text);
+        Assert.Contains("Goretzko", text);
+    }
+
+    [Fact]
     public void Readme_options_table_is_the_one_the_declarations_generate()
     {
         string root = AppContext.BaseDirectory;

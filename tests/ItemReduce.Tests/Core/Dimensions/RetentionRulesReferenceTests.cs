@@ -171,6 +171,11 @@ public class RetentionRulesReferenceTests
             Assert.Equal(936, at.Count);
             Assert.Equal(RetentionStudyAccuracy.Nearest(level).HitRate, at.Average(f => f[factors] == f[rule] ? 1.0 : 0.0), 5e-5);
         }
+        int combined = Array.IndexOf(header, "combined");
+        Assert.Equal(RetentionStudyAccuracy.CombinedOverall, rows.Average(f => f[factors] == f[combined] ? 1.0 : 0.0), 5e-5);
+        foreach (int level in new[] { 200, 500, 1000 })
+            Assert.Equal(RetentionStudyAccuracy.NearestCombined(level).HitRate,
+                rows.Where(f => f[n] == level.ToString(CultureInfo.InvariantCulture)).Average(f => f[factors] == f[combined] ? 1.0 : 0.0), 5e-5);
         Assert.Equal(1000, RetentionStudyAccuracy.Nearest(912).Respondents);
         Assert.Equal(200, RetentionStudyAccuracy.Nearest(150).Respondents);
         Assert.Contains("99.5%", RetentionStudyAccuracy.Sentence(20_000));
