@@ -96,6 +96,7 @@ public static class SettingsMapping
             Screening = screening,
             KeepFlagged = v.Flag("keep-flagged"),
             Confirmatory = v.Flag("confirmatory"),
+            SelfCheck = defaults.SelfCheck with { Surveys = (int)v.Integer("self-check")!.Value },
             Dimensions = dimensions,
             ShortForm = shortForm,
         };
