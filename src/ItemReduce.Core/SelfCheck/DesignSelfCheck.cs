@@ -83,6 +83,31 @@ public static class DesignSelfCheck
         int p = data.ItemCount, k = sol.FactorCount;
         var pattern = (double[,])sol.Pattern.Clone();
         var phi = sol.FactorCorrelations;
+        var scales = new ItemAnswerScale[p];
+        var missing = new double[p];
+        for (int j = 0; j < p; j++)
+        {
+            var counts = new SortedDictionary<double, int>();
+            int answered = 0;
+            foreach (double v in data.Column(j))
+            {
+                if (double.IsNaN(v)) continue;
+                counts[v] = counts.GetValueOrDefault(v) + 1;
+                answered++;
+            }
+            scales[j] = new ItemAnswerScale(counts.Keys.ToArray(), counts.Values.Select(c => c / (double)answered).ToArray());
+            missing[j] = 1 - answered / (double)data.RespondentCount;
+        }
+        // Loadings fitted to Pearson correlations of the answers describe the answers, not the latent scores they are cut
+        // from: divide each item's row by the answers' correlation with their latent score, so that the simulated answers
+        // correlate about as the observed ones do.
+        if (main.ShortForm.Correlation.Kind == Correlation.CorrelationKind.Pearson)
+            for (int j = 0; j < p; j++)
+            {
+                double a = LatentCorrelation(scales[j]);
+                if (a > 0)
+                    for (int f = 0; f < k; f++) pattern[j, f] /= a;
+            }
         int reduced = 0;
         var itemFactor = new int[p];
         var loadings = new double[p];
@@ -105,21 +130,6 @@ public static class DesignSelfCheck
         if (reduced > 0)
             warnings.Add(new AnalysisWarning("self-check-loadings-reduced", "self-check", string.Create(CultureInfo.InvariantCulture,
                 $"{reduced} item(s) had a fitted common variance above {MaxCommonVariance}; their loadings were scaled down to it for the simulated surveys.")));
-        var scales = new ItemAnswerScale[p];
-        var missing = new double[p];
-        for (int j = 0; j < p; j++)
-        {
-            var counts = new SortedDictionary<double, int>();
-            int answered = 0;
-            foreach (double v in data.Column(j))
-            {
-                if (double.IsNaN(v)) continue;
-                counts[v] = counts.GetValueOrDefault(v) + 1;
-                answered++;
-            }
-            scales[j] = new ItemAnswerScale(counts.Keys.ToArray(), counts.Values.Select(c => c / (double)answered).ToArray());
-            missing[j] = 1 - answered / (double)data.RespondentCount;
-        }
         var spec = new FactorModelSpec
         {
             ItemFactor = itemFactor, Loadings = loadings, Pattern = pattern, FactorCorrelations = (double[,])phi.Clone(),
@@ -128,6 +138,29 @@ public static class DesignSelfCheck
         var settings = new FactorModelSimulator.Settings(main.Prepared.Scored.RespondentCount, 0, ItemMissingRates: missing,
             Items: data.Items.ToArray());
         return (spec, settings);
+    }
+
+    /// <summary>
+    /// Correlation of answers cut from a standard normal latent score with that score: Σ_t φ(τ_t)(x_{t+1} − x_t) / σ_X,
+    /// with τ_t the normal quantiles of the cumulative shares, x_t the answer values and σ_X their standard deviation —
+    /// the ratio of the point-polyserial to the polyserial correlation in Olsson, U., Drasgow, F., &amp; Dorans, N. J.
+    /// (1982). The polyserial correlation coefficient. Psychometrika, 47(3), 337–347. For two items it makes the Pearson
+    /// correlation of the answers about a_j·a_k times the latent one (exact only to first order).
+    /// </summary>
+    internal static double LatentCorrelation(ItemAnswerScale s)
+    {
+        double mean = 0, sq = 0;
+        for (int t = 0; t < s.Values.Length; t++) mean += s.Probabilities[t] * s.Values[t];
+        for (int t = 0; t < s.Values.Length; t++) sq += s.Probabilities[t] * (s.Values[t] - mean) * (s.Values[t] - mean);
+        if (!(sq > 0)) return double.NaN;
+        double acc = 0, cov = 0;
+        for (int t = 0; t + 1 < s.Values.Length; t++)
+        {
+            acc += s.Probabilities[t];
+            if (acc >= 1) break;
+            cov += MathNet.Numerics.Distributions.Normal.PDF(0, 1, MathNet.Numerics.Distributions.Normal.InvCDF(0, 1, acc)) * (s.Values[t + 1] - s.Values[t]);
+        }
+        return cov / Math.Sqrt(sq);
     }
 
     /// <summary>What one simulated survey gave.</summary>

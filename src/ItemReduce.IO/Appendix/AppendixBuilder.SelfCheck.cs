@@ -34,7 +34,7 @@ public static partial class AppendixBuilder
                (c.Completed < c.Requested ? Inv($" On {c.Requested - c.Completed} simulated surveys a stage stopped (see the warnings); the figures describe the other {c.Completed}.") : ""));
         b.Para("**What this shows and what it does not.** These are properties of this procedure when the fitted model is true. They are not evidence that the model is right: " +
                "real respondents can differ from it (cross-loadings, shared wording, missing answers that are not random, careless patterns other than the three planted), and then the decisions can be less stable than shown here." +
-               (sf.Correlation.Kind == CorrelationKind.Pearson ? " The loadings were fitted to Pearson correlations of the answers and used as loadings of latent scores, so the simulated items are, if anything, somewhat weaker than the real ones." : ""));
+               (sf.Correlation.Kind == CorrelationKind.Pearson ? " Because the loadings were fitted to Pearson correlations of the answers, each item's loadings were divided by the correlation of its answers with the latent score they are cut from (Olsson, Drasgow & Dorans, 1982), so that the simulated answers correlate about as the observed ones do; this correction is approximate." : ""));
         b.Para("Rates are shares of simulated respondents or surveys with 95% Wilson score intervals, which express the Monte Carlo uncertainty of the rate (the false-flag interval counts respondents as independent, although respondents of one survey share its cutoff). " +
                "Distributions are medians over the simulated surveys with the 5th to 95th percentiles; with few simulated surveys these lie close to the smallest and largest values. More simulated surveys (--self-check N) narrow the intervals and lengthen the run. Every quantity is in " + SelfCheckTables.FileName + ".");
 
@@ -98,6 +98,7 @@ public static partial class AppendixBuilder
         }
         b.Para(Inv($"Table {table} reads as follows: many attentive respondents flagged, a low recall, a low share of surveys recovering the fitted number of factors, or items rarely kept again mean that the corresponding decision of this run depends strongly on chance for a survey of this size and shape; treat it with matching caution."));
         refs.Add(MethodReferences.Wilson1927);
+        if (sf.Correlation.Kind == CorrelationKind.Pearson) refs.Add(MethodReferences.OlssonDrasgowDorans1982);
         refs.Add(MethodReferences.HyndmanFan1996);
     }
 }
