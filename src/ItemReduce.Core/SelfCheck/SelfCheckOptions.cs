@@ -5,7 +5,7 @@ public sealed record SelfCheckOptions
 {
     /// <summary>Default number of simulated surveys (chosen so that <c>run</c> on the bundled sample survey takes at most
     /// about twice as long as without the self-check; see README "Self-check").</summary>
-    public const int DefaultSurveys = 4;
+    public const int DefaultSurveys = 3;
 
     /// <summary>Largest number of simulated surveys accepted.</summary>
     public const int MaxSurveys = 10_000;
