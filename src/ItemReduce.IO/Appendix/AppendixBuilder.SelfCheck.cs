@@ -94,7 +94,7 @@ public static partial class AppendixBuilder
                 x0 += items.Count;
             }
             b.Figure(Inv($"Selection stability: the share of the {c.Completed} simulated surveys whose short form kept each item of this short form again. Items are numbered in the order of the table of short-form items (section 6), one colour per scale; values near 1 mean the item is kept whatever the sampling noise."),
-                new ChartSpec(ChartKind.Scatter, "Item of the short form (numbered)", "Share of simulated surveys keeping it", series) { AspectRatio = 0.45 });
+                new ChartSpec(ChartKind.Scatter, "Item of the short form (numbered)", "Share of simulated surveys keeping it", series) { AspectRatio = 0.45, YLimits = (0, 1.05) });
         }
         b.Para(Inv($"Table {table} reads as follows: many attentive respondents flagged, a low recall, a low share of surveys recovering the fitted number of factors, or items rarely kept again mean that the corresponding decision of this run depends strongly on chance for a survey of this size and shape; treat it with matching caution."));
         refs.Add(MethodReferences.Wilson1927);
