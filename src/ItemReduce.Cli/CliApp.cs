@@ -76,15 +76,20 @@ public static class CliApp
                 var job = Settings(pr, command, options, notices.Add);
                 var terminal = SettingsMapping.ToTerminal(job.Values);
                 if (!terminal.Quiet) foreach (string n in notices) stderr.WriteLine("itemreduce: " + n);
-                var log = terminal.Quiet ? ProgressLog.Silent : terminal.Progress || stderrIsTerminal ? new ProgressLog(stderr) : ProgressLog.Silent;
+                // In a terminal: a live status line for long steps; with --progress elsewhere: plain lines; else nothing.
+                using var view = !terminal.Quiet && stderrIsTerminal ? new TerminalProgress(stderr) : null;
+                var log = view is not null ? new ProgressLog(view.Report)
+                    : !terminal.Quiet && terminal.Progress ? new ProgressLog(stderr) : ProgressLog.Silent;
                 if (scope is null)
                 {
                     var survey = SurveyLoader.Load(job, log);
+                    view?.Dispose();
                     stdout.Write(DataCheckReport.Format(survey, job));
                     if (!terminal.Quiet) WarningLines.Write(stderr, survey.Prepared.Warnings);
                     return Ok;
                 }
                 var outcome = SurveyJob.Run(job, scope.Value, log);
+                view?.Dispose();
                 if (terminal.Json) stdout.Write(JsonOut.Serialize(outcome.Summary));
                 else SummaryConsole.Write(RunSummary.Blocks(outcome.Summary, outcome.OutDir, outcome.Files), stdout, stdoutIsTerminal);
                 stdout.Flush();

@@ -169,8 +169,8 @@ public static class DimensionAnalysis
     private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff, Action<string>? progress)
     {
         var po = ToParallelOptions(o);
-        // Only the permutation reference takes long enough to be worth reporting (the normal one needs well under a second).
-        if (progress is not null && o.Reference == ReferenceKind.Permutation)
+        // Reported every tenth of the replicates (a progress view shows it only when the step takes long).
+        if (progress is not null)
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
             return ParallelAnalysis.PermutationReference(data, d => o.Correlation.Compute(d, 1), po);

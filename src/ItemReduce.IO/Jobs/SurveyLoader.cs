@@ -11,10 +11,10 @@ public static class SurveyLoader
     /// <summary>Loads and validates; throws <see cref="SurveyInputException"/> on user errors.</summary>
     public static LoadedSurvey Load(JobSettings settings, ProgressLog log)
     {
-        log.Step($"reading codebook {settings.Codebook}");
+        log.Step($"reading codebook: {settings.Codebook}");
         var (codebook, lines) = CodebookReader.Read(settings.Codebook);
         Settings.SettingsMapping.CheckAgainstCodebook(settings, codebook);
-        log.Step($"reading responses {settings.Responses}");
+        log.Step($"reading responses: {settings.Responses}");
         // The fingerprint is computed on the second core while the (single-threaded) reader parses the file.
         var responsesHash = Task.Run(() => TryFingerprint(settings.Responses));
         var clock = System.Diagnostics.Stopwatch.StartNew();
@@ -24,7 +24,7 @@ public static class SurveyLoader
             // At most about one message per second.
             if (clock.ElapsedMilliseconds - lastReport < 1000) return;
             lastReport = clock.ElapsedMilliseconds;
-            log.Step(string.Create(System.Globalization.CultureInfo.InvariantCulture, $"read {rows:N0} rows ({rows / clock.Elapsed.TotalSeconds:N0} rows/s)"));
+            log.Step(string.Create(System.Globalization.CultureInfo.InvariantCulture, $"reading responses: {rows:N0} rows read ({rows / clock.Elapsed.TotalSeconds:N0} rows/s)"));
         });
         log.Step($"read {intake.Responses.RespondentCount} respondents × {intake.Responses.ItemCount} items");
         var prepared = PreparedData.From(intake.Responses);

@@ -58,13 +58,26 @@ public static class RunSummary
     {
         var rows = new List<IReadOnlyList<string>>();
         foreach (var (rule, count) in (JsonObject)f["byRule"]!)
-            rows.Add(new[] { rule, count is null ? "—" : Int(count) });
+            rows.Add(new[] { RuleLabel(rule), count is null ? "—" : Int(count) });
         var lines = new List<string>
         {
             $"Decision: {Int(f["retained"])} factor(s) by the {f["rule"]?.GetValue<string>() ?? "given"} rule.",
         };
         if (f["reason"]?.GetValue<string>() is { } reason) lines.Add(reason);
         return new SummaryBlock("Dimensions", ["rule", "dimensions"], rows, lines);
+    }
+
+    /// <summary>A summary.json rule key in the spelling of the command line ("parallelReduced" → "parallel-reduced",
+    /// "parallelReducedMean" → "parallel-reduced-mean"), so the screen uses the names a user types.</summary>
+    internal static string RuleLabel(string key)
+    {
+        var sb = new System.Text.StringBuilder(key.Length + 4);
+        foreach (char c in key)
+        {
+            if (char.IsUpper(c)) sb.Append('-').Append(char.ToLowerInvariant(c));
+            else sb.Append(c);
+        }
+        return sb.ToString();
     }
 
     private static SummaryBlock Fit(JsonObject fit)

@@ -101,7 +101,7 @@ public static class SettingsCatalog
         new()
         {
             Name = "progress", Kind = SettingKind.Flag, Commands = Commands.All, Concerns = Concerns.Terminal, Group = General,
-            Default = false, Example = "true", Recorded = false, Help = "Progress messages on stderr even when stderr is not a terminal.",
+            Default = false, Example = "true", Recorded = false, Help = "Progress messages on stderr as plain lines even when stderr is not a terminal (in a terminal, steps longer than about two seconds are shown on a live status line).",
         },
         new()
         {

@@ -33,7 +33,7 @@ public class IntakeFuzzTests
         return sb.ToString();
     }
 
-    [Property(MaxTest = 150)]
+    [Property(MaxTest = 150, Replay = "(20261202,67891)")] // fixed replay seed: the same cases on every run
     public Property Mutated_responses_never_crash(PositiveInt seed, byte edits)
     {
         using var s = new TempSurvey().WithCodebook().WithResponses(Mutate(TempSurvey.ValidResponses(20), (ulong)seed.Get, 1 + edits % 12));
@@ -41,7 +41,7 @@ public class IntakeFuzzTests
         return (r.Code is 0 or 2 && !r.Err.Contains("   at ")).Label($"exit {r.Code}: {r.Err}");
     }
 
-    [Property(MaxTest = 100)]
+    [Property(MaxTest = 100, Replay = "(20261203,67893)")]
     public Property Mutated_codebooks_never_crash(PositiveInt seed, byte edits)
     {
         string cb = "item,subscale,reverse,min,max,text\nq1,S1,false,1,5,a\nq2,S1,true,1,5,b\nq3,S2,false,1,5,c\nq4,S2,false,1,5,d\n";

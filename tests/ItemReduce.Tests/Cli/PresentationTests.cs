@@ -64,7 +64,12 @@ public class PresentationTests
             Assert.Single(block.Select(l => l.Length).Distinct());
             // Every rule's count and the decision with its reason.
             foreach (var rule in sum.GetProperty("factors").GetProperty("byRule").EnumerateObject())
-                Assert.Contains(lines, l => l.StartsWith("  " + rule.Name + " ", StringComparison.Ordinal) && l.EndsWith(" " + rule.Value.GetInt32(), StringComparison.Ordinal));
+            {
+                // Shown in the command line's spelling (kebab-case), e.g. parallelReduced → parallel-reduced.
+                string label = string.Concat(rule.Name.Select(c => char.IsUpper(c) ? "-" + char.ToLowerInvariant(c) : c.ToString()));
+                Assert.Contains(lines, l => l.StartsWith("  " + label + " ", StringComparison.Ordinal) && l.EndsWith(" " + rule.Value.GetInt32(), StringComparison.Ordinal));
+            }
+            Assert.Contains(lines, l => l.StartsWith("  parallel-reduced ", StringComparison.Ordinal)); // a choice of --factors-rule, as typed
             Assert.Contains($"Decision: {sum.GetProperty("factors").GetProperty("retained").GetInt32()} factor(s) by the {sum.GetProperty("factors").GetProperty("rule").GetString()} rule.", text);
             Assert.Contains(sum.GetProperty("factors").GetProperty("reason").GetString()!, text);
             // Per scale: kept items, α and ω full → short, two decimals of summary.json's values.

@@ -72,6 +72,6 @@ public class LineBreakerTests
             bool fit = lines.All(l => l.Width <= t.width + 0.01f);
             string rejoined = string.Concat(lines.Select(l => l.PlainText)).Replace(" ", "", StringComparison.Ordinal);
             return fit && rejoined == text.Replace(" ", "", StringComparison.Ordinal);
-        }).QuickCheckThrowOnFailure();
+        }).Check(Config.QuickThrowOnFailure.WithReplay(20261202UL, 67891UL)); // fixed replay seed: the same cases on every run
     }
 }

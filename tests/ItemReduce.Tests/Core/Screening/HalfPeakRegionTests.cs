@@ -7,16 +7,12 @@ public class HalfPeakRegionTests
     [Fact]
     public void Share_inside_the_half_peak_region_collapses_with_the_number_of_items()
     {
-        // Common practice, no source: about 76 % for k = 1, 50 % for k = 2, under 30 % for k = 3,
-        // under 10 % for k = 5, about 1 % by k = 9. Read as "down to 1 % or less by k = 9": the exact values
-        // (scipy fixture below) are 1.4 % at k = 7 and 0.21 % at k = 9.
+        // Exact values (scipy.stats.chi2.cdf(2 ln 2, k), scipy 1.10.1; the full table is the fixture below): 76.1 % at
+        // k = 1, 50 % at k = 2, 7.4 % at k = 5, 1.4 % at k = 7, 0.21 % at k = 9, 0.026 % at k = 11.
         var t = HalfPeakRegion.Compute(20, 0.001);
-        Assert.Equal(0.76, t[0].ShareInsideHalfPeak, 0.005);
         Assert.Equal(0.50, t[1].ShareInsideHalfPeak, 1e-12); // exact: F_χ²(2 ln 2; 2) = 1 − e^(−ln 2) = 1/2
-        Assert.True(t[2].ShareInsideHalfPeak < 0.30);
-        Assert.True(t[4].ShareInsideHalfPeak < 0.10);
-        Assert.Equal(0.01, t[6].ShareInsideHalfPeak, 0.005);
-        Assert.True(t[8].ShareInsideHalfPeak < 0.01);
+        Assert.InRange(t[6].ShareInsideHalfPeak, 0.0140, 0.0141);
+        Assert.InRange(t[8].ShareInsideHalfPeak, 0.00209, 0.00210);
         for (int k = 1; k < t.Count; k++) Assert.True(t[k].ShareInsideHalfPeak < t[k - 1].ShareInsideHalfPeak);
     }
 
