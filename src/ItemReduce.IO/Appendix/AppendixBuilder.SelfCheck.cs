@@ -99,6 +99,5 @@ public static partial class AppendixBuilder
         b.Para(Inv($"Table {table} reads as follows: many attentive respondents flagged, a low recall, a low share of surveys recovering the fitted number of factors, or items rarely kept again mean that the corresponding decision of this run depends strongly on chance for a survey of this size and shape; treat it with matching caution."));
         refs.Add(MethodReferences.Wilson1927);
         if (sf.Correlation.Kind == CorrelationKind.Pearson) refs.Add(MethodReferences.OlssonDrasgowDorans1982);
-        refs.Add(MethodReferences.HyndmanFan1996);
     }
 }
