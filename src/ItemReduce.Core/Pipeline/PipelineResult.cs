@@ -35,6 +35,9 @@ public sealed record PipelineResult
     /// <summary>Confirmatory factor analysis of the full and short forms, when the short form was built and the check could run.</summary>
     public Confirmatory.ConfirmatoryCheckResult? Confirmatory { get; init; }
 
+    /// <summary>The design-matched self-check, when it ran (full runs with a short form and at least one simulated survey).</summary>
+    public SelfCheck.SelfCheckResult? SelfCheck { get; init; }
+
     /// <summary>Pipeline-level warnings (stage warnings stay in their results).</summary>
     public required IReadOnlyList<AnalysisWarning> Warnings { get; init; }
 }

@@ -44,6 +44,10 @@ public sealed record PipelineSettings
     /// (default false until the check meets its speed target on wide banks; see README "Confirmatory check").</summary>
     public bool Confirmatory { get; init; }
 
+    /// <summary>The design-matched self-check after a full run (<see cref="SelfCheck.DesignSelfCheck"/>); on by default,
+    /// off with 0 simulated surveys.</summary>
+    public SelfCheck.SelfCheckOptions SelfCheck { get; init; } = new();
+
     /// <summary>Dimension options (the fixed factor count, when set, also fixes the short form's factor count).</summary>
     public DimensionOptions Dimensions { get; init; } = new();
 

@@ -90,11 +90,30 @@ public static class SurveyPipeline
             progress?.Invoke("confirmatory factor analysis of the full and short forms");
             confirmatory = Confirm(analysed, shortForm, stage.ShortForm.Correlation.MissingData == Correlation.MissingDataHandling.Listwise, warnings);
         }
-        return new PipelineResult
+        var result = new PipelineResult
         {
             Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,
             Dimensions = dims, FactorsUsed = k, ShortForm = shortForm, Confirmatory = confirmatory, Warnings = warnings,
         };
+        if (settings.Scope != PipelineScope.All || settings.SelfCheck.Surveys == 0) return result;
+        long cells = (long)prepared.Scored.RespondentCount * analysed.ItemCount;
+        if (settings.SelfCheck.IsDefault && cells > SelfCheck.SelfCheckOptions.MaxDefaultCells)
+        {
+            warnings.Add(new AnalysisWarning("self-check-skipped", "self-check", string.Create(ci,
+                $"The self-check was skipped: with {prepared.Scored.RespondentCount} respondents × {analysed.ItemCount} items (more than {SelfCheck.SelfCheckOptions.MaxDefaultCells:N0} answers) each simulated survey costs about as much as the whole analysis. Set the number of simulated surveys explicitly to run it.")));
+            return result;
+        }
+        progress?.Invoke(string.Create(ci, $"self-check: analysing {settings.SelfCheck.Surveys} simulated surveys that match this one"));
+        try
+        {
+            return result with { SelfCheck = SelfCheck.DesignSelfCheck.Run(result, settings, progress) };
+        }
+        catch (ArgumentException e)
+        {
+            // The fitted model could not be simulated (e.g. a factor correlation matrix that is not positive definite).
+            warnings.Add(new AnalysisWarning("self-check-not-run", "self-check", "The self-check could not simulate surveys from the fitted model: " + e.Message.Split(" (Parameter")[0]));
+            return result;
+        }
     }
 
     /// <summary>The confirmatory check never stops a run: a failure becomes a warning and no confirmatory result.</summary>

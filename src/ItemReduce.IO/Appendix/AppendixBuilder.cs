@@ -46,6 +46,7 @@ public static partial class AppendixBuilder
         }
         if (r.Confirmatory is { } cfa) ConfirmatorySection(b, r, cfa, refs);
         if (r.ShortForm is not null) ItemDescriptivesSection(b, r, refs);
+        if (r.SelfCheck is { } check) SelfCheckSection(b, r, check, refs);
         CautionsSection(b, r);
         b.Heading(1, "References");
         b.Add(new ReferenceListBlock(refs.ToList()));
@@ -451,17 +452,18 @@ public static partial class AppendixBuilder
 
     private static void CautionsSection(Builder b, PipelineResult r)
     {
-        b.Heading(1, "8. Cautions and limitations");
+        b.Heading(1, "9. Cautions and limitations");
         b.Bullets(
         [
             "Screening flags are for human review, not automatic exclusion. Check each flagged respondent's answers, and report how many were set aside and why.",
             "Atypical is not invalid. Groups with a genuinely different response style (for example respondents answering in a second language, or a minority whose experience differs from the majority's) can be over-flagged by distance rules; look at who is flagged before excluding anyone.",
             "Parallel analysis, MAP and the loading thresholds are aids to judgement. The number of dimensions and the items kept should also make sense in terms of content.",
             "A short form chosen on these data must be validated in a new, independent sample before it is used for clinical, educational or employment decisions.",
+            .. (r.SelfCheck is null ? Array.Empty<string>() : ["The self-check (section 8) shows how this run's decisions behave on surveys simulated from the fitted model. It describes the procedure under that model; it does not show that the model is right, and real data can make the decisions less stable than it suggests."]),
             "Follow the requirements of your ethics board and the professional standards of your field for data use, exclusions and test use.",
         ]);
         var warnings = r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
-            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Concat(r.Confirmatory?.Warnings ?? []).Select(w => w.Message).Distinct().ToList();
+            .Concat((r.ShortForm?.Warnings ?? []).Where(w => w.Message != ShortFormBuilder.ValidationCaution)).Concat(r.Confirmatory?.Warnings ?? []).Concat(r.SelfCheck?.Warnings ?? []).Select(w => w.Message).Distinct().ToList();
         if (warnings.Count > 0)
         {
             b.Heading(2, "Warnings raised during this run");

@@ -7,6 +7,8 @@ namespace ItemReduce.IO.Appendix;
 /// </summary>
 public static class MethodReferences
 {
+    public const string Wilson1927 = "Wilson, E. B. (1927). Probable inference, the law of succession, and statistical inference. Journal of the American Statistical Association, 22(158), 209–212.";
+    public const string OlssonDrasgowDorans1982 = "Olsson, U., Drasgow, F., & Dorans, N. J. (1982). The polyserial correlation coefficient. Psychometrika, 47(3), 337–347.";
     public const string RuscioRoche2012 = "Ruscio, J., & Roche, B. (2012). Determining the number of factors to retain in an exploratory factor analysis using comparison data of known factorial structure. Psychological Assessment, 24(2), 282–292.";
     public const string BraekenVanAssen2017 = "Braeken, J., & van Assen, M. A. L. M. (2017). An empirical Kaiser criterion. Psychological Methods, 22(3), 450–466.";
     public const string GarridoAbadPonsoda2013 = "Garrido, L. E., Abad, F. J., & Ponsoda, V. (2013). A new look at Horn's parallel analysis with ordinal variables. Psychological Methods, 18(4), 454–474.";

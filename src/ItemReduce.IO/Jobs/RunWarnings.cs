@@ -4,7 +4,7 @@ using ItemReduce.Core.Pipeline;
 
 namespace ItemReduce.IO.Jobs;
 
-/// <summary>All warnings of a run in one order (data, pipeline, screening, dimensions, short form, confirmatory), for the terminal,
+/// <summary>All warnings of a run in one order (data, pipeline, screening, dimensions, short form, confirmatory, self-check), for the terminal,
 /// summary.json and the appendix alike.</summary>
 public static class RunWarnings
 {
@@ -13,7 +13,7 @@ public static class RunWarnings
     {
         ArgumentNullException.ThrowIfNull(r);
         return r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
-            .Concat(r.ShortForm?.Warnings ?? []).Concat(r.Confirmatory?.Warnings ?? []).ToList();
+            .Concat(r.ShortForm?.Warnings ?? []).Concat(r.Confirmatory?.Warnings ?? []).Concat(r.SelfCheck?.Warnings ?? []).ToList();
     }
 }
 

@@ -83,6 +83,7 @@ public static class SurveyJob
             Write("confirmatory-fit.csv", ConfirmatoryTables.Fit(cfa));
             Write("confirmatory-loadings.csv", ConfirmatoryTables.Loadings(cfa));
         }
+        if (result.SelfCheck is { } check) Write(SelfCheckTables.FileName, SelfCheckTables.Csv(check));
         if (result.Dimensions is not null || result.ShortForm is not null)
             Write("item-descriptives.csv", ConfirmatoryTables.ItemDescriptivesTable(Core.Data.ItemDescriptives.Compute(result.Analysed)));
         var summary = SummaryJson.Build(settings, survey, result);

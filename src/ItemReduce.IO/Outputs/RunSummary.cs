@@ -16,7 +16,7 @@ public sealed record SummaryBlock(string Title, IReadOnlyList<string> Header, IR
 /// The summary printed at the end of a command, read from the summary.json model (<see cref="SummaryJson"/>) so that a
 /// new block there (a rule, a fit index) needs only a reader here. Blocks: respondents (read, flagged by reason,
 /// analysed), dimensions (each rule's count and the decision with its reason), exploratory fit, short form (per scale the
-/// kept items and α and ω for each form: full → short → holdout), then where the results are and which file to open first.
+/// kept items and α and ω for each form: full → short → holdout), the self-check's rates, then where the results are and which file to open first.
 /// </summary>
 public static class RunSummary
 {
@@ -30,6 +30,7 @@ public static class RunSummary
         if (summary["factors"] is JsonObject f && f["byRule"] is JsonObject) blocks.Add(Dimensions(f));
         if (summary["fit"] is JsonObject fit) blocks.Add(Fit(fit));
         if (summary["shortForm"] is JsonObject sf) blocks.Add(ShortForm(sf));
+        if (summary["selfCheck"] is JsonObject check) blocks.Add(SelfCheck(check));
         blocks.Add(Outputs(outDir, files));
         return blocks;
     }
@@ -166,6 +167,33 @@ public static class RunSummary
     }
 
     /// <summary>True for a cell holding a number (or the dash of a missing one), which is right-aligned.</summary>
+    /// <summary>The self-check's rates (screening and factor count) and the least stable kept item; the rest is in
+    /// self-check.csv.</summary>
+    private static SummaryBlock SelfCheck(JsonObject c)
+    {
+        var rows = new List<IReadOnlyList<string>>();
+        JsonObject? least = null;
+        foreach (var q in (c["quantities"] as JsonArray ?? []).OfType<JsonObject>())
+        {
+            string name = q["quantity"]!.GetValue<string>();
+            if (name.StartsWith("short_form.kept_again.", StringComparison.Ordinal))
+            {
+                if (least is null || q["value"]?.GetValue<double>() < least["value"]?.GetValue<double>()) least = q;
+                continue;
+            }
+            if (name.StartsWith("screening.", StringComparison.Ordinal) || name == "dimensions.recovery")
+                rows.Add([name, Num(q["value"], 3), $"{Num(q["interval"]?[0], 3)}–{Num(q["interval"]?[1], 3)}"]);
+        }
+        if (least is not null)
+            rows.Add(["least stable kept item: " + least["quantity"]!.GetValue<string>()["short_form.kept_again.".Length..], Num(least["value"], 3), $"{Num(least["interval"]?[0], 3)}–{Num(least["interval"]?[1], 3)}"]);
+        var lines = new List<string>
+        {
+            $"{Int(c["completed"])} of {Int(c["simulatedSurveys"])} simulated surveys analysed; every quantity is in self-check.csv.",
+            c["caution"]?.GetValue<string>() ?? "",
+        };
+        return new SummaryBlock("Self-check", ["quantity", "value", "interval"], rows, lines);
+    }
+
     public static bool IsNumeric(string s) => s.Length > 0 && s.All(ch => char.IsDigit(ch) || ch is '.' or '—');
 
     private static string Int(JsonNode? n) => n is null ? "—" : n.GetValue<int>().ToString(CultureInfo.InvariantCulture);

@@ -85,6 +85,7 @@ public static class SummaryJson
         }
         if (r.ShortForm is { } sf) AddShortForm(root, r, sf);
         if (r.Confirmatory is { } cfa) root["confirmatory"] = Confirmatory(cfa);
+        if (r.SelfCheck is { } check) root["selfCheck"] = SelfCheckTables.Json(check);
         root["warnings"] = new JsonArray(RunWarnings.Of(r).Select(w => (JsonNode?)new JsonObject
         {
             ["code"] = w.Code,

@@ -65,6 +65,8 @@ public enum Concerns
     Outputs = 32,
     /// <summary>What is printed on the terminal.</summary>
     Terminal = 64,
+    /// <summary>The design-matched self-check after the analysis.</summary>
+    SelfCheck = 128,
 }
 
 /// <summary>

@@ -3,6 +3,7 @@ using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Randomness;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Screening;
+using ItemReduce.Core.SelfCheck;
 using ItemReduce.Core.ShortForm;
 
 namespace ItemReduce.IO.Settings;
@@ -237,6 +238,12 @@ public static class SettingsCatalog
         },
 
         // Appendix
+        new()
+        {
+            Name = "self-check", Kind = SettingKind.Integer, Commands = Commands.Run, Concerns = Concerns.SelfCheck, Group = AppendixGroup,
+            ValueName = "N", Default = (ulong)SelfCheckOptions.DefaultSurveys, Min = 0, Max = SelfCheckOptions.MaxSurveys, Example = "50",
+            Help = "Simulated surveys of the self-check: surveys like this one are drawn from the fitted model and analysed with the same settings, to show how stable the screening, factor-count and item decisions are for this design (0 turns it off).",
+        },
         new()
         {
             Name = "no-pdf", Kind = SettingKind.Flag, Commands = Commands.Run, Concerns = Concerns.Outputs, Group = AppendixGroup,

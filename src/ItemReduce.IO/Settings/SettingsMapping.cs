@@ -97,6 +97,7 @@ public static class SettingsMapping
             Screening = screening,
             KeepFlagged = v.Flag("keep-flagged"),
             Confirmatory = v.Flag("confirmatory"),
+            SelfCheck = defaults.SelfCheck with { Surveys = (int)v.Integer("self-check")!.Value, IsDefault = !v.IsGiven("self-check") },
             Dimensions = dimensions,
             ShortForm = shortForm,
         };

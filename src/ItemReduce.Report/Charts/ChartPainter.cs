@@ -73,6 +73,7 @@ internal static class ChartPainter
                 plot.Axes.SetLimitsX(limits.Left, marker.X + 0.15 * span);
         }
 
+        if (spec.YLimits is { } yl) plot.Axes.SetLimitsY(yl.Low, yl.High);
         plot.XLabel(spec.XLabel, LabelSize);
         plot.YLabel(spec.YLabel, LabelSize);
         foreach (var axis in plot.Axes.GetAxes())
@@ -99,7 +100,8 @@ internal static class ChartPainter
         if (legend)
         {
             // Line charts here mostly fall from left to right; Q–Q style scatters rise. Put the legend where the data is not.
-            plot.ShowLegend(spec.Kind == ChartKind.Line ? Alignment.UpperRight : Alignment.UpperLeft);
+            if (spec.YLimits is not null) plot.ShowLegend(Edge.Right);
+            else plot.ShowLegend(spec.Kind == ChartKind.Line ? Alignment.UpperRight : Alignment.UpperLeft);
             plot.Legend.FontName = ReportFonts.ChartFamilyAlias;
             plot.Legend.FontSize = TickSize;
         }

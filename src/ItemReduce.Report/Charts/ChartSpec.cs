@@ -47,6 +47,10 @@ public sealed record ChartSpec(ChartKind Kind, string XLabel, string YLabel, IRe
     /// <summary>Vertical axis on a logarithmic (base 10) scale; values ≤ 0 are not drawn.</summary>
     public bool LogY { get; init; }
 
+    /// <summary>Fixed vertical axis range (e.g. 0 to 1 for shares), or null for automatic; the legend then goes to the
+    /// right of the plot so it never covers data.</summary>
+    public (double Low, double High)? YLimits { get; init; }
+
     /// <summary>Height of the chart as a fraction of its width (default 0.6; allowed 0.2–1.5).</summary>
     public double AspectRatio { get; init; } = 0.6;
 
@@ -62,6 +66,8 @@ public sealed record ChartSpec(ChartKind Kind, string XLabel, string YLabel, IRe
                     $"Series '{s.Name}' has {s.X.Count} x values and {s.Y.Count} y values; they must be paired.",
                     nameof(Series));
         }
+        if (YLimits is { } y && !(y.Low < y.High && double.IsFinite(y.Low) && double.IsFinite(y.High)))
+            throw new ArgumentException($"YLimits ({y.Low}, {y.High}) must be finite with Low < High.", nameof(YLimits));
         if (!(AspectRatio >= 0.2 && AspectRatio <= 1.5))
             throw new ArgumentException($"AspectRatio {AspectRatio} is outside the allowed range 0.2–1.5.", nameof(AspectRatio));
     }

@@ -126,6 +126,32 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
     }
 
     [Fact]
+    public void Self_check_runs_by_default_and_reaches_its_table_summary_and_appendix()
+    {
+        // Default --self-check (SelfCheckOptions.DefaultSurveys) with the fixture's holdout: the contract columns, the
+        // summary block, the section with its table and figure in the PDF, and the table in tables.md/tex/docx.
+        Assert.Equal("quantity,value,interval_low,interval_high,simulated_surveys", Lines("self-check.csv")[0]);
+        var quantities = Lines("self-check.csv").Skip(1).Select(l => l.Split(',')[0]).ToList();
+        Assert.Contains("screening.false_flag_rate", quantities);
+        Assert.Contains("screening.recall.straight_line", quantities);
+        Assert.Contains("dimensions.recovery", quantities);
+        Assert.Contains(quantities, q => q.StartsWith("short_form.kept_again.", StringComparison.Ordinal));
+        Assert.Contains(quantities, q => q.StartsWith("holdout.omega.", StringComparison.Ordinal));
+        var block = Summary.GetProperty("selfCheck");
+        Assert.Equal(ItemReduce.Core.SelfCheck.SelfCheckOptions.DefaultSurveys, block.GetProperty("simulatedSurveys").GetInt32());
+        Assert.Equal(quantities.Count, block.GetProperty("quantities").GetArrayLength());
+        string pdf = Squeeze(PdfText(File("appendix.pdf")));
+        Assert.Contains(Squeeze("How stable are these decisions?"), pdf);
+        Assert.Contains(Squeeze("Selection stability"), pdf);
+        Assert.Contains(Squeeze("not evidence that the model is right"), pdf);
+        Assert.Contains(Squeeze("does not show that the model is right"), pdf); // the caution
+        string title = ItemReduce.IO.Appendix.AppendixBuilder.SelfCheckTableTitle;
+        Assert.Contains(title, System.IO.File.ReadAllText(File("tables.md")));
+        Assert.Contains("Self-check: the decisions of this run", System.IO.File.ReadAllText(File("tables.tex")));
+        Assert.Contains("self-check.csv", System.IO.File.ReadAllText(File("itemreduce-manifest.txt")));
+    }
+
+    [Fact]
     public void Appendix_pdf_has_every_section_and_the_cautions()
     {
         using var pdf = PdfDocument.Open(File("appendix.pdf"));

@@ -37,6 +37,7 @@ public class SettingsModelTests
             [Concerns.Pipeline] = (stage.KeepFlagged, stage.Confirmatory),
             [Concerns.Outputs] = (job.Out, job.Force, job.NoPdf),
             [Concerns.Terminal] = SettingsMapping.ToTerminal(v),
+            [Concerns.SelfCheck] = job.Pipeline.SelfCheck,
         };
     }
 

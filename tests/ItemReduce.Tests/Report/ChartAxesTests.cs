@@ -34,6 +34,19 @@ public class ChartAxesTests
     }
 
     [Fact]
+    public void Fixed_y_limits_hold_for_shares_that_are_all_one_and_bad_limits_are_refused()
+    {
+        // Shares of simulated surveys lie in [0, 1]; with every share 1 the automatic range would centre on 1.
+        var spec = new ChartSpec(ChartKind.Scatter, "item", "share", [new ChartSeries("a", [1, 2], [1, 1], SeriesStyle.Markers),
+            new ChartSeries("b", [3], [1], SeriesStyle.Markers)]) { YLimits = (0, 1.05) };
+        using var plot = ChartPainter.Build(spec);
+        var limits = plot.Axes.GetLimits();
+        Assert.Equal(0, limits.Bottom, 1e-12);
+        Assert.Equal(1.05, limits.Top, 1e-12);
+        Assert.Throws<ArgumentException>((spec with { YLimits = (1, 0) }).Validate);
+    }
+
+    [Fact]
     public void Upper_tail_probability_is_never_above_one()
     {
         // A respondent of the sample survey with D² = 0.825957 on 34 items printed p = 1.0000000000000002; a probability

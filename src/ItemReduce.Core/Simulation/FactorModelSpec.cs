@@ -1,5 +1,14 @@
 namespace ItemReduce.Simulation;
 
+// The generator lives in Core (folder Simulation) so that the pipeline's self-check can use it; it keeps the namespace
+// ItemReduce.Simulation so that the studies, tools and tests that use it did not change.
+
+/// <summary>One item's answer scale for <see cref="FactorModelSpec.ItemScales"/>: the answer values in increasing order
+/// (in the analysed, reverse-scored direction) and the share of answers of each (normalised to sum 1).</summary>
+/// <param name="Values">Distinct answer values, increasing.</param>
+/// <param name="Probabilities">Share of each value (same length, non-negative, positive sum).</param>
+public sealed record ItemAnswerScale(double[] Values, double[] Probabilities);
+
 /// <summary>
 /// A planted common-factor model for simulated Likert data with known truth.
 /// Item j loads <see cref="Loadings"/>[j] on factor <see cref="ItemFactor"/>[j] only (simple structure,
@@ -26,6 +35,17 @@ public sealed record FactorModelSpec
 
     /// <summary>Marginal category probabilities (length Categories); uniform-ish default when null.</summary>
     public double[]? CategoryProbabilities { get; init; }
+
+    /// <summary>Optional full pattern matrix (p × k). When set it replaces <see cref="Loadings"/> and
+    /// <see cref="CrossLoadings"/> in the latent scores: <c>x*_j = Σ_a P[j,a] f_a + sqrt(1 − P_j' Φ P_j) ε_j</c>
+    /// (<see cref="ItemFactor"/> still names each item's subscale).</summary>
+    public double[,]? Pattern { get; init; }
+
+    /// <summary>Optional answer scale of each item (length p). When set, item j is cut at the normal quantiles of its own
+    /// cumulative shares into its own values instead of <see cref="Categories"/>/<see cref="CategoryProbabilities"/>;
+    /// reverse-keyed items are mirrored within their codebook range (<see cref="FactorModelSimulator.Settings.Items"/>)
+    /// or, without one, within their lowest and highest value.</summary>
+    public IReadOnlyList<ItemAnswerScale>? ItemScales { get; init; }
 
     /// <summary>Reverse-keyed items: their raw answers are mirrored (min + max − x) so that a codebook
     /// flag restores the model's direction.</summary>
