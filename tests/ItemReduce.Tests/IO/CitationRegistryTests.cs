@@ -133,7 +133,7 @@ public sealed partial class CitationRegistryTests
     private static partial Regex EntryPattern();
 
     /// <summary>"Horn (1965)", "Horn, 1965", "Harman &amp; Jones (1966)", "Little, Smith and Jones, 1987", "Smith et al. (1976)",
-    /// "Braeken &amp; van Assen (2017)", "Brent's (1973)".</summary>
-    [GeneratedRegex(@"(?<first>[A-Z][\p{L}'’\-]+)(?:(?:,? & |, | and )(?:[a-z]{2,3} )?[A-Z][\p{L}'’\-]+(?: [A-Z][\p{L}'’\-]+)?)*(?: et al\.)?,? \(?(?<year>(?:1[89]|20)\d\d)\b")]
+    /// "Braeken &amp; van Assen (2017)", "Brent's (1973)"; a surname has a lower-case letter (so "OUT_DIR 2000" is not one).</summary>
+    [GeneratedRegex(@"(?<first>[A-Z][\p{L}'’\-]*\p{Ll}[\p{L}'’\-]*)(?:(?:,? & |, | and )(?:[a-z]{2,3} )?[A-Z][\p{L}'’\-]+(?: [A-Z][\p{L}'’\-]+)?)*(?: et al\.)?,? \(?(?<year>(?:1[89]|20)\d\d)\b")]
     private static partial Regex CitationPattern();
 }
