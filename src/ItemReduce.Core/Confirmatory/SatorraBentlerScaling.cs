@@ -163,6 +163,7 @@ internal static class SatorraBentlerScaling
         var x = new double[p];
         var kr = new double[p];
         var dots = new double[block];
+        var dots2 = new double[block];
         double t1 = 0, t2 = 0, t0 = 0;
         for (int i0 = 0; i0 < n; i0 += block)
         {
@@ -181,19 +182,14 @@ internal static class SatorraBentlerScaling
                 double inv = 1 / l[j * ps + j];
                 for (int b = 0; b < used; b++) ys[b][j] = (ys[b][j] - dots[b]) * inv;
             }
-            // Backward: Lᵀ r = y.
+            // Backward: Lᵀ r = y, and in the same pass rᵀ W r = Σ_j r_j (W_jj r_j + 2 Σ_{l>j} W_jl r_l).
             for (int j = ps - 1; j >= 0; j--)
             {
-                Dots(u.AsSpan(j * ps + j + 1, ps - j - 1), rs, j + 1, used, dots);
-                double inv = 1 / u[j * ps + j];
+                for (int b = 0; b < used; b += 4)
+                    Dot4x2At(u.AsSpan(j * ps + j + 1, ps - j - 1), w.AsSpan(j * ps + j + 1, ps - j - 1), rs, b, j + 1, dots, dots2);
+                double inv = 1 / u[j * ps + j], wjj = w[j * ps + j];
                 for (int b = 0; b < used; b++) rs[b][j] = (ys[b][j] - dots[b]) * inv;
-            }
-            // rᵀ W r from the lower triangle of W.
-            for (int j = 0; j < ps; j++)
-            {
-                Dots(w.AsSpan(j * ps, j), rs, 0, used, dots);
-                double wjj = w[j * ps + j];
-                for (int b = 0; b < nb; b++) t1 += rs[b][j] * (2 * dots[b] + wjj * rs[b][j]);
+                for (int b = 0; b < nb; b++) t1 += rs[b][j] * (2 * dots2[b] + wjj * rs[b][j]);
             }
             // g = Δᵀ W r.
             for (int j = 0; j < qc; j++)
@@ -229,6 +225,64 @@ internal static class SatorraBentlerScaling
     private static void Dots(ReadOnlySpan<double> a, double[][] x, int start, int rows, double[] dots)
     {
         for (int b = 0; b < rows; b += 4) Dot4At(a, x, b, start, a.Length, dots);
+    }
+
+    /// <summary>As <see cref="Dot4At"/> for two rows <paramref name="a"/> and <paramref name="c"/> at once (into
+    /// <paramref name="dots"/> and <paramref name="dots2"/>), sharing the loads of the four vectors.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    private static void Dot4x2At(ReadOnlySpan<double> a, ReadOnlySpan<double> c, double[][] x, int first, int start, double[] dots, double[] dots2)
+    {
+        int length = a.Length;
+        var x0 = x[first].AsSpan(start, length);
+        var x1 = x[first + 1].AsSpan(start, length);
+        var x2 = x[first + 2].AsSpan(start, length);
+        var x3 = x[first + 3].AsSpan(start, length);
+        double s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
+        int t = 0;
+        if (Vector512.IsHardwareAccelerated && length >= Vector512<double>.Count)
+        {
+            var va = MemoryMarshal.Cast<double, Vector512<double>>(a);
+            var vc = MemoryMarshal.Cast<double, Vector512<double>>(c);
+            var v0 = MemoryMarshal.Cast<double, Vector512<double>>(x0);
+            var v1 = MemoryMarshal.Cast<double, Vector512<double>>(x1);
+            var v2 = MemoryMarshal.Cast<double, Vector512<double>>(x2);
+            var v3 = MemoryMarshal.Cast<double, Vector512<double>>(x3);
+            Vector512<double> a0 = default, a1 = default, a2 = default, a3 = default, c0 = default, c1 = default, c2 = default, c3 = default;
+            for (int v = 0; v < va.Length; v++)
+            {
+                var av = va[v];
+                var cv = vc[v];
+                var y0 = v0[v];
+                var y1 = v1[v];
+                var y2 = v2[v];
+                var y3 = v3[v];
+                a0 = Vector512.FusedMultiplyAdd(av, y0, a0);
+                a1 = Vector512.FusedMultiplyAdd(av, y1, a1);
+                a2 = Vector512.FusedMultiplyAdd(av, y2, a2);
+                a3 = Vector512.FusedMultiplyAdd(av, y3, a3);
+                c0 = Vector512.FusedMultiplyAdd(cv, y0, c0);
+                c1 = Vector512.FusedMultiplyAdd(cv, y1, c1);
+                c2 = Vector512.FusedMultiplyAdd(cv, y2, c2);
+                c3 = Vector512.FusedMultiplyAdd(cv, y3, c3);
+            }
+            (s0, s1, s2, s3) = (Vector512.Sum(a0), Vector512.Sum(a1), Vector512.Sum(a2), Vector512.Sum(a3));
+            (r0, r1, r2, r3) = (Vector512.Sum(c0), Vector512.Sum(c1), Vector512.Sum(c2), Vector512.Sum(c3));
+            t = va.Length * Vector512<double>.Count;
+        }
+        for (; t < length; t++)
+        {
+            double av = a[t], cv = c[t];
+            s0 += av * x0[t];
+            s1 += av * x1[t];
+            s2 += av * x2[t];
+            s3 += av * x3[t];
+            r0 += cv * x0[t];
+            r1 += cv * x1[t];
+            r2 += cv * x2[t];
+            r3 += cv * x3[t];
+        }
+        (dots[first], dots[first + 1], dots[first + 2], dots[first + 3]) = (s0, s1, s2, s3);
+        (dots2[first], dots2[first + 1], dots2[first + 2], dots2[first + 3]) = (r0, r1, r2, r3);
     }
 
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
