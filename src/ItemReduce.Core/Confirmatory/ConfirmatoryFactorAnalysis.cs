@@ -310,9 +310,10 @@ public static class ConfirmatoryFactorAnalysis
             }
         srmr = Math.Sqrt(srmr / ps);
         double c = double.NaN, c0 = double.NaN;
+        int robustRespondents = 0;
         if (robust && df > 0)
         {
-            (c, c0) = SatorraBentlerScaling.Factors(data, model, theta, sigma, mu1, sigma1, sigma0, df, df0, information);
+            (c, c0, robustRespondents) = SatorraBentlerScaling.Factors(data, model, theta, sigma, mu1, sigma1, sigma0, df, df0, information);
         }
         double robustRmsea = df > 0 ? Math.Sqrt(Math.Max(chi2 - c * df, 0) / (df * (double)n)) : double.NaN;
         double rc = chi2 - c * df, rc0 = chi20 - c0 * df0;
@@ -320,7 +321,7 @@ public static class ConfirmatoryFactorAnalysis
         double robustCfi = denominator > 0 ? 1 - Math.Max(rc, 0) / denominator : double.NaN;
         double robustTli = df > 0 && rc0 != 0 ? 1 - (rc / df) / (rc0 / df0) : double.NaN;
         return new ConfirmatoryFitStatistics(chi2, df, pValue, cfi, tli, rmsea, lo, hi, srmr, chi2 / c, c, robustCfi, robustTli,
-            robustRmsea, chi20, df0, c0);
+            robustRmsea, chi20, df0, c0, robustRespondents);
     }
 
     /// <summary>CFI = 1 − max(χ²−df, 0)/max(χ²₀−df₀, χ²−df, 0); NaN when the denominator is 0 or df ≤ 0.</summary>

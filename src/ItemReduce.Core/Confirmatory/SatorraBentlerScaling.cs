@@ -29,18 +29,18 @@ namespace ItemReduce.Core.Confirmatory;
 /// <see cref="RowCap"/> evenly spaced respondents (row ⌊j·N/cap⌋), at the estimates from all respondents. Every piece is
 /// then a consistent estimate from a fixed, documented subsample, and the cost stays bounded at very large N.</para>
 /// </summary>
-internal static class SatorraBentlerScaling
+public static class SatorraBentlerScaling
 {
     /// <summary>Most respondents used for Γ and the informations of the scaling factors.</summary>
     public const int RowCap = 2000;
 
-    /// <summary>Scaling factors (c, c₀) of the model (fitted θ, covariance <paramref name="sigmaModel"/>) and of the
+    /// <summary>Scaling factors (c, c₀) and the respondents used, of the model (fitted θ, covariance <paramref name="sigmaModel"/>) and of the
     /// independence model (diagonal <paramref name="sigma0"/>); NaN where df ≤ 0. <paramref name="informationAll"/>: the
     /// expected information of θ over all respondents when already computed.</summary>
-    public static (double C, double C0) Factors(MissingDataPatterns all, IndependentClustersModel model, double[] theta, double[] sigmaModel,
+    internal static (double C, double C0, int Respondents) Factors(MissingDataPatterns all, IndependentClustersModel model, double[] theta, double[] sigmaModel,
         double[] mu1, double[] sigma1, double[] sigma0, int df, int df0, double[]? informationAll = null)
     {
-        if (!(df > 0)) return (double.NaN, double.NaN);
+        if (!(df > 0)) return (double.NaN, double.NaN, 0);
         var data = all.EvenlySpaced(RowCap);
         int qc = model.CovarianceParameters;
         var full = (ReferenceEquals(data, all) ? informationAll : null) ?? ConfirmatoryFactorAnalysis.FisherInformation(model, data, theta)
@@ -49,9 +49,10 @@ internal static class SatorraBentlerScaling
         var dwd = new double[qc * qc];
         for (int i = 0; i < qc; i++) Array.Copy(full, i * model.Parameters, dwd, i * qc, qc);
         CholeskyDecomposition.FactorInPlace(dwd, qc);
-        return data.Complete
+        var (c, c0) = data.Complete
             ? CompleteData(data, model, theta, sigmaModel, mu1, sigma1, sigma0, dwd, df, df0)
             : Casewise(data, model, theta, sigmaModel, mu1, sigma1, sigma0, dwd, df, df0);
+        return (c, c0, data.Respondents);
     }
 
     /// <summary>Complete data: per-respondent identities, O(p²) each.</summary>

@@ -32,7 +32,7 @@ public static partial class AppendixBuilder
                        : "; no respondent in these fits had a missing answer.") +
                " Standard errors come from the expected information. Because Likert answers are not normal, a scaled χ² with robust CFI, TLI and RMSEA is reported as well " +
                (fiml ? "(the Yuan–Bentler correction for incomplete data, Yuan & Bentler, 2000)." : "(the Satorra–Bentler correction, Satorra & Bentler, 1994)."));
-        b.Para(SamplesSentence(r, c));
+        b.Para(SamplesSentence(r, c) + SubsampleSentence(fitted));
         if (fitted.Count > 0)
         {
             var rows = fitted.Select(f =>
@@ -69,6 +69,15 @@ public static partial class AppendixBuilder
 
     /// <summary>Three decimals, without the leading zero only when |v| ≤ 1 (RMSEA and SRMR can exceed 1 on degenerate data).</summary>
     private static string Cell(double v) => !double.IsFinite(v) ? "—" : Math.Abs(v) <= 1 ? Bounded(v, 3) : Fixed(v, 3);
+
+    /// <summary>Says when the robust scaling factor came from evenly spaced respondents (more than the row cap in a sample).</summary>
+    private static string SubsampleSentence(IReadOnlyList<ConfirmatoryFormFit> fitted)
+    {
+        var capped = fitted.Where(f => f.Result!.Fit.RobustRespondents > 0 && f.Result.Fit.RobustRespondents < f.Result.Respondents).ToList();
+        if (capped.Count == 0) return "";
+        return Inv($" The scaling factor of the robust χ² was computed from {SatorraBentlerScaling.RowCap:N0} evenly spaced respondents of each sample larger than that ") +
+               "(every other estimate uses all respondents of the sample).";
+    }
 
     /// <summary>Which respondents each estimate came from, with counts, and why the forms' n differ.</summary>
     private static string SamplesSentence(PipelineResult r, ConfirmatoryCheckResult c)
