@@ -24,16 +24,16 @@ internal static class CasewiseLikelihood
         int p = data.Items;
         if (gradSigma is not null) Array.Clear(gradSigma);
         if (gradMu is not null) Array.Clear(gradMu);
-        if (!TryPatternInverses(data, sigma, out var inverses, out var logDets)) return double.NaN;
+        var inverter = new PatternInverter(data, sigma);
         double total = 0;
         var d = new double[p];
         var kd = new double[p];
-        for (int gi = 0; gi < inverses.Length; gi++)
+        for (int gi = 0; gi < data.Patterns.Count; gi++)
         {
             var g = data.Patterns[gi];
             var o = g.Observed;
             int q = o.Length;
-            var k = inverses[gi];
+            if (!inverter.TryInverse(gi, out var k, out double logDet)) return double.NaN;
             for (int a = 0; a < q; a++) d[a] = g.Mean[a] - mu[o[a]];
             // T = W + n d dᵀ; −2 ln L_g = n ln|Σ_oo| + tr(K W) + n dᵀ K d.
             double tr = 0, quad = 0;
@@ -47,7 +47,7 @@ internal static class CasewiseLikelihood
             bool scatter = g.Count > 1;
             if (scatter)
                 for (int e = 0; e < q * q; e++) tr += k[e] * g.Scatter[e];
-            total += g.Count * logDets[gi] + tr + g.Count * quad;
+            total += g.Count * logDet + tr + g.Count * quad;
             if (gradSigma is not null)
             {
                 // n K − K W K − n (K d)(K d)ᵀ.
@@ -72,35 +72,46 @@ internal static class CasewiseLikelihood
 
     /// <summary>Inverse (row-major q × q) and ln det of each pattern's covariance block; false when one is not
     /// positive definite.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static bool TryPatternInverses(MissingDataPatterns data, double[] sigma, out double[][] inverses, out double[] logDets)
     {
-        int p = data.Items, count = data.Patterns.Count;
+        int count = data.Patterns.Count;
         inverses = new double[count][];
         logDets = new double[count];
-        double[]? full = null;
-        double fullLogDet = double.NaN;
-        bool fullTried = false;
+        var inverter = new PatternInverter(data, sigma);
         for (int gi = 0; gi < count; gi++)
+            if (!inverter.TryInverse(gi, out inverses[gi], out logDets[gi])) return false;
+        return true;
+    }
+
+    /// <summary>One pattern's K = Σ_oo⁻¹ and ln|Σ_oo| at a time (so that the inverses of many patterns need not be held
+    /// at once), sharing the one inverse of the whole matrix.</summary>
+    internal sealed class PatternInverter(MissingDataPatterns data, double[] sigma)
+    {
+        private double[]? _full;
+        private double _fullLogDet = double.NaN;
+        private bool _fullTried;
+
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+        public bool TryInverse(int gi, out double[] inverse, out double logDet)
         {
+            int p = data.Items;
             var o = data.Patterns[gi].Observed;
             int q = o.Length, m = p - q;
-            if (m <= q && !fullTried)
+            if (m <= q && !_fullTried)
             {
-                fullTried = true;
-                if (SymmetricFactor.TryInvert(sigma, p, out var inv, out double ld)) (full, fullLogDet) = (inv, ld);
+                _fullTried = true;
+                if (SymmetricFactor.TryInvert(sigma, p, out var inv, out double ld)) (_full, _fullLogDet) = (inv, ld);
             }
-            if (m <= q && full is not null)
+            if (m <= q && _full is not null)
             {
-                if (m == 0) { inverses[gi] = full; logDets[gi] = fullLogDet; continue; }
-                if (FromFullInverse(full, p, o, out inverses[gi], out double ldmm)) { logDets[gi] = fullLogDet + ldmm; continue; }
+                if (m == 0) { (inverse, logDet) = (_full, _fullLogDet); return true; }
+                if (FromFullInverse(_full, p, o, out inverse, out double ldmm)) { logDet = _fullLogDet + ldmm; return true; }
             }
             var block = new double[q * q];
             for (int a = 0; a < q; a++)
                 for (int b = 0; b < q; b++) block[a * q + b] = sigma[o[a] * p + o[b]];
-            if (!SymmetricFactor.TryInvert(block, q, out inverses[gi], out logDets[gi])) return false;
+            return SymmetricFactor.TryInvert(block, q, out inverse, out logDet);
         }
-        return true;
     }
 
     /// <summary>Σ_oo⁻¹ = K_oo − K_om K_mm⁻¹ K_mo from K = Σ⁻¹ (p × p); also ln|K_mm|.</summary>

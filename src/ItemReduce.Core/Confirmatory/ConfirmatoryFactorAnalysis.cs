@@ -207,8 +207,7 @@ public static class ConfirmatoryFactorAnalysis
     {
         int p = model.Items, k = model.Factors, q = model.Parameters, qc = model.CovarianceParameters;
         var sigma = model.Sigma(theta);
-        var inverses = CasewiseLikelihood.PatternInverses(data, sigma);
-        if (inverses is null) return null;
+        var inverter = new CasewiseLikelihood.PatternInverter(data, sigma);
         int nv = 2 * k;
         var z = model.DerivativeVectors(theta);
         // Vector codes: j < p is e_j; p + v is non-unit vector v.
@@ -234,7 +233,7 @@ public static class ConfirmatoryFactorAnalysis
             var g = data.Patterns[gi];
             var o = g.Observed;
             int m = o.Length;
-            var kk = inverses[gi];
+            if (!inverter.TryInverse(gi, out var kk, out _)) return null;
             Array.Fill(pos, -1);
             for (int a = 0; a < m; a++) pos[o[a]] = a;
             // KZ (m × nv) and ZᵀKZ (nv × nv) over the answered items.

@@ -15,7 +15,8 @@ internal sealed class MissingDataPatterns
     /// <param name="Observed">0-based item positions answered, ascending.</param>
     /// <param name="Count">Respondents with this pattern.</param>
     /// <param name="Mean">Mean of the answered items (length = Observed.Length).</param>
-    /// <param name="Scatter">Σ (x − mean)(x − mean)ᵀ over the pattern's respondents, row-major q × q (not divided).</param>
+    /// <param name="Scatter">Σ (x − mean)(x − mean)ᵀ over the pattern's respondents, row-major q × q (not divided); empty
+    /// for a pattern of one respondent (whose scatter is zero), so read it only when <paramref name="Count"/> &gt; 1.</param>
     internal sealed record Pattern(int[] Observed, int Count, double[] Mean, double[] Scatter);
 
     private readonly ResponseMatrix _source;
@@ -131,7 +132,7 @@ internal sealed class MissingDataPatterns
         for (int g = 0; g < groups; g++)
         {
             means[g] = sums[g].Select(v => v / counts[g]).ToArray();
-            scatter[g] = new double[observed[g].Length * observed[g].Length];
+            scatter[g] = counts[g] > 1 ? new double[observed[g].Length * observed[g].Length] : [];
         }
         var d = new double[p];
         for (int r = 0; r < index.Count; r++)
@@ -156,8 +157,9 @@ internal sealed class MissingDataPatterns
         {
             int q = observed[g].Length;
             var w = scatter[g];
-            for (int a = 0; a < q; a++)
-                for (int b = 0; b < a; b++) w[b * q + a] = w[a * q + b];
+            if (w.Length > 0)
+                for (int a = 0; a < q; a++)
+                    for (int b = 0; b < a; b++) w[b * q + a] = w[a * q + b];
             patterns.Add(new Pattern(observed[g], counts[g], means[g], w));
         }
         return new MissingDataPatterns(data, items, patterns, [.. index], [.. patternOf]);

@@ -57,7 +57,7 @@ internal static class SaturatedNormalEm
             for (int a = 0; a < q; a++)
             {
                 double d = g.Mean[a] - mu[g.Observed[a]];
-                ss[g.Observed[a]] += g.Scatter[a * q + a] + g.Count * d * d;
+                ss[g.Observed[a]] += (g.Count > 1 ? g.Scatter[a * q + a] : 0) + g.Count * d * d;
             }
         }
         var sigma = new double[p * p];
