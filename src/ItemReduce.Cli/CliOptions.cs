@@ -59,7 +59,7 @@ internal sealed class CliOptions
             };
             string commands = s.Commands == Commands.All ? "all" : string.Join(", ",
                 new[] { Commands.Check, Commands.Screen, Commands.Dimensions, Commands.Shorten, Commands.Run }.Where(s.AppliesTo).Select(SettingsCatalog.CommandName));
-            string def = s.Kind == SettingKind.Flag ? "off" : DefaultText(s) ?? "—";
+            string def = s.Kind == SettingKind.Flag ? (s.Default is true ? "on" : "off") : DefaultText(s) ?? "—";
             string meaning = s.Help;
             if (s.Kind is SettingKind.Integer or SettingKind.Number or SettingKind.Targets) meaning += $" Allowed: {s.Allowed}.";
             sb.Append($"| `{name}` | {def} | {commands} | {meaning.Replace("|", "\\|", StringComparison.Ordinal)} |\n");

@@ -26,6 +26,9 @@ public static class ConfirmatoryFactorAnalysis
     /// <summary>Fisher-scoring iteration cap.</summary>
     public const int MaxIterations = 500;
 
+    /// <summary>Iterations that always use a freshly computed information matrix.</summary>
+    private const int RefreshedIterations = 3;
+
     /// <summary>Convergence: largest relative parameter step.</summary>
     public const double StepTolerance = 1e-10;
 
@@ -75,7 +78,7 @@ public static class ConfirmatoryFactorAnalysis
 
         var info = FisherInformation(model, patterns, theta);
         double[]? covariance = info is null ? null : InvertOrNull(info, model.Parameters);
-        var fit = Statistics(model, patterns, sigma, mu1, sigma1, sigma0, fModel - fSaturated, fIndependence - fSaturated, theta, robust);
+        var fit = Statistics(model, patterns, sigma, mu1, sigma1, sigma0, fModel - fSaturated, fIndependence - fSaturated, theta, robust, info);
         var estimates = new List<ConfirmatoryEstimate>();
         for (int j = 0; j < p; j++)
             estimates.Add(new ConfirmatoryEstimate(names[j], factorNames[itemFactor[j]], theta[j], Se(covariance, model.Parameters, j),
@@ -146,14 +149,26 @@ public static class ConfirmatoryFactorAnalysis
         var gm = new double[p];
         double f = CasewiseLikelihood.Minus2LogLikelihood(data, model.Mu(theta), model.Sigma(theta), gs, gm);
         if (double.IsNaN(f)) return (false, 0);
+        double[]? inverse = null;
+        bool refresh = true;
+        double previousLargest = double.PositiveInfinity;
         for (int it = 1; it <= MaxIterations; it++)
         {
             var grad = model.Gradient(theta, gs, gm);
-            var info = FisherInformation(model, data, theta);
-            if (info is null) return (false, it);
-            var step = SolveOrNull(info, q, grad);
-            if (step is null) return (false, it);
-            for (int i = 0; i < q; i++) step[i] *= -0.5;
+            if (refresh || inverse is null)
+            {
+                var info = FisherInformation(model, data, theta);
+                if (info is null) return (false, it);
+                inverse = InvertOrNull(info, q);
+                if (inverse is null) return (false, it);
+            }
+            var step = new double[q];
+            for (int i = 0; i < q; i++)
+            {
+                double v = 0;
+                for (int j = 0; j < q; j++) v += inverse[i * q + j] * grad[j];
+                step[i] = -0.5 * v;
+            }
             double slope = 0;
             for (int i = 0; i < q; i++) slope += grad[i] * step[i];
             double t = 1;
@@ -174,75 +189,101 @@ public static class ConfirmatoryFactorAnalysis
             Array.Copy(trial, theta, q);
             f = fTrial;
             if (largest < StepTolerance) return (true, it);
+            // The information changes little once θ is near the optimum: it is kept (a fixed metric, still a descent
+            // direction checked by the line search) while the steps shrink fast, and refreshed otherwise.
+            refresh = it < RefreshedIterations || t < 1 || largest > 0.5 * previousLargest;
+            previousLargest = largest;
         }
         return (false, MaxIterations);
     }
 
     /// <summary>Expected (Fisher) information of θ for ln L, summed over respondents (q × q, row-major), or null when a
-    /// covariance block is not positive definite. Every ∂Σ/∂θ is u wᵀ + w uᵀ (scaled), so each entry is a product of
-    /// the quadratic forms zᵀ K z' of a few vectors (our derivation from ½ tr(K ∂Σ_i K ∂Σ_j)).</summary>
+    /// covariance block is not positive definite. Every ∂Σ/∂θ is s (u wᵀ + w uᵀ) with u, w among the unit vectors e_j,
+    /// the k vectors c_f = Λ Φ e_f (∂Σ/∂λ_j uses e_j and c_f(j)) and the k columns of Λ, so each entry
+    /// ½ tr(K ∂Σ_i K ∂Σ_j) is a sum of products of the bilinear forms zᵀ K z' of those p + 2k vectors (our derivation);
+    /// per pattern that needs K itself and K times the 2k non-unit vectors, O(q²k).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double[]? FisherInformation(IndependentClustersModel model, MissingDataPatterns data, double[] theta)
     {
         int p = model.Items, k = model.Factors, q = model.Parameters, qc = model.CovarianceParameters;
         var sigma = model.Sigma(theta);
-        var inverses = CasewiseLikelihood.PatternInverses(data, sigma);
-        if (inverses is null) return null;
-        var phi = model.Phi(theta);
-        int nz = 2 * p + k;
-        // Vectors: e_j (j), c_j = Λ Φ e_f(j) (p + j), column a of Λ (2p + a).
-        var z = new double[nz * p];
-        for (int j = 0; j < p; j++)
-        {
-            z[j * p + j] = 1;
-            for (int l = 0; l < p; l++) z[(p + j) * p + l] = theta[l] * phi[model.ItemFactor[j] * k + model.ItemFactor[l]];
-        }
-        for (int l = 0; l < p; l++) z[(2 * p + model.ItemFactor[l]) * p + l] = theta[l];
+        var inverter = new CasewiseLikelihood.PatternInverter(data, sigma);
+        int nv = 2 * k;
+        var z = model.DerivativeVectors(theta);
+        // Vector codes: j < p is e_j; p + v is non-unit vector v.
+        int dim = p + nv;
+        var table = new double[dim * dim];
         var u = new int[qc];
         var w = new int[qc];
         var s = new double[qc];
         for (int j = 0; j < p; j++)
         {
-            (u[j], w[j], s[j]) = (j, p + j, 1);
+            (u[j], w[j], s[j]) = (j, p + model.ItemFactor[j], 1);
             (u[p + j], w[p + j], s[p + j]) = (j, j, 0.5);
         }
         for (int c = 0; c < model.Pairs.Length; c++)
-            (u[2 * p + c], w[2 * p + c], s[2 * p + c]) = (2 * p + model.Pairs[c].A, 2 * p + model.Pairs[c].B, 1);
+            (u[2 * p + c], w[2 * p + c], s[2 * p + c]) = (p + k + model.Pairs[c].A, p + k + model.Pairs[c].B, 1);
         var info = new double[q * q];
+        var pos = new int[p];
+        var kz = new double[p * nv];
+        var zkz = new double[nv * nv];
+        var active = new int[qc];
         for (int gi = 0; gi < data.Patterns.Count; gi++)
         {
             var g = data.Patterns[gi];
             var o = g.Observed;
             int m = o.Length;
-            var kk = inverses[gi];
-            // KZ (m × nz) then M = Zᵀ K Z (nz × nz).
-            var kz = new double[m * nz];
+            if (!inverter.TryInverse(gi, out var kk, out _)) return null;
+            Array.Fill(pos, -1);
+            for (int a = 0; a < m; a++) pos[o[a]] = a;
+            // KZ (m × nv) and ZᵀKZ (nv × nv) over the answered items.
+            Array.Clear(kz, 0, m * nv);
             for (int a = 0; a < m; a++)
                 for (int b = 0; b < m; b++)
                 {
                     double v = kk[a * m + b];
-                    int rowB = o[b];
-                    for (int c = 0; c < nz; c++) kz[a * nz + c] += v * z[c * p + rowB];
+                    int col = o[b];
+                    for (int c = 0; c < nv; c++) kz[a * nv + c] += v * z[c * p + col];
                 }
-            var mm = new double[nz * nz];
+            Array.Clear(zkz);
+            for (int a = 0; a < m; a++)
+                for (int c = 0; c < nv; c++)
+                {
+                    double zc = z[c * p + o[a]];
+                    if (zc == 0) continue;
+                    for (int d = 0; d < nv; d++) zkz[c * nv + d] += zc * kz[a * nv + d];
+                }
+            // Table of the bilinear forms: rows/columns 0..p−1 the unit vectors (zero when unanswered), p.. the others.
+            Array.Clear(table);
             for (int a = 0; a < m; a++)
             {
-                int row = o[a];
-                for (int c = 0; c < nz; c++)
+                int ra = o[a] * dim;
+                for (int b = 0; b < m; b++) table[ra + o[b]] = kk[a * m + b];
+                for (int c = 0; c < nv; c++)
                 {
-                    double zc = z[c * p + row];
-                    if (zc == 0) continue;
-                    for (int d = 0; d < nz; d++) mm[c * nz + d] += zc * kz[a * nz + d];
+                    double v = kz[a * nv + c];
+                    table[ra + p + c] = v;
+                    table[(p + c) * dim + o[a]] = v;
                 }
             }
-            double n = g.Count;
+            for (int c = 0; c < nv; c++)
+                for (int d = 0; d < nv; d++) table[(p + c) * dim + p + d] = zkz[c * nv + d];
+            // Parameters of unanswered items have zero derivative blocks here.
+            int na = 0;
             for (int i = 0; i < qc; i++)
-                for (int j = 0; j <= i; j++)
+                if ((u[i] >= p || pos[u[i]] >= 0) && (w[i] >= p || pos[w[i]] >= 0)) active[na++] = i;
+            double n = g.Count;
+            for (int x = 0; x < na; x++)
+            {
+                int i = active[x];
+                for (int y = 0; y <= x; y++)
                 {
-                    double v = n * s[i] * s[j] * (mm[w[i] * nz + u[j]] * mm[w[j] * nz + u[i]] + mm[w[i] * nz + w[j]] * mm[u[i] * nz + u[j]]);
+                    int j = active[y];
+                    double v = n * s[i] * s[j] * (table[w[i] * dim + u[j]] * table[w[j] * dim + u[i]] + table[w[i] * dim + w[j]] * table[u[i] * dim + u[j]]);
                     info[i * q + j] += v;
                     if (i != j) info[j * q + i] += v;
                 }
+            }
             for (int a = 0; a < m; a++)
                 for (int b = 0; b < m; b++) info[(qc + o[a]) * q + qc + o[b]] += n * kk[a * m + b];
         }
@@ -250,7 +291,7 @@ public static class ConfirmatoryFactorAnalysis
     }
 
     private static ConfirmatoryFitStatistics Statistics(IndependentClustersModel model, MissingDataPatterns data, double[] sigma,
-        double[] mu1, double[] sigma1, double[] sigma0, double chi2, double chi20, double[] theta, bool robust)
+        double[] mu1, double[] sigma1, double[] sigma0, double chi2, double chi20, double[] theta, bool robust, double[]? information)
     {
         int p = model.Items, n = data.Respondents, ps = p * (p + 1) / 2;
         int df = ps - model.CovarianceParameters, df0 = ps - p;
@@ -268,13 +309,10 @@ public static class ConfirmatoryFactorAnalysis
             }
         srmr = Math.Sqrt(srmr / ps);
         double c = double.NaN, c0 = double.NaN;
+        int robustRespondents = 0;
         if (robust && df > 0)
         {
-            var root = SatorraBentlerScaling.ScaledGamma(data, mu1, sigma1);
-            c = SatorraBentlerScaling.Factor(data, sigma, model.CovarianceJacobian(theta), model.CovarianceParameters, root, df);
-            var jac0 = new double[ps * p];
-            for (int j = 0; j < p; j++) jac0[(j * (j + 1) / 2 + j) * p + j] = 1;
-            c0 = SatorraBentlerScaling.Factor(data, sigma0, jac0, p, root, df0);
+            (c, c0, robustRespondents) = SatorraBentlerScaling.Factors(data, model, theta, sigma, mu1, sigma1, sigma0, df, df0, information);
         }
         double robustRmsea = df > 0 ? Math.Sqrt(Math.Max(chi2 - c * df, 0) / (df * (double)n)) : double.NaN;
         double rc = chi2 - c * df, rc0 = chi20 - c0 * df0;
@@ -282,7 +320,7 @@ public static class ConfirmatoryFactorAnalysis
         double robustCfi = denominator > 0 ? 1 - Math.Max(rc, 0) / denominator : double.NaN;
         double robustTli = df > 0 && rc0 != 0 ? 1 - (rc / df) / (rc0 / df0) : double.NaN;
         return new ConfirmatoryFitStatistics(chi2, df, pValue, cfi, tli, rmsea, lo, hi, srmr, chi2 / c, c, robustCfi, robustTli,
-            robustRmsea, chi20, df0, c0);
+            robustRmsea, chi20, df0, c0, robustRespondents);
     }
 
     /// <summary>CFI = 1 − max(χ²−df, 0)/max(χ²₀−df₀, χ²−df, 0); NaN when the denominator is 0 or df ≤ 0.</summary>

@@ -30,10 +30,12 @@ public enum ConfirmatoryEstimator
 /// <param name="IndependenceChi2">χ²₀ of the independence model.</param>
 /// <param name="IndependenceDf">df₀ = p(p−1)/2.</param>
 /// <param name="IndependenceScalingFactor">c₀.</param>
+/// <param name="RobustRespondents">Respondents the scaling factors c and c₀ were computed from: all of them up to
+/// <see cref="SatorraBentlerScaling.RowCap"/>, otherwise that many evenly spaced ones (0 when not computed).</param>
 public sealed record ConfirmatoryFitStatistics(
     double Chi2, int Df, double PValue, double Cfi, double Tli, double Rmsea, double RmseaLow, double RmseaHigh, double Srmr,
     double ScaledChi2, double ScalingFactor, double RobustCfi, double RobustTli, double RobustRmsea,
-    double IndependenceChi2, int IndependenceDf, double IndependenceScalingFactor);
+    double IndependenceChi2, int IndependenceDf, double IndependenceScalingFactor, int RobustRespondents);
 
 /// <summary>One estimated parameter: a loading (<see cref="Item"/> set) or a factor correlation (<see cref="Item"/> null,
 /// <see cref="Factor"/> "A~B").</summary>

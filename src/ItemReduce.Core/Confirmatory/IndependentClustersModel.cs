@@ -60,6 +60,19 @@ internal sealed class IndependentClustersModel
         return s;
     }
 
+    /// <summary>The 2k non-unit vectors of the derivatives ∂Σ/∂θ (row-major 2k × p): c_f = Λ Φ e_f in row f
+    /// (∂Σ/∂λ_j = e_j c_f(j)ᵀ + c_f(j) e_jᵀ) and column a of Λ in row k + a (∂Σ/∂φ_ab = Λ_a Λ_bᵀ + Λ_b Λ_aᵀ).</summary>
+    public double[] DerivativeVectors(double[] theta)
+    {
+        int p = Items, k = Factors;
+        var phi = Phi(theta);
+        var z = new double[2 * k * p];
+        for (int f = 0; f < k; f++)
+            for (int l = 0; l < p; l++) z[f * p + l] = theta[l] * phi[f * k + ItemFactor[l]];
+        for (int l = 0; l < p; l++) z[(k + ItemFactor[l]) * p + l] = theta[l];
+        return z;
+    }
+
     /// <summary>Means (p).</summary>
     public double[] Mu(double[] theta) => theta.AsSpan(CovarianceParameters, Items).ToArray();
 

@@ -11,7 +11,13 @@ namespace ItemReduce.Core.Confirmatory;
 /// </summary>
 internal static class NormalInformation
 {
-    /// <summary>Σ over respondents of the expected information of σ (p* × p*, row-major), at <paramref name="sigma"/>.</summary>
+    /// <summary>Σ over respondents of the expected information of σ (p* × p*, row-major, full symmetric), at
+    /// <paramref name="sigma"/>. Entry (ab),(cd) of one respondent is s_ab s_cd (K_ac K_bd + K_ad K_bc) =: 𝒲(K).
+    /// Patterns with at most <see cref="ClosedFormMissing"/> unanswered items are summed in closed form from K = Σ⁻¹:
+    /// their padded inverse is K − V_g V_gᵀ (V_g V_gᵀ = K_·m K_mm⁻¹ K_m·, the partitioned inverse), and 𝒲 is quadratic,
+    /// so Σ n_g 𝒲(K − V_g V_gᵀ) = n·𝒲(K) − 𝒳(K, Q) + Σ n_g 𝒲(V_g V_gᵀ) with Q = Σ n_g V_g V_gᵀ, 𝒳 the bilinear cross term
+    /// s_ab s_cd (K_ac Q_bd + Q_ac K_bd + K_ad Q_bc + Q_ad K_bc), and each 𝒲(V_g V_gᵀ) a sum of m(m+1)/2 rank-one terms
+    /// (our derivation). Other patterns are added entry by entry.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double[] ExpectedCovarianceBlock(MissingDataPatterns data, double[] sigma)
     {
@@ -19,86 +25,151 @@ internal static class NormalInformation
         var info = new double[ps * ps];
         var inverses = CasewiseLikelihood.PatternInverses(data, sigma)
             ?? throw new LinearAlgebra.MatrixNotPositiveDefiniteException("A covariance block is not positive definite.");
+        var direct = new List<int>();
+        var rankOne = new List<(double Weight, double[] Omega)>();
+        double nClosed = 0;
+        var q = new double[p * p];
+        if (SymmetricFactor.TryInvert(sigma, p, out var k, out _))
+        {
+            for (int gi = 0; gi < data.Patterns.Count; gi++)
+            {
+                var g = data.Patterns[gi];
+                int m = p - g.Observed.Length;
+                if (m > ClosedFormMissing) { direct.Add(gi); continue; }
+                nClosed += g.Count;
+                if (m == 0) continue;
+                var v = MissingRows(k, p, g.Observed);
+                if (v is null) { direct.Add(gi); nClosed -= g.Count; continue; }
+                for (int t = 0; t < m; t++)
+                    for (int a = 0; a < p; a++)
+                        for (int b = 0; b < p; b++) q[a * p + b] += g.Count * v[t * p + a] * v[t * p + b];
+                // 𝒲(V Vᵀ) = Σ_{t<u} ω^{tu} ω^{tuᵀ} + ½ Σ_t ω^{tt} ω^{ttᵀ}, ω^{tu}_(ab) = s_ab (v_ta v_ub + v_ua v_tb).
+                for (int t = 0; t < m; t++)
+                    for (int u2 = t; u2 < m; u2++)
+                    {
+                        var omega = new double[ps];
+                        for (int a = 0, r = 0; a < p; a++)
+                            for (int b = 0; b <= a; b++, r++)
+                                omega[r] = (a == b ? 0.5 : 1.0) * (v[t * p + a] * v[u2 * p + b] + v[u2 * p + a] * v[t * p + b]);
+                        rankOne.Add((g.Count * (t == u2 ? 0.5 : 1.0), omega));
+                    }
+            }
+            // n 𝒲(K) − 𝒳(K, Q): with P = n K − Q, the row (ab) over (cd), fixed c, is
+            // s_ab s_cd (K_ac P_b· + K_bc P_a· − Q_ac K_b· − Q_bc K_a·).
+            var pm = new double[p * p];
+            for (int e = 0; e < p * p; e++) pm[e] = nClosed * k[e] - q[e];
+            for (int a = 0; a < p; a++)
+                for (int b = 0; b <= a; b++)
+                {
+                    int row = (a * (a + 1) / 2 + b) * ps;
+                    double sab = a == b ? 0.5 : 1.0;
+                    for (int c = 0; c <= a; c++)
+                    {
+                        double kac = k[a * p + c], kbc = k[b * p + c], qac = q[a * p + c], qbc = q[b * p + c];
+                        int len = c == a ? b + 1 : c + 1;
+                        var y = info.AsSpan(row + c * (c + 1) / 2, len);
+                        LinearAlgebra.VectorKernels.Rank2Row(-sab * kac, pm.AsSpan(b * p, len), -sab * kbc, pm.AsSpan(a * p, len), y);
+                        LinearAlgebra.VectorKernels.Rank2Row(sab * qac, k.AsSpan(b * p, len), sab * qbc, k.AsSpan(a * p, len), y);
+                        if (len == c + 1) y[c] -= 0.5 * sab * (kac * pm[b * p + c] + kbc * pm[a * p + c] - qac * kbc - qbc * kac);
+                    }
+                }
+            for (int r = 0; r < ps; r++)
+            {
+                var y = info.AsSpan(r * ps, r + 1);
+                foreach (var (weight, omega) in rankOne)
+                    if (omega[r] != 0) LinearAlgebra.VectorKernels.Axpy(weight * omega[r], omega.AsSpan(0, r + 1), y);
+            }
+        }
+        else direct.AddRange(Enumerable.Range(0, data.Patterns.Count));
         var kf = new double[p * p];
-        for (int gi = 0; gi < data.Patterns.Count; gi++)
+        var answered = new bool[p];
+        foreach (int gi in direct)
         {
             var g = data.Patterns[gi];
             var o = g.Observed;
-            int q = o.Length;
+            int qn = o.Length;
             Array.Clear(kf);
-            for (int a = 0; a < q; a++)
-                for (int b = 0; b < q; b++) kf[o[a] * p + o[b]] = inverses[gi][a * q + b];
-            // vech positions whose two items are both answered.
-            int count = q * (q + 1) / 2, t = 0;
-            var pr = new int[count];
-            var pa = new int[count];
-            var pb = new int[count];
-            var psc = new double[count];
-            for (int a = 0; a < q; a++)
-                for (int b = 0; b <= a; b++, t++)
-                {
-                    int ia = o[a], ib = o[b];
-                    (pr[t], pa[t], pb[t], psc[t]) = (ia * (ia + 1) / 2 + ib, ia * p, ib * p, ia == ib ? 0.5 : 1.0);
-                }
-            double n = g.Count;
-            for (int x = 0; x < count; x++)
+            Array.Clear(answered);
+            var kg = inverses[gi];
+            for (int a = 0; a < qn; a++)
             {
-                int rowOffset = pr[x] * ps, a = pa[x], b = pb[x];
-                double s1 = n * psc[x];
-                for (int y = 0; y <= x; y++)
+                answered[o[a]] = true;
+                for (int b = 0; b < qn; b++) kf[o[a] * p + o[b]] = kg[a * qn + b];
+            }
+            double n = g.Count;
+            for (int a = 0; a < p; a++)
+            {
+                if (!answered[a]) continue;
+                for (int b = 0; b <= a; b++)
                 {
-                    int c = pa[y] / p, d = pb[y] / p;
-                    double v = s1 * psc[y] * (kf[a + c] * kf[b + d] + kf[a + d] * kf[b + c]);
-                    info[rowOffset + pr[y]] += v;
-                    if (y != x) info[pr[y] * ps + pr[x]] += v;
+                    if (!answered[b]) continue;
+                    int row = (a * (a + 1) / 2 + b) * ps;
+                    double scale = n * (a == b ? 0.5 : 1.0);
+                    for (int c = 0; c <= a; c++)
+                    {
+                        if (!answered[c]) continue;
+                        double kac = kf[a * p + c], kbc = kf[b * p + c];
+                        int len = c == a ? b + 1 : c + 1;
+                        var y = info.AsSpan(row + c * (c + 1) / 2, len);
+                        LinearAlgebra.VectorKernels.Rank2Row(-scale * kac, kf.AsSpan(b * p, len), -scale * kbc, kf.AsSpan(a * p, len), y);
+                        if (len == c + 1) y[c] -= scale * kac * kbc;
+                    }
                 }
             }
         }
+        for (int r = 0; r < ps; r++)
+            for (int c = 0; c < r; c++) info[c * ps + r] = info[r * ps + c];
         return info;
     }
 
-    /// <summary>Casewise scores of σ at (<paramref name="mu"/>, <paramref name="sigma"/>): row-major N × p*.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    public static double[] CovarianceScores(MissingDataPatterns data, double[] mu, double[] sigma)
+    /// <summary>Patterns with at most this many unanswered items use the closed form.</summary>
+    private const int ClosedFormMissing = 4;
+
+    /// <summary>V (m × p, row-major) with V Vᵀ = K_·m K_mm⁻¹ K_m· for the unanswered items m: V = L⁻¹ K_m· with
+    /// K_mm = L Lᵀ; null when K_mm is not positive definite.</summary>
+    private static double[]? MissingRows(double[] k, int p, int[] observed)
     {
-        int p = data.Items, ps = p * (p + 1) / 2, n = data.Respondents;
-        var scores = new double[(long)n * ps];
-        var inverses = CasewiseLikelihood.PatternInverses(data, sigma)
-            ?? throw new LinearAlgebra.MatrixNotPositiveDefiniteException("A covariance block is not positive definite.");
-        // Rows of each pattern: the pattern list is in order of first appearance; find each row's pattern by its answers.
-        var patternOf = new Dictionary<string, int>(StringComparer.Ordinal);
-        for (int gi = 0; gi < data.Patterns.Count; gi++) patternOf[Key(data.Patterns[gi].Observed, p)] = gi;
-        var key = new char[p];
-        for (int i = 0; i < n; i++)
-        {
-            for (int a = 0; a < p; a++) key[a] = double.IsNaN(data.Rows[i * p + a]) ? '0' : '1';
-            int gi = patternOf[new string(key)];
-            var o = data.Patterns[gi].Observed;
-            var k = inverses[gi];
-            int q = o.Length;
-            var kr = new double[q];
-            for (int a = 0; a < q; a++)
+        int q = observed.Length, m = p - q;
+        var missing = MissingDataPatterns.Unanswered(observed, p);
+        var l = new double[m * m];
+        for (int i = 0; i < m; i++)
+            for (int j = 0; j < m; j++) l[i * m + j] = k[missing[i] * p + missing[j]];
+        try { LinearAlgebra.CholeskyDecomposition.FactorInPlace(l, m); }
+        catch (LinearAlgebra.MatrixNotPositiveDefiniteException) { return null; }
+        var v = new double[m * p];
+        for (int t = 0; t < m; t++)
+            for (int a = 0; a < p; a++)
             {
-                double s = 0;
-                for (int b = 0; b < q; b++) s += k[a * q + b] * (data.Rows[i * p + o[b]] - mu[o[b]]);
-                kr[a] = s;
+                double s = k[missing[t] * p + a];
+                for (int u = 0; u < t; u++) s -= l[t * m + u] * v[u * p + a];
+                v[t * p + a] = s / l[t * m + t];
             }
-            long row = (long)i * ps;
-            for (int a = 0; a < q; a++)
-                for (int b = 0; b <= a; b++)
-                {
-                    double m = 0.5 * (kr[a] * kr[b] - k[a * q + b]);
-                    int ia = o[a], ib = o[b];
-                    scores[row + ia * (ia + 1) / 2 + ib] = ia == ib ? m : 2 * m;
-                }
-        }
-        return scores;
+        return v;
     }
 
-    private static string Key(int[] observed, int p)
+    /// <summary>Casewise score of σ of one respondent (answers <paramref name="row"/>, p values, NaN = missing) in the
+    /// pattern with answered items <paramref name="observed"/> and K = Σ_oo⁻¹ <paramref name="k"/>, at mean
+    /// <paramref name="mu"/>: written into <paramref name="score"/> (p*, zero outside the answered pairs);
+    /// <paramref name="kr"/> is scratch (≥ q).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    public static void CovarianceScore(ReadOnlySpan<double> row, int[] observed, double[] k, double[] mu, Span<double> score, Span<double> kr)
     {
-        var c = Enumerable.Repeat('0', p).ToArray();
-        foreach (int a in observed) c[a] = '1';
-        return new string(c);
+        int q = observed.Length;
+        score.Clear();
+        for (int a = 0; a < q; a++)
+        {
+            double s = 0;
+            for (int b = 0; b < q; b++) s += k[a * q + b] * (row[observed[b]] - mu[observed[b]]);
+            kr[a] = s;
+        }
+        for (int a = 0; a < q; a++)
+        {
+            int ia = observed[a], offset = ia * (ia + 1) / 2;
+            for (int b = 0; b <= a; b++)
+            {
+                double m = 0.5 * (kr[a] * kr[b] - k[a * q + b]);
+                score[offset + observed[b]] = a == b ? m : 2 * m;
+            }
+        }
     }
 }

@@ -57,7 +57,7 @@ internal static class SaturatedNormalEm
             for (int a = 0; a < q; a++)
             {
                 double d = g.Mean[a] - mu[g.Observed[a]];
-                ss[g.Observed[a]] += g.Scatter[a * q + a] + g.Count * d * d;
+                ss[g.Observed[a]] += (g.Count > 1 ? g.Scatter[a * q + a] : 0) + g.Count * d * d;
             }
         }
         var sigma = new double[p * p];
@@ -72,23 +72,28 @@ internal static class SaturatedNormalEm
         int p = data.Items;
         var t1 = new double[p];
         var t2 = new double[p * p];
-        var inverses = CasewiseLikelihood.PatternInverses(data, sigma)
-            ?? throw new LinearAlgebra.MatrixNotPositiveDefiniteException("The covariance matrix of the saturated model is not positive definite.");
+        // The regression of the unanswered on the answered items and its residual covariance come from Σ⁻¹ = K by the
+        // partitioned inverse: B = Σ_mo Σ_oo⁻¹ = −K_mm⁻¹ K_mo, C = Σ_mm − B Σ_om = K_mm⁻¹.
+        if (!SymmetricFactor.TryInvert(sigma, p, out var kFull, out _))
+            throw new LinearAlgebra.MatrixNotPositiveDefiniteException("The covariance matrix of the saturated model is not positive definite.");
         for (int gi = 0; gi < data.Patterns.Count; gi++)
         {
             var g = data.Patterns[gi];
             var o = g.Observed;
-            int q = o.Length, n = g.Count;
-            var k = inverses[gi];
-            var missing = Enumerable.Range(0, p).Except(o).ToArray();
-            int m = missing.Length;
-            // Regression of the missing on the observed items: B = Σ_mo K (m × q); conditional covariance C = Σ_mm − B Σ_om.
+            int q = o.Length, n = g.Count, m = p - q;
+            var missing = MissingDataPatterns.Unanswered(o, p);
+            var kmm = new double[m * m];
+            for (int i = 0; i < m; i++)
+                for (int j = 0; j < m; j++) kmm[i * m + j] = kFull[missing[i] * p + missing[j]];
+            double[] condCov = [];
+            if (m > 0 && !SymmetricFactor.TryInvert(kmm, m, out condCov, out _))
+                throw new LinearAlgebra.MatrixNotPositiveDefiniteException("The covariance matrix of the saturated model is not positive definite.");
             var bmat = new double[m * q];
             for (int i = 0; i < m; i++)
                 for (int a = 0; a < q; a++)
                 {
                     double s = 0;
-                    for (int c = 0; c < q; c++) s += sigma[missing[i] * p + o[c]] * k[c * q + a];
+                    for (int j = 0; j < m; j++) s -= condCov[i * m + j] * kFull[missing[j] * p + o[a]];
                     bmat[i * q + a] = s;
                 }
             // Filled-in mean of the pattern and the deviations' scatter [[W, W Bᵀ], [B W, B W Bᵀ]].
@@ -100,19 +105,22 @@ internal static class SaturatedNormalEm
                 for (int a = 0; a < q; a++) s += bmat[i * q + a] * (g.Mean[a] - mu[o[a]]);
                 full[missing[i]] = s;
             }
+            // W Bᵀ (zero for a pattern of one respondent, whose scatter is zero).
             var wbt = new double[q * m];
-            for (int a = 0; a < q; a++)
-                for (int i = 0; i < m; i++)
-                {
-                    double s = 0;
-                    for (int c = 0; c < q; c++) s += g.Scatter[a * q + c] * bmat[i * q + c];
-                    wbt[a * m + i] = s;
-                }
+            if (n > 1)
+                for (int a = 0; a < q; a++)
+                    for (int i = 0; i < m; i++)
+                    {
+                        double s = 0;
+                        for (int c = 0; c < q; c++) s += g.Scatter[a * q + c] * bmat[i * q + c];
+                        wbt[a * m + i] = s;
+                    }
             for (int a = 0; a < p; a++) t1[a] += n * full[a];
             for (int a = 0; a < p; a++)
-                for (int b = 0; b < p; b++) t2[a * p + b] += n * full[a] * full[b];
-            for (int a = 0; a < q; a++)
-                for (int c = 0; c < q; c++) t2[o[a] * p + o[c]] += g.Scatter[a * q + c];
+                LinearAlgebra.VectorKernels.Axpy(n * full[a], full, t2.AsSpan(a * p, p));
+            if (n > 1)
+                for (int a = 0; a < q; a++)
+                    for (int c = 0; c < q; c++) t2[o[a] * p + o[c]] += g.Scatter[a * q + c];
             for (int a = 0; a < q; a++)
                 for (int i = 0; i < m; i++)
                 {
@@ -124,9 +132,7 @@ internal static class SaturatedNormalEm
                 {
                     double bwb = 0;
                     for (int a = 0; a < q; a++) bwb += bmat[i * q + a] * wbt[a * m + j];
-                    double cond = sigma[missing[i] * p + missing[j]];
-                    for (int a = 0; a < q; a++) cond -= bmat[i * q + a] * sigma[o[a] * p + missing[j]];
-                    t2[missing[i] * p + missing[j]] += bwb + n * cond;
+                    t2[missing[i] * p + missing[j]] += bwb + n * condCov[i * m + j];
                 }
         }
         return (t1, t2);

@@ -32,7 +32,7 @@ public static partial class AppendixBuilder
                        : "; no respondent in these fits had a missing answer.") +
                " Standard errors come from the expected information. Because Likert answers are not normal, a scaled χ² with robust CFI, TLI and RMSEA is reported as well " +
                (fiml ? "(the Yuan–Bentler correction for incomplete data, Yuan & Bentler, 2000)." : "(the Satorra–Bentler correction, Satorra & Bentler, 1994)."));
-        b.Para(SamplesSentence(r, c));
+        b.Para(SamplesSentence(r, c) + SubsampleSentence(fitted));
         if (fitted.Count > 0)
         {
             var rows = fitted.Select(f =>
@@ -40,19 +40,30 @@ public static partial class AppendixBuilder
                 var x = f.Result!.Fit;
                 return new TableRow(
                 [
-                    ConfirmatoryTables.FormName(f.Form), ConfirmatoryTables.SampleName(f.Sample), Integer(f.Result.Respondents),
+                    ConfirmatoryTables.FormName(f.Form), ConfirmatoryTables.SampleName(f.Sample),
                     Inv($"{Fixed(x.Chi2, 1)} ({x.Df})"), Cell(x.Cfi), Cell(x.Tli),
                     double.IsFinite(x.Rmsea) ? Inv($"{Cell(x.Rmsea)} [{Cell(x.RmseaLow)}, {Cell(x.RmseaHigh)}]") : "—",
                     Cell(x.Srmr),
-                    double.IsFinite(x.ScaledChi2) ? Inv($"{Fixed(x.ScaledChi2, 1)} ({Fixed(x.ScalingFactor, 2)})") : "—",
-                    Cell(x.RobustCfi), Cell(x.RobustRmsea),
-                ], f.Form == ScaleForm.Short ? RowMark.Highlighted : RowMark.None);
+                ]);
             }).ToList();
             b.Table("Fit of the confirmatory models",
-                [new("Form"), new("Sample"), new("n", ColumnAlignment.Right), new("χ² (df)", ColumnAlignment.Right), new("CFI", ColumnAlignment.Right),
-                 new("TLI", ColumnAlignment.Right), new("RMSEA [90% CI]", ColumnAlignment.Center), new("SRMR", ColumnAlignment.Right),
-                 new("Scaled χ² (c)", ColumnAlignment.Right), new("Robust CFI", ColumnAlignment.Right), new("Robust RMSEA", ColumnAlignment.Right)],
-                rows, "χ² is −2 log-likelihood against the unrestricted model; c is the scaling factor of the robust χ². Definitions: README, section on confirmatory fit.");
+                [new("Form"), new("Sample"), new("χ² (df)", ColumnAlignment.Right), new("CFI", ColumnAlignment.Right),
+                 new("TLI", ColumnAlignment.Right), new("RMSEA [90% CI]", ColumnAlignment.Center), new("SRMR", ColumnAlignment.Right)],
+                rows, "χ² is −2 log-likelihood against the unrestricted model; the respondents of each sample are counted in the text. Definitions: README, section on confirmatory fit.");
+            var robustRows = fitted.Select(f =>
+            {
+                var x = f.Result!.Fit;
+                return new TableRow(
+                [
+                    ConfirmatoryTables.FormName(f.Form), ConfirmatoryTables.SampleName(f.Sample),
+                    double.IsFinite(x.ScaledChi2) ? Inv($"{Fixed(x.ScaledChi2, 1)} ({Fixed(x.ScalingFactor, 2)})") : "—",
+                    Cell(x.RobustCfi), Cell(x.RobustTli), Cell(x.RobustRmsea),
+                ]);
+            }).ToList();
+            b.Table("Robust fit of the confirmatory models",
+                [new("Form"), new("Sample"), new("Scaled χ² (c)", ColumnAlignment.Right), new("Robust CFI", ColumnAlignment.Right),
+                 new("Robust TLI", ColumnAlignment.Right), new("Robust RMSEA", ColumnAlignment.Right)],
+                robustRows, "c is the scaling factor of the robust χ² (scaled χ² = χ²/c); robust CFI, TLI and RMSEA use χ² − c·df. Definitions: README, section on confirmatory fit.");
             b.Para(RulesOfThumb);
             LoadingTable(b, r, c);
         }
@@ -69,6 +80,15 @@ public static partial class AppendixBuilder
 
     /// <summary>Three decimals, without the leading zero only when |v| ≤ 1 (RMSEA and SRMR can exceed 1 on degenerate data).</summary>
     private static string Cell(double v) => !double.IsFinite(v) ? "—" : Math.Abs(v) <= 1 ? Bounded(v, 3) : Fixed(v, 3);
+
+    /// <summary>Says when the robust scaling factor came from evenly spaced respondents (more than the row cap in a sample).</summary>
+    private static string SubsampleSentence(IReadOnlyList<ConfirmatoryFormFit> fitted)
+    {
+        var capped = fitted.Where(f => f.Result!.Fit.RobustRespondents > 0 && f.Result.Fit.RobustRespondents < f.Result.Respondents).ToList();
+        if (capped.Count == 0) return "";
+        return Inv($" The scaling factor of the robust χ² was computed from {SatorraBentlerScaling.RowCap:N0} evenly spaced respondents of each sample larger than that ") +
+               "(every other estimate uses all respondents of the sample).";
+    }
 
     /// <summary>Which respondents each estimate came from, with counts, and why the forms' n differ.</summary>
     private static string SamplesSentence(PipelineResult r, ConfirmatoryCheckResult c)
@@ -108,11 +128,11 @@ public static partial class AppendixBuilder
         foreach (var f in any.Factors)
             foreach (var item in (full ?? shortR)!.Estimates.Where(e => e.Item is not null && e.Factor == f).Select(e => e.Item!))
                 rows.Add(new TableRow([f, item, Shorten(text.GetValueOrDefault(item, "")), Std(full, item), Std(shortR, item)],
-                    shortR?.Estimates.Any(e => e.Item == item) == true ? RowMark.Highlighted : RowMark.None));
+                    RowMark.None));
         var correlations = (shortR ?? full)!.Estimates.Where(e => e.Item is null).Select(e => Inv($"{e.Factor.Replace("~", "–")} {Loading(e.Estimate)}")).ToList();
         b.Table(Inv($"Standardized loadings of the confirmatory models ({ConfirmatoryTables.SampleName(sample)} sample)"),
             [new("Scale"), new("Item"), new("Wording"), new("Full form", ColumnAlignment.Right), new("Short form", ColumnAlignment.Right)],
-            rows, correlations.Count > 0 ? $"Factor correlations ({(shortR is null ? "full" : "short")} form): {string.Join("; ", correlations)}. Highlighted rows are short-form items." : "Highlighted rows are short-form items.");
+            rows, correlations.Count > 0 ? $"Factor correlations ({(shortR is null ? "full" : "short")} form): {string.Join("; ", correlations)}. Short-form items are those with a short-form loading." : "Short-form items are those with a short-form loading.");
     }
 
     /// <summary>Wording cut at a word boundary to at most <see cref="WordingLength"/> characters, with an ellipsis.</summary>

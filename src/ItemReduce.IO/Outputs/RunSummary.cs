@@ -30,6 +30,7 @@ public static class RunSummary
         if (summary["factors"] is JsonObject f && f["byRule"] is JsonObject) blocks.Add(Dimensions(f));
         if (summary["fit"] is JsonObject fit) blocks.Add(Fit(fit));
         if (summary["shortForm"] is JsonObject sf) blocks.Add(ShortForm(sf));
+        if (summary["confirmatory"] is JsonObject cfa && Confirmatory(cfa) is { } block) blocks.Add(block);
         if (summary["selfCheck"] is JsonObject check) blocks.Add(SelfCheck(check));
         blocks.Add(Outputs(outDir, files));
         return blocks;
@@ -108,6 +109,30 @@ public static class RunSummary
         var lines = new List<string> { $"{kept} items kept." };
         if (sf["caution"]?.GetValue<string>() is { } caution) lines.Add(caution);
         return new SummaryBlock("Short form", ["scale", "kept items", $"α ({arrow})", $"ω ({arrow})"], rows, lines);
+    }
+
+    /// <summary>Fit of the confirmatory models (short form first, holdout before analysis sample), with the rules of
+    /// thumb and their caution; null when no model was fitted.</summary>
+    private static SummaryBlock? Confirmatory(JsonObject cfa)
+    {
+        var fits = (cfa["fits"] as JsonArray ?? []).OfType<JsonObject>()
+            .Where(f => f["fitted"]?.GetValue<bool>() == true && f["statistics"] is JsonObject)
+            .OrderBy(f => f["form"]!.GetValue<string>() == "short" ? 0 : 1)
+            .ThenBy(f => f["sample"]!.GetValue<string>() == "holdout" ? 0 : 1).ToList();
+        if (fits.Count == 0) return null;
+        var rows = fits.Select(f =>
+        {
+            var st = (JsonObject)f["statistics"]!;
+            return (IReadOnlyList<string>)new[]
+            {
+                f["form"]!.GetValue<string>(), f["sample"]!.GetValue<string>(), Int(f["respondents"]),
+                Num(st["cfi"], 3), Num(st["rmsea"], 3), Num(st["srmr"], 3),
+            };
+        }).ToList();
+        var lines = new List<string> { "Rules of thumb, not pass/fail tests (Hu & Bentler, 1999): CFI near .95 or above, RMSEA near .06 or below, SRMR near .08 or below." };
+        if (fits.All(f => f["sample"]!.GetValue<string>() == "analysis"))
+            lines.Add(Core.Confirmatory.ConfirmatoryCheck.OptimismCaution);
+        return new SummaryBlock("Confirmatory fit", ["form", "sample", "respondents", "CFI", "RMSEA", "SRMR"], rows, lines);
     }
 
     private static SummaryBlock Outputs(string outDir, IReadOnlyCollection<string> files)

@@ -243,6 +243,7 @@ public static class SummaryJson
                 ["rmseaCi90"] = Nums([x.RmseaLow, x.RmseaHigh]), ["srmr"] = Num(x.Srmr), ["scaledChi2"] = Num(x.ScaledChi2),
                 ["scalingFactor"] = Num(x.ScalingFactor), ["robustCfi"] = Num(x.RobustCfi), ["robustTli"] = Num(x.RobustTli),
                 ["robustRmsea"] = Num(x.RobustRmsea), ["independenceChi2"] = Num(x.IndependenceChi2), ["independenceDf"] = x.IndependenceDf,
+                ["robustRespondents"] = x.RobustRespondents,
             } : null,
             ["compositeReliability"] = f.Result is { } r1
                 ? new JsonObject(r1.Factors.Select((name, k) => KeyValuePair.Create(name, Num(r1.CompositeReliability[k])))) : null,

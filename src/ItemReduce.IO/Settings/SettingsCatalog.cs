@@ -233,8 +233,8 @@ public static class SettingsCatalog
         new()
         {
             Name = "confirmatory", Kind = SettingKind.Flag, Commands = Commands.Shorten | Commands.Run, Concerns = Concerns.Pipeline, Group = ShortFormGroup,
-            Default = false, Example = "true",
-            Help = "Fit the full and short forms as confirmatory factor models (ML; casewise ML with missing answers) and report fit, loadings and composite reliability. Off by default: on wide banks it still costs several times the rest of the run.",
+            Default = true, Example = "false",
+            Help = "Fit the full and short forms as confirmatory factor models (ML; casewise ML with missing answers) and report fit, loadings and composite reliability. On by default; --confirmatory false leaves the check out.",
         },
 
         // Appendix

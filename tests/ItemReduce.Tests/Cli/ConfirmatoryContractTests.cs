@@ -35,6 +35,23 @@ public class ConfirmatoryContractTests : IClassFixture<PipelineContractTests.Run
     }
 
     [Fact]
+    public void End_of_run_summary_shows_the_short_form_fit_on_the_holdout_first()
+    {
+        Assert.True(_run.Result.Code == 0, _run.Result.Err);
+        var lines = _run.Result.Out.Split('\n').Select(l => l.Trim()).ToList();
+        int at = lines.IndexOf("Confirmatory fit");
+        Assert.True(at >= 0, _run.Result.Out);
+        Assert.Equal(["form", "sample", "respondents", "CFI", "RMSEA", "SRMR"], lines[at + 1].Split(' ', StringSplitOptions.RemoveEmptyEntries));
+        // The first row is the short form on the holdout, with the values of confirmatory-fit.csv rounded to 3 decimals.
+        var row = lines[at + 2].Split(' ', StringSplitOptions.RemoveEmptyEntries);
+        var csv = Lines("confirmatory-fit.csv").Single(l => l.StartsWith("short,holdout,", StringComparison.Ordinal)).Split(',');
+        var ci = System.Globalization.CultureInfo.InvariantCulture;
+        string R(string v) => double.Parse(v, ci).ToString("F3", ci);
+        Assert.Equal(new[] { "short", "holdout", csv[2], R(csv[7]), R(csv[9]), R(csv[12]) }, row);
+        Assert.Contains(lines, l => l.StartsWith("Rules of thumb, not pass/fail tests (Hu & Bentler, 1999)", StringComparison.Ordinal));
+    }
+
+    [Fact]
     public void Sample_column_is_last_and_agrees_with_the_holdout_counts()
     {
         var header = Lines("respondent-flags.csv")[0].Split(',');

@@ -73,6 +73,19 @@ public class ConfirmatoryFactorAnalysisTests
     }
 
     [Fact]
+    public void Robust_scaling_uses_all_respondents_below_the_cap_and_the_documented_evenly_spaced_rows_above_it()
+    {
+        var data = Load("cfa_missing_data.csv");
+        Assert.Equal(data.RespondentCount, Fit("cfa_missing_data.csv", Right).Fit.RobustRespondents);
+        var patterns = MissingDataPatterns.From(data, Enumerable.Range(0, 7).ToArray(), listwise: false);
+        Assert.Same(patterns, patterns.EvenlySpaced(patterns.Respondents));
+        // The rule stated in the README: row ⌊j·N/cap⌋ for j = 0..cap−1 (N = 300, cap = 8).
+        var capped = patterns.EvenlySpaced(8);
+        Assert.Equal(new[] { 0, 37, 75, 112, 150, 187, 225, 262 }.Select(j => patterns.RowIndex[j]), capped.RowIndex);
+        Assert.Equal(8, capped.Patterns.Sum(g => g.Count));
+    }
+
+    [Fact]
     public void Planted_model_fits_and_an_item_moved_to_the_wrong_factor_fits_clearly_worse()
     {
         // The data were simulated from the "right" model (script above); thresholds are common practice, no source.
