@@ -82,8 +82,8 @@ public static class SettingsCatalog
         },
         new()
         {
-            Name = "seed", Kind = SettingKind.Integer, Commands = Commands.Writing,
-            Concerns = Concerns.Screening | Concerns.Dimensions | Concerns.ShortForm, Group = General,
+            Name = "seed", Kind = SettingKind.Integer, Commands = Commands.Dimensions | Commands.Shorten | Commands.Run,
+            Concerns = Concerns.Dimensions | Concerns.ShortForm, Group = General,
             ValueName = "N", Default = RandomStream.DefaultSeed, Min = 0, Max = ulong.MaxValue, Example = "42",
             Help = "Seed of every random step. Same inputs and seed give identical results.",
         },
