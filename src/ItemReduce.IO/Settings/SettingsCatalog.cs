@@ -125,7 +125,7 @@ public static class SettingsCatalog
         {
             Name = "run-share", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
             Group = ScreeningGroup, ValueName = "P", Default = Screening.LongStringShare, Min = 0, Max = 1, MinExclusive = true, Example = "0.7",
-            Help = $"Flag a run of identical consecutive answers covering at least this share of the items (the run must also be at least {Screening.LongStringMinimum} items long).",
+            Help = $"Flag a run of identical consecutive answers covering at least this share of the items (the run must also be at least {Screening.LongStringMinimum} items long). With ordinal items the limit is raised where attentive respondents simulated from the survey's fitted model reach it too often (the rule text gives the limit used).",
         },
         new()
         {
