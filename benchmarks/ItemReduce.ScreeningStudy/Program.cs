@@ -19,7 +19,7 @@ if (mode == "oracle")
     var sw = Stopwatch.StartNew();
     var res = ScreeningOracle.Run(oc, 77);
     foreach (double rate in new[] { 0.001, 0.002 })
-        foreach (var (name, pt) in new[] { ("LR", res.LikelihoodRatio(rate)), ("D2", res.KnownModelDistance(rate)) })
+        foreach (var (name, pt) in new[] { ("LR", res.LikelihoodRatio(rate)), ("D2", res.KnownModelDistance(rate)), ("copula", res.CopulaApproximation(rate)) })
             Console.WriteLine(string.Create(inv, $"{name} target {pt.TargetRate}: false {100 * pt.FalseFlagRate:0.000}% recall {100 * pt.Recall:0.0}%"));
     Console.WriteLine(string.Create(inv, $"{sw.Elapsed.TotalSeconds:0.0} s"));
     return;

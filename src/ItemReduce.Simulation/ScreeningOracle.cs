@@ -17,6 +17,11 @@ namespace ItemReduce.Simulation;
 /// screening uses) with the population covariance of those scores (from a large attentive sample), on the items
 /// answered, ranked across patterns by the Wilson–Hilferty normal approximation of its χ² (df = items answered)
 /// value. It shows what the distance statistic itself can reach when location, scatter and cutoff are perfect.</item>
+/// <item><b>Copula approximation</b>: the likelihood ratio with P_model(x) replaced by a Gaussian copula at the category
+/// midpoints, <c>−log P(x) ≈ −Σ log p_j(x_j) + ½ (D² − Σ z_j²) + ½ log |Σ_O|</c> (p_j the category shares, z the normal
+/// scores, D² and Σ_O as in the known-model distance; our approximation). Every ingredient could be estimated from
+/// the data, so it shows how much of the likelihood ratio's advantage a data-based statistic of this form could
+/// recover; it is not used by the screening.</item>
 /// </list>
 /// </summary>
 public static class ScreeningOracle
@@ -27,9 +32,9 @@ public static class ScreeningOracle
     /// <summary>Both statistics on the three simulated samples (threshold, check, random) of one design.</summary>
     public sealed class Result
     {
-        private readonly (double[] Lr, double[] D) threshold, check, random;
+        private readonly (double[] Lr, double[] D, double[] C) threshold, check, random;
 
-        internal Result((double[], double[]) threshold, (double[], double[]) check, (double[], double[]) random, int nullRows, int randomRows)
+        internal Result((double[], double[], double[]) threshold, (double[], double[], double[]) check, (double[], double[], double[]) random, int nullRows, int randomRows)
         {
             this.threshold = threshold;
             this.check = check;
@@ -49,6 +54,10 @@ public static class ScreeningOracle
 
         /// <summary>Known-model distance yardstick at false-flag rate <paramref name="rate"/>.</summary>
         public Point KnownModelDistance(double rate) => At(threshold.D, check.D, random.D, rate);
+
+        /// <summary>Known-model Gaussian-copula approximation of the likelihood ratio at false-flag rate <paramref name="rate"/>
+        /// (see <see cref="ScreeningOracle"/>).</summary>
+        public Point CopulaApproximation(double rate) => At(threshold.C, check.C, random.C, rate);
 
         private static Point At(double[] nul, double[] chk, double[] alt, double rate)
         {
@@ -73,20 +82,33 @@ public static class ScreeningOracle
         var threshold = Sample(spec, c.MissingRate, nullRows, 0, seed + 2);
         var check = Sample(spec, c.MissingRate, nullRows, 0, seed + 3);
         var random = Sample(spec, c.MissingRate, randomRows, randomRows, seed + 4);
-        (double[] Lr, double[] D) Stats(ResponseMatrix m)
+        var logShare = LogShares(spec);
+        (double[] Lr, double[] D, double[] C) Stats(ResponseMatrix m)
         {
             int n = m.RespondentCount, p = m.ItemCount;
             var a = new double[n];
             var d = new double[n];
+            var cop = new double[n];
             Parallel.For(0, n, () => (Row: new double[p], Z: new double[p], Work: new double[p * p + 2 * p]), (i, _, s) =>
             {
                 m.CopyRow(i, s.Row);
                 a[i] = lr.Statistic(s.Row);
                 for (int j = 0; j < p; j++) s.Z[j] = double.IsNaN(s.Row[j]) ? double.NaN : scores[j][(int)s.Row[j] - 1];
-                d[i] = known.WilsonHilferty(s.Z, s.Work);
+                (d[i], double d2, double logDet) = known.Distance(s.Z, s.Work);
+                // −log P(x) ≈ −Σ log p_j(x_j) + ½ (d² − Σ z_j²) + ½ log|Σ_O| (Gaussian copula, scores at category midpoints).
+                double c = 0, sz = 0;
+                int answered = 0;
+                for (int j = 0; j < p; j++)
+                {
+                    if (double.IsNaN(s.Z[j])) continue;
+                    answered++;
+                    c -= logShare[(int)s.Row[j] - 1];
+                    sz += s.Z[j] * s.Z[j];
+                }
+                cop[i] = answered == 0 ? double.NaN : c - answered * Math.Log(spec.Categories) + 0.5 * (d2 - sz) + 0.5 * logDet;
                 return s;
             }, _ => { });
-            return (a, d);
+            return (a, d, cop);
         }
         return new Result(Stats(threshold), Stats(check), Stats(random), nullRows, randomRows);
     }
@@ -96,6 +118,14 @@ public static class ScreeningOracle
     {
         var s = FactorModelSimulator.Generate(spec, new FactorModelSimulator.Settings(n, seed, missing, RandomResponders: random));
         return ReverseScoring.Apply(s.Responses);
+    }
+
+    /// <summary>log P(category t) of the model's answer distribution (the same for every item).</summary>
+    private static double[] LogShares(FactorModelSpec spec)
+    {
+        var pr = spec.CategoryProbabilities!;
+        double total = pr.Sum();
+        return pr.Select(v => Math.Log(v / total)).ToArray();
     }
 
     /// <summary>Per item, the population normal score of each category: Φ⁻¹(F(t − 1) + P(t) / 2).</summary>
@@ -141,12 +171,13 @@ public static class ScreeningOracle
     {
         private readonly int p = covWithMean.GetLength(1);
 
-        public double WilsonHilferty(double[] z, double[] work)
+        /// <summary>Wilson–Hilferty z of the squared distance, the squared distance and log |Σ_O|.</summary>
+        public (double WilsonHilferty, double D2, double LogDet) Distance(double[] z, double[] work)
         {
             int m = 0;
             Span<int> idx = stackalloc int[p];
             for (int j = 0; j < p; j++) if (!double.IsNaN(z[j])) idx[m++] = j;
-            if (m == 0) return double.NaN;
+            if (m == 0) return (double.NaN, double.NaN, double.NaN);
             // work[0 .. m*m) = lower Cholesky factor, then the centred vector and its solve.
             for (int a = 0; a < m; a++)
                 for (int b = 0; b <= a; b++)
@@ -164,8 +195,9 @@ public static class ScreeningOracle
                 work[p * p + a] = s;
                 d2 += s * s;
             }
-            double v = 2.0 / (9 * m);
-            return (Math.Cbrt(d2 / m) - (1 - v)) / Math.Sqrt(v);
+            double v = 2.0 / (9 * m), logDet = 0;
+            for (int a = 0; a < m; a++) logDet += 2 * Math.Log(work[a * m + a]);
+            return ((Math.Cbrt(d2 / m) - (1 - v)) / Math.Sqrt(v), d2, logDet);
         }
     }
 
