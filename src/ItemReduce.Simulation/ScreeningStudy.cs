@@ -47,6 +47,8 @@ public static class ScreeningStudy
         public Dictionary<CarelessKind, long> Caught { get; } = [];
         /// <summary>Planted respondents flagged, by (kind, reason).</summary>
         public Dictionary<(CarelessKind, string), long> CaughtByReason { get; } = [];
+        /// <summary>Yardsticks for the recall of random responders in this design (null when not computed).</summary>
+        public ScreeningOracle.Result? Oracle { get; set; }
         /// <summary>Distance rule used ("robust"/"classical") per replicate, counted.</summary>
         public Dictionary<string, int> DistanceRule { get; } = new(StringComparer.Ordinal);
 
@@ -121,15 +123,15 @@ public static class ScreeningStudy
         return (ReverseScoring.Apply(s.Responses), s.Responses, s.Careless);
     }
 
-    /// <summary>Runs every replicate of <paramref name="c"/> (replicate r uses data seed <c>baseSeed + r</c> and
-    /// screening seed <c>r + 1</c>).</summary>
+    /// <summary>Runs every replicate of <paramref name="c"/> (replicate r uses data seed <c>baseSeed + r</c>; the
+    /// screening itself has no random step).</summary>
     public static Outcome Run(Condition c, ScreeningOptions options, ulong baseSeed)
     {
         var outcome = new Outcome(c);
         for (int r = 0; r < c.Replicates; r++)
         {
             var (scored, raw, truth) = Draw(c, baseSeed + (ulong)r);
-            var result = RespondentScreening.Run(scored, options with { Seed = (ulong)r + 1 }, raw);
+            var result = RespondentScreening.Run(scored, options, raw);
             outcome.DistanceRule[result.DistanceRule] = outcome.DistanceRule.GetValueOrDefault(result.DistanceRule) + 1;
             for (int i = 0; i < truth.Length; i++)
             {
@@ -163,6 +165,30 @@ public static class ScreeningStudy
         CarelessKind.MostlyUnanswered => "unanswered",
         _ => k.ToString(),
     };
+
+    /// <summary>Markdown table of the random-responder recall of the screening (any rule) next to the yardsticks of
+    /// <see cref="ScreeningOracle"/>: the likelihood-ratio test with the true model at the nominal rate
+    /// <paramref name="nominal"/> and at the screening's own measured false-flag rate, and the known-model distance.</summary>
+    public static string OracleTable(IEnumerable<Outcome> outcomes, double nominal)
+    {
+        var inv = CultureInfo.InvariantCulture;
+        var b = new StringBuilder();
+        b.Append("| items | cat | dist | miss | n | careless | our false-flag % | our random recall % | LR recall % at nominal (its false-flag %) | LR recall % at our false-flag rate | known-model distance recall % at nominal (its false-flag %) |\n");
+        b.Append("|---:|---:|---|---:|---:|---:|---:|---:|---:|---:|---:|\n");
+        foreach (var o in outcomes)
+        {
+            if (o.Oracle is not { } y || double.IsNaN(o.Recall(CarelessKind.UniformRandom))) continue;
+            var c = o.Condition;
+            double ours = o.FalseFlagRate();
+            var lr = y.LikelihoodRatio(nominal);
+            var lrOurs = y.LikelihoodRatio(Math.Max(ours, 1.0 / y.NullRows));
+            var d = y.KnownModelDistance(nominal);
+            b.Append(inv, $"| {c.Items} | {c.Categories} | {(c.Skewed ? "skewed" : "symmetric")} | {c.MissingRate:0.##} | {c.Respondents} | {c.CarelessShare:0.##} | ")
+             .Append(inv, $"{100 * ours:0.000} | {100 * o.Recall(CarelessKind.UniformRandom):0.0} | {100 * lr.Recall:0.0} ({100 * lr.FalseFlagRate:0.000}) | ")
+             .Append(inv, $"{100 * lrOurs.Recall:0.0} | {100 * d.Recall:0.0} ({100 * d.FalseFlagRate:0.000}) |\n");
+        }
+        return b.ToString();
+    }
 
     /// <summary>Markdown table: one row per condition and rule (any rule first), false-flag rate and recall per kind.</summary>
     public static string Table(IEnumerable<Outcome> outcomes, IReadOnlyList<string> reasons)

@@ -56,7 +56,7 @@ public sealed record PipelineSettings
 
     /// <summary>The option records each stage receives: the stage records with the shared settings filled in.</summary>
     public StageOptionSet StageOptions() => new(
-        Screening with { Seed = Seed },
+        Screening,
         Dimensions with { Seed = Seed, Correlation = Correlation },
         ShortForm with { Seed = Seed, Correlation = Correlation },
         KeepFlagged,

@@ -32,7 +32,7 @@ internal static class DiscretenessCalibration
     internal const int MaxCategories = 11;
 
     /// <summary>Rows drawn per block.</summary>
-    private const int BlockRows = 8192;
+    internal const int BlockRows = 8192;
 
     /// <summary>Rows drawn: 100 / α (about 100 draws beyond the quantile), between 50,000 and 1,000,000.</summary>
     internal static int Draws(double alpha) => (int)Math.Clamp(Math.Ceiling(100 / alpha), 50_000, 1_000_000);
@@ -70,16 +70,9 @@ internal static class DiscretenessCalibration
         int p = scores.Items;
         var chol = CholeskyLower(latentCorrelation, p);
         // Category cuts (normal quantiles of the cumulative shares) and the score of each category.
-        var cuts = new double[p][];
+        var cuts = Cuts(scores);
         var score = new double[p][];
-        for (int j = 0; j < p; j++)
-        {
-            var (values, shares) = scores.Categories(j);
-            cuts[j] = new double[values.Length - 1];
-            double acc = 0;
-            for (int t = 0; t < cuts[j].Length; t++) { acc += shares[t]; cuts[j][t] = Normal.InvCDF(0, 1, Math.Min(acc, 1 - 1e-15)); }
-            score[j] = values.Select(v => scores.Score(j, v)).ToArray();
-        }
+        for (int j = 0; j < p; j++) score[j] = scores.Categories(j).Values.Select(v => scores.Score(j, v)).ToArray();
         int draws = Draws(alpha);
         int blocks = (draws + BlockRows - 1) / BlockRows, n = blocks * BlockRows;
         // Pass 1: sums and cross-products per block (scores have mean ≈ 0 by construction, so the one-pass form is
@@ -128,11 +121,12 @@ internal static class DiscretenessCalibration
         return Math.Clamp(q / ChiSquareTail.UpperQuantile(alpha, p), MinimumFactor, MaximumFactor);
     }
 
-    /// <summary>Rows of block <paramref name="b"/>: latent N(0, R) draws cut into categories and scored.</summary>
+    /// <summary>Rows of block <paramref name="b"/>: latent N(0, R) draws cut into categories and scored (with
+    /// <paramref name="categories"/>, each draw's category index is stored there too).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void DrawBlock(int b, double[] chol, double[][] cuts, double[][] score, int p, double[] rows)
+    internal static void DrawBlock(int b, double[] chol, double[][] cuts, double[][] score, int p, double[] rows, int[]? categories = null, ulong seed = Seed)
     {
-        var rng = RandomStream.ForTask(Seed, b);
+        var rng = RandomStream.ForTask(seed, b);
         Span<double> e = p <= 256 ? stackalloc double[p] : new double[p];
         for (int r = 0; r < BlockRows; r++)
         {
@@ -145,11 +139,27 @@ internal static class DiscretenessCalibration
                 var cj = cuts[j];
                 while (c < cj.Length && z > cj[c]) c++;
                 rows[r * p + j] = score[j][c];
+                if (categories is not null) categories[r * p + j] = c;
             }
         }
     }
 
-    private static double[] CholeskyLower(double[] a, int p)
+    /// <summary>Category cuts of every item: normal quantiles of its observed cumulative shares.</summary>
+    internal static double[][] Cuts(NormalScores scores)
+    {
+        int p = scores.Items;
+        var cuts = new double[p][];
+        for (int j = 0; j < p; j++)
+        {
+            var (values, shares) = scores.Categories(j);
+            cuts[j] = new double[values.Length - 1];
+            double acc = 0;
+            for (int t = 0; t < cuts[j].Length; t++) { acc += shares[t]; cuts[j][t] = Normal.InvCDF(0, 1, Math.Min(acc, 1 - 1e-15)); }
+        }
+        return cuts;
+    }
+
+    internal static double[] CholeskyLower(double[] a, int p)
     {
         var l = new double[p * p];
         for (int i = 0; i < p; i++)

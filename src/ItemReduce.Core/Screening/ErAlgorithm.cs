@@ -126,8 +126,7 @@ internal static class ErAlgorithm
         for (int a = 0; a < list.Count; a++)
         {
             double alpha = list[a], tolerance = a == list.Count - 1 ? Tolerance : StageTolerance;
-            double chiLimit = ChiSquareTail.UpperQuantile(alpha, p);
-            truncation = (1 - alpha) / ChiSquareTail.Cdf(chiLimit, p + 2);
+            truncation = TruncationFactor(alpha, p);
             converged = false;
             for (int it = 0; it < maxIterations; it++, iterations++)
             {
@@ -259,6 +258,10 @@ internal static class ErAlgorithm
             }
         return new StepResult(newMean, newCov, kept, keptCount);
     }
+
+    /// <summary>Normal-theory consistency factor of the covariance of rows truncated at the χ²_p(1 − α) quantile:
+    /// <c>(1 − α) / F_χ²(p+2)(χ²_p(1 − α))</c> (Croux &amp; Haesbroeck 1999, see the type's summary).</summary>
+    internal static double TruncationFactor(double alpha, int p) => (1 - alpha) / ChiSquareTail.Cdf(ChiSquareTail.UpperQuantile(alpha, p), p + 2);
 
     /// <summary>
     /// The in-sample distance a row would have if it were added to the N rows of the estimate, from its distance D to

@@ -52,7 +52,8 @@ public static class RespondentScreening
         // 1. Robust location and scatter (ER estimate on normal scores), fitted on another thread while the classical
         //    moments are accumulated (the two do not depend on each other).
         var robustWarnings = new WarningList("screening");
-        var robustFit = Task.Run(() => RobustFit(data, options, robustWarnings, progress));
+        int runFloor = Math.Max(options.LongStringMinimum, (int)Math.Ceiling(options.LongStringShare * p));
+        var robustFit = Task.Run(() => RobustFit(data, options, robustWarnings, progress, asAnswered is not null, runFloor));
 
         // 2. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
         progress?.Invoke("screening: item means and covariances");
@@ -68,7 +69,7 @@ public static class RespondentScreening
         var classical = new MahalanobisDistance(mean, cov);
         var synonyms = new PsychometricSynonyms(AsAnsweredCorrelation(cov, data), p);
 
-        var (robust, robustDistance, scores, inEstimate) = robustFit.GetAwaiter().GetResult();
+        var (robust, robustDistance, scores, inEstimate, runLimits) = robustFit.GetAwaiter().GetResult();
         warnings.AddRange(robustWarnings);
 
         // 3. Cutoffs, df = items answered.
@@ -86,8 +87,8 @@ public static class RespondentScreening
         if (!evenOdd.Applicable)
             warnings.Add("even-odd-not-computed", $"Even-odd consistency was not computed: it needs at least {options.EvenOddMinSubscales} subscales with two or more items, " +
                          $"the codebook gives {evenOdd.SplittableSubscales}.");
-        int runLimit = Math.Max(options.LongStringMinimum, (int)Math.Ceiling(options.LongStringShare * p));
-        int alternatingLimit = Math.Max(runLimit, AlternatingMinimum);
+        int runLimit = runLimits?.RepeatedRun ?? runFloor;
+        int alternatingLimit = runLimits?.AlternatingRun ?? Math.Max(runFloor, AlternatingMinimum);
         bool useRobust = options.UseRobust && robust.Available;
         if (options.UseRobust && !robust.Available)
             warnings.Add("robust-unavailable", "Robust distances were not available; distance flags use the classical distance instead.");
@@ -148,9 +149,14 @@ public static class RespondentScreening
         var counts = ScreeningReasons.All.Select(code => new ScreeningReasonCount(code, Meaning(code),
             rows.CountWith(ScreeningRowStore.Bit(code)))).ToList();
         int flagged = rows.Flagged();
-        string rule = Describe(options, useRobust, runLimit, robust.RowsUsed, p, evenOdd, calibration);
+        string? randomRecall = RandomResponderRecall.Statement(p, options.CutoffP);
+        if (randomRecall is not null && !useRobust) randomRecall += " These figures are for the default robust distance; this run used the classical one.";
+        if (randomRecall is not null) warnings.Add("random-answering-partly-detectable", randomRecall);
+        string rule = Describe(options, useRobust, runLimit, alternatingLimit, runLimits, robust.RowsUsed, p, evenOdd, calibration);
+        if (randomRecall is not null) rule += " " + randomRecall;
         var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
-        return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample);
+        return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample,
+            runLimit, alternatingLimit);
     }
 
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
@@ -199,8 +205,9 @@ public static class RespondentScreening
     /// <summary>Respondents per item below which the classical distance drives the distance flags (see the warning).</summary>
     internal const int SmallSampleRatio = 10;
 
-    /// <summary>Shortest alternating run ever flagged (our choice: with 8 of 12 four-point items the validation study
-    /// flagged 0.1–0.2 % of attentive respondents as alternating); otherwise the long-string limit applies.</summary>
+    /// <summary>Shortest alternating run flagged when the limits are not calibrated (<see cref="RunLimitCalibration"/>
+    /// needs ordinal items): with 8 of 12 four-point items an earlier validation study flagged 0.1–0.2 % of attentive
+    /// respondents as alternating; otherwise the long-string limit applies.</summary>
     internal const int AlternatingMinimum = 10;
 
     /// <summary>Most kept respondents whose polychoric correlations feed the ordinal calibration (a systematic subsample above).</summary>
@@ -219,8 +226,8 @@ public static class RespondentScreening
     }
 
     // Filled in from benchmarks/results/screening-study-2026-12-02.md (default options).
-    private const string MeasuredLarge = "In our validation study (ordinal 4- to 7-point items from a factor model, symmetric or skewed, 0–10 % of answers missing, 20 to 100 respondents per item) the distance flagged between 0.02 % and 0.28 % of attentive respondents per design (median 0.10 %; nominal 0.1 %).";
-    private const string MeasuredSmall = "In our validation study with 5 respondents per item (same kinds of items) the distance flagged between 0.04 % and 0.33 % of attentive respondents per design (median 0.12 %; nominal 0.1 %).";
+    private const string MeasuredLarge = "In our validation study (ordinal 4- to 7-point items from a factor model, symmetric or skewed, 0–10 % of answers missing, 20 to 100 respondents per item) the distance flagged between 0.02 % and 0.28 % of attentive respondents per design (median 0.12 %; nominal 0.1 %), and all rules together between 0 % and 0.29 % (median 0.12 %).";
+    private const string MeasuredSmall = "In our validation study with 5 respondents per item (same kinds of items) the distance flagged between 0.04 % and 0.33 % of attentive respondents per design (median 0.12 %; nominal 0.1 %), and all rules together between 0.04 % and 0.33 % (median 0.13 %).";
     private const string MeasuredClassical = "In our validation study the classical distance with its chi-square cutoff flagged up to 6.3 % of attentive respondents per design on skewed items (median over all designs 0.8 %; nominal 0.1 %); the robust rule is the default.";
 
     private static readonly int AlternatingBit = ScreeningRowStore.Bit(ScreeningReasons.AlternatingAnswers);
@@ -246,8 +253,8 @@ public static class RespondentScreening
     /// subsample (every (n / cap)-th respondent: no random choice, so the result does not depend on the seed).
     /// The distance object is null when robust distances are unavailable.
     /// </summary>
-    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate) RobustFit(ResponseMatrix data, ScreeningOptions o,
-        WarningList warnings, Action<string>? progress)
+    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate, RunLimitCalibration.Limits? RunLimits) RobustFit(
+        ResponseMatrix data, ScreeningOptions o, WarningList warnings, Action<string>? progress, bool runsOnAnswersAsGiven, int runFloor)
     {
         int n = data.RespondentCount, p = data.ItemCount;
         var scores = NormalScores.FromData(data);
@@ -267,7 +274,7 @@ public static class RespondentScreening
         }
         int minimum = 2 * (p + 1);
         if (answering.Count < minimum)
-            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null);
+            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null, null);
 
         var rowsUsed = answering;
         bool subsampled = false;
@@ -292,17 +299,18 @@ public static class RespondentScreening
         }
         catch (InvalidOperationException e)
         {
-            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null);
+            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null, null);
         }
         if (!fit.Converged) warnings.Add("er-not-converged", "The robust EM (ER) estimate reached its iteration cap before settling; robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         var inEstimate = new bool[n];
         for (int r = 0; r < m; r++) inEstimate[rowsUsed[r]] = fit.KeptRows[r];
         if (!dist.FullFactorAvailable)
-            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null);
+            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null, null);
         // Cutoff factor for ordinal answers, from the polychoric correlations of (at most CalibrationRows of) the
         // respondents kept by the fit.
         double calibration = 1;
+        RunLimitCalibration.Limits? runLimits = null;
         string calibrationNote = " No ordinal calibration (some item has more than " + DiscretenessCalibration.MaxCategories + " distinct answers).";
         if (DiscretenessCalibration.Applies(scores))
         {
@@ -314,6 +322,14 @@ public static class RespondentScreening
             if (latent is not null)
             {
                 calibration = DiscretenessCalibration.Factor(latent, scores, o.CutoffP);
+                // Run-rule limits from the same fitted model, on the answers as given (reverse-keyed items mirrored back).
+                var asGiven = new double[p][];
+                for (int j = 0; j < p; j++)
+                {
+                    var item = data.Items[j];
+                    asGiven[j] = scores.Categories(j).Values.Select(v => runsOnAnswersAsGiven && item.Reverse ? item.Min + item.Max - v : v).ToArray();
+                }
+                runLimits = RunLimitCalibration.Choose(latent, scores, asGiven, o.CutoffP, runFloor, runFloor);
                 calibrationNote = string.Create(CultureInfo.InvariantCulture, $" Cutoffs multiplied by {calibration:0.###}, the ordinal-answer calibration factor.");
             }
             else
@@ -332,7 +348,27 @@ public static class RespondentScreening
             : $"Robust EM (ER) estimate on the items' normal scores, fitted to all {m} respondents who answered any item; {fit.Kept} kept in the final step.";
         note += calibrationNote;
         return (new RobustEstimatorDetails(true, complete, subsampled, m, fit.Kept, calibration, fit.TruncationFactor,
-            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate);
+            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate, runLimits);
+    }
+
+    /// <summary>How the two run limits were chosen, and which run rule is off.</summary>
+    private static string RunLimitText(RunLimitCalibration.Limits? limits, int runLimit, int alternatingLimit, int p, double cutoffP)
+    {
+        var c = CultureInfo.InvariantCulture;
+        if (limits is null)
+            return string.Format(c, "The run limits are the configured ones ({0} for repeated answers, {1} for alternation); they were not checked against simulated attentive respondents (no ordinal calibration).",
+                runLimit <= p ? runLimit.ToString(c) : "not reachable", alternatingLimit <= p ? alternatingLimit.ToString(c) : "not reachable");
+        string off = (runLimit > p, alternatingLimit > p) switch
+        {
+            (true, true) => " Neither run rule is applied: even a run over every item was reached more often than that.",
+            (true, false) => " The repeated-answer rule is not applied: even a run over every item was reached more often than that.",
+            (false, true) => " The alternation rule is not applied: even alternation over every item was reached more often than that.",
+            _ => "",
+        };
+        return string.Format(c, "The run limits are the shortest (not below the configured minimum) that at most {0} of {1:N0} attentive respondents simulated from this survey's fitted model " +
+            "(polychoric correlations and answer shares; every item answered) reached ({2} and {3} of them did).{4}",
+            (RunLimitCalibration.ShareOfCutoff * cutoffP).ToString("0.#####%", c), limits.Draws,
+            limits.RepeatedRate.ToString("0.####%", c), limits.AlternatingRate.ToString("0.####%", c), off);
     }
 
     private static string Meaning(string code) => code switch
@@ -347,7 +383,8 @@ public static class RespondentScreening
         _ => code,
     };
 
-    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int n, int p, EvenOddConsistency evenOdd, double calibration)
+    private static string Describe(ScreeningOptions o, bool robust, int runLimit, int alternatingLimit, RunLimitCalibration.Limits? runLimits, int n, int p,
+        EvenOddConsistency evenOdd, double calibration)
     {
         var c = CultureInfo.InvariantCulture;
         int rule = 0;
@@ -365,8 +402,9 @@ public static class RespondentScreening
                 : string.Format(c, "A respondent is marked for review when any of these holds. {1} The classical squared Mahalanobis distance, computed on the items the respondent answered, " +
                     "exceeds the chi-square value with as many degrees of freedom as items answered that an attentive respondent from a multivariate normal population would exceed with probability {0}; " +
                     "the cutoff therefore grows with the number of items answered instead of using one fixed radius.", o.CutoffP, Next()),
-            string.Format(c, "{2} The same answer is given to at least {0} consecutive items (of {1}).", runLimit, p, Next()),
         };
+        if (runLimit <= p)
+            parts.Add(string.Format(c, "{2} The same answer is given to at least {0} consecutive items (of {1}).", runLimit, p, Next()));
         if (o.FlatVariabilityLimit > 0)
             parts.Add(string.Format(c, "{1} The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit, Next()));
         if (evenOdd.SplittableSubscales >= o.EvenOddFlagSubscales)
@@ -376,7 +414,9 @@ public static class RespondentScreening
             parts.Add(string.Format(c, "Even-odd consistency is reported but raises no flag: with {0} subscales it is too noisy (at least {1} are required).",
                 evenOdd.SplittableSubscales, o.EvenOddFlagSubscales));
         parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit, Next()));
-        parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; a single skipped item does not end the row).", Math.Max(runLimit, AlternatingMinimum), Next()));
+        if (alternatingLimit <= p)
+            parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; a single skipped item does not end the row).", alternatingLimit, Next()));
+        parts.Add(RunLimitText(runLimits, runLimit, alternatingLimit, p, o.CutoffP));
         parts.Add(MeasuredRate(o, robust, n, p));
         parts.Add("Even with no careless respondents, about " + (100 * o.CutoffP).ToString("0.###", c) + " % of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
                   "Flags are for human review, not automatic deletion: inspect each flagged respondent, report how many were set aside and why, " +

@@ -24,10 +24,6 @@ public sealed record ScreeningOptions
     /// classical distance raises the flags even when this is true (with a warning).</summary>
     public bool UseRobust { get; init; } = true;
 
-    /// <summary>Seed of random steps. The screening has none since the ER estimate replaced FAST-MCD; kept so one seed
-    /// reaches every stage. Default <see cref="Randomness.RandomStream.DefaultSeed"/> (in a pipeline: <c>PipelineSettings.Seed</c>).</summary>
-    public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
-
     /// <summary>
     /// Most respondents the robust estimate is fitted to; above this a systematic subsample of this size (every
     /// (n / cap)-th respondent) is used and the robust distances of all respondents are computed from that fit.
@@ -35,12 +31,6 @@ public sealed record ScreeningOptions
     /// is within about p / 20,000 of χ²); range ≥ 100.
     /// </summary>
     public int RobustMaxRows { get; init; } = 20_000;
-
-    /// <summary>Not used since the ER estimate replaced FAST-MCD (was: share h / n of rows in the MCD support). Range [0.5, 1].</summary>
-    public double? RobustSupportFraction { get; init; }
-
-    /// <summary>Not used since the ER estimate replaced FAST-MCD (was: random (p + 1)-subsets FAST-MCD starts from). Range 1..100000.</summary>
-    public int RobustInitialSubsets { get; init; } = 500;
 
     /// <summary>
     /// Long-string limit as a share of the number of items: a run of identical consecutive answers at least
@@ -91,8 +81,6 @@ public sealed record ScreeningOptions
         }
         Check(CutoffP > 0 && CutoffP < MaxCutoffP, nameof(CutoffP), CutoffP, "(0, 0.5)");
         Check(RobustMaxRows >= 100, nameof(RobustMaxRows), RobustMaxRows, "≥ 100");
-        Check(RobustSupportFraction is null || (RobustSupportFraction >= 0.5 && RobustSupportFraction <= 1), nameof(RobustSupportFraction), RobustSupportFraction!, "[0.5, 1] or unset");
-        Check(RobustInitialSubsets is >= 1 and <= 100_000, nameof(RobustInitialSubsets), RobustInitialSubsets, "1..100000");
         Check(LongStringShare > 0 && LongStringShare <= 1, nameof(LongStringShare), LongStringShare, "(0, 1]");
         Check(LongStringMinimum >= 2, nameof(LongStringMinimum), LongStringMinimum, "≥ 2");
         Check(FlatVariabilityLimit >= 0 && !double.IsInfinity(FlatVariabilityLimit), nameof(FlatVariabilityLimit), FlatVariabilityLimit, "≥ 0, finite");

@@ -102,6 +102,9 @@ public sealed record RobustEstimatorDetails(
 /// <param name="SmallSampleFallback">True when there were fewer than <see cref="RespondentScreening.SmallSampleRatio"/>
 /// respondents per item, so the robust rejection was switched off (plain EM estimate on the normal scores, every
 /// respondent in it).</param>
+/// <param name="RepeatedRunLimit">Run length from which the repeated-answer rule flags (items + 1 = rule off); see
+/// <see cref="RunLimitCalibration"/>.</param>
+/// <param name="AlternatingRunLimit">Run length from which the alternating-run rule flags (items + 1 = rule off).</param>
 public sealed record ScreeningResult(
     IReadOnlyList<RespondentScreeningRow> Respondents,
     IReadOnlyList<ScreeningReasonCount> ReasonCounts,
@@ -113,7 +116,9 @@ public sealed record ScreeningResult(
     IReadOnlyList<HalfPeakRegionRow> HalfPeakRegion,
     IReadOnlyList<AnalysisWarning> Warnings,
     ScreeningOptions Options,
-    bool SmallSampleFallback = false)
+    bool SmallSampleFallback = false,
+    int RepeatedRunLimit = 0,
+    int AlternatingRunLimit = 0)
 {
     /// <summary>Indices of the respondents who answered at least one item and, unless <paramref name="keepFlagged"/>,
     /// carry no flag: the respondents the later stages analyse.</summary>
@@ -127,6 +132,18 @@ public sealed record ScreeningResult(
             if (row.ItemsAnswered > 0 && (keepFlagged || !row.Flagged)) keep.Add(i);
         }
         return keep;
+    }
+
+    /// <summary>Quantile at lower-tail probability <paramref name="probability"/> of the law the cutoff of the robust (or
+    /// classical) distance is taken from, for respondents who answered <paramref name="items"/> items (for Q–Q plots):
+    /// robust, the finite-sample law <see cref="BetaDistanceLaw"/> with N = <see cref="RobustEstimatorDetails.SupportSize"/>
+    /// times the ordinal calibration factor; classical, χ² with <paramref name="items"/> degrees of freedom.</summary>
+    public double ReferenceQuantile(bool robust, int items, double probability)
+    {
+        if (!(probability > 0 && probability < 1)) throw new ArgumentOutOfRangeException(nameof(probability), probability, "Allowed: (0, 1).");
+        if (items < 1) throw new ArgumentOutOfRangeException(nameof(items), items, "Allowed: ≥ 1.");
+        if (!robust || !Robust.Available) return ChiSquareTail.UpperQuantile(1 - probability, items);
+        return Robust.ConsistencyFactor * BetaDistanceLaw.UpperQuantile(1 - probability, items, Robust.SupportSize);
     }
 
     /// <summary>The finite robust (or classical) squared distances of the respondents who answered all

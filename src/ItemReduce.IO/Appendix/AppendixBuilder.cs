@@ -10,7 +10,6 @@ using ItemReduce.IO.Outputs;
 using ItemReduce.IO.Settings;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
-using MathNet.Numerics.Distributions;
 using static ItemReduce.Report.Formatting.NumberFormat;
 
 namespace ItemReduce.IO.Appendix;
@@ -163,14 +162,18 @@ public static partial class AppendixBuilder
         {
             int n = complete.Length;
             var ranks = QqRanks(n);
-            var q = ranks.Select(i => ChiSquared.InvCDF(p, (i + 0.5) / n)).ToList();
+            var q = ranks.Select(i => s.ReferenceQuantile(robust, p, (i + 0.5) / n)).ToList();
             var d2 = ranks.Select(i => complete[i]).ToList();
             string thinned = ranks.Count < n
                 ? Inv($" For legibility {ranks.Count} order statistics are drawn: {QqEvenRanks} evenly spaced ranks and the {QqTailRanks} largest distances.")
                 : "";
-            b.Figure(Inv($"{(robust ? "Robust" : "Classical")} squared distances of the {n} respondents who answered all {p} items against χ²({p}) quantiles. ") +
-                     "Points on the diagonal behave as expected under multivariate normality; points far above it at the right are the atypical respondents." + thinned,
-                new ChartSpec(ChartKind.Scatter, Inv($"χ²({p}) quantile"), robust ? "Robust D²" : "D²",
+            string law = robust
+                ? Inv($"quantiles of the law their cutoff is taken from (the finite-sample Beta law of in-sample distances for {s.Robust.SupportSize} respondents and {p} items") +
+                  (s.Robust.ConsistencyFactor != 1 ? Inv($", times the ordinal calibration factor {s.Robust.ConsistencyFactor:0.###})") : ")")
+                : Inv($"χ²({p}) quantiles");
+            b.Figure(Inv($"{(robust ? "Robust" : "Classical")} squared distances of the {n} respondents who answered all {p} items against ") + law + ". " +
+                     "Points on the diagonal behave as that law expects; points far above it at the right are the atypical respondents." + thinned,
+                new ChartSpec(ChartKind.Scatter, robust ? "Reference quantile" : Inv($"χ²({p}) quantile"), robust ? "Robust D²" : "D²",
                     [new ChartSeries("Respondents", q, d2, SeriesStyle.Markers)]) { IdentityLine = true });
         }
 

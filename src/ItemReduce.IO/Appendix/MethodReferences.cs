@@ -57,7 +57,6 @@ public static class MethodReferences
     public const string Beasley2009 = "Beasley, T. M., Erickson, S., & Allison, D. B. (2009). Rank-based inverse normal transformations are increasingly used, but are they merited? Behavior Genetics, 39(5), 580–595.";
     public const string Wilks1963 = "Wilks, S. S. (1963). Multivariate statistical outliers. Sankhyā A, 25(4), 407–426.";
     public const string Curran2016 = "Curran, P. G. (2016). Methods for the detection of carelessly invalid responses in survey data. Journal of Experimental Social Psychology, 66, 4–19.";
-    public const string RousseeuwVanDriessen1999 = "Rousseeuw, P. J., & Van Driessen, K. (1999). A fast algorithm for the minimum covariance determinant estimator. Technometrics, 41(3), 212–223.";
     public const string Velicer1976 = "Velicer, W. F. (1976). Determining the number of components from the matrix of partial correlations. Psychometrika, 41(3), 321–327.";
     public const string VelicerEatonFava2000 = "Velicer, W. F., Eaton, C. A., & Fava, J. L. (2000). Construct explication through factor or component analysis: A review and evaluation of alternative procedures for determining the number of factors or components. In R. D. Goffin & E. Helmes (Eds.), Problems and solutions in human assessment (pp. 41–71). Kluwer.";
 }

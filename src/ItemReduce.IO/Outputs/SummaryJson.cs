@@ -140,6 +140,8 @@ public static class SummaryJson
             ["iterations"] = s.Robust.Iterations,
         },
         ["smallSampleFallback"] = s.SmallSampleFallback,
+        ["repeatedRunLimit"] = s.RepeatedRunLimit,
+        ["alternatingRunLimit"] = s.AlternatingRunLimit,
     };
 
     private static JsonObject Factors(PipelineResult r)

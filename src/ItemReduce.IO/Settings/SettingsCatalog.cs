@@ -83,8 +83,8 @@ public static class SettingsCatalog
         },
         new()
         {
-            Name = "seed", Kind = SettingKind.Integer, Commands = Commands.Writing,
-            Concerns = Concerns.Screening | Concerns.Dimensions | Concerns.ShortForm, Group = General,
+            Name = "seed", Kind = SettingKind.Integer, Commands = Commands.Dimensions | Commands.Shorten | Commands.Run,
+            Concerns = Concerns.Dimensions | Concerns.ShortForm, Group = General,
             ValueName = "N", Default = RandomStream.DefaultSeed, Min = 0, Max = ulong.MaxValue, Example = "42",
             Help = "Seed of every random step. Same inputs and seed give identical results.",
         },
@@ -126,7 +126,7 @@ public static class SettingsCatalog
         {
             Name = "run-share", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
             Group = ScreeningGroup, ValueName = "P", Default = Screening.LongStringShare, Min = 0, Max = 1, MinExclusive = true, Example = "0.7",
-            Help = $"Flag a run of identical consecutive answers covering at least this share of the items (the run must also be at least {Screening.LongStringMinimum} items long).",
+            Help = $"Flag a run of identical consecutive answers covering at least this share of the items (the run must also be at least {Screening.LongStringMinimum} items long). With ordinal items the limit is raised where attentive respondents simulated from the survey's fitted model reach it too often (the rule text gives the limit used).",
         },
         new()
         {

@@ -120,7 +120,7 @@ public class SettingsModelTests
     {
         var (_, _, r) = RunFixture(("correlation", "polychoric"), ("missing-data", "listwise"), ("seed", "77"), ("replicates", "20"));
         Assert.Equal(r.Settings.StageOptions().Screening, r.Screening!.Options);
-        Assert.Equal(77ul, r.Screening.Options.Seed);
+        Assert.Equal(77ul, r.Settings.StageOptions().Dimensions.Seed);
         Assert.Equal(CorrelationKind.Polychoric, r.Dimensions!.CorrelationKind);
         Assert.Equal(MissingDataHandling.Listwise, r.Dimensions.MissingData);
         Assert.Equal(CorrelationKind.Polychoric, r.ShortForm!.Correlation.Kind);

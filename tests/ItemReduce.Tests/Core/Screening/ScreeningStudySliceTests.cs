@@ -41,4 +41,28 @@ public class ScreeningStudySliceTests(ITestOutputHelper output)
         Assert.Equal(1.0, o.Recall(CarelessKind.StraightLine));
         Assert.Equal(1.0, o.Recall(CarelessKind.MostlyUnanswered));
     }
+
+    [Fact]
+    public void Run_rules_on_twelve_four_point_items_flag_few_attentive_respondents_and_keep_their_recall()
+    {
+        // The study design where the fixed limits (8 of 12 for repeated answers, 10 for alternation) flagged the most
+        // attentive respondents (0.15–0.33 % in the 2026-12-02 study): 12 four-point symmetric items, no missing answers.
+        // 20,000 attentive respondents in one survey: at the old rate of ≥ 0.1 % that is ≥ 20 flagged by the two run
+        // rules; the calibrated limits aim at ≤ 0.025 % each (expected ≤ 10 together), so ≤ 15 separates the two with
+        // room for Monte Carlo error.
+        var design = new ScreeningStudy.Condition(12, 4, false, 0.0, 20_000, 0.0, 1);
+        var (scored, raw, _) = ScreeningStudy.Draw(design, 504);
+        var r = RespondentScreening.Run(scored, new ScreeningOptions(), raw);
+        int runs = r.Respondents.Count(x => x.Reasons.Contains(ScreeningReasons.RepeatedAnswerRun) || x.Reasons.Contains(ScreeningReasons.AlternatingAnswers));
+        output.WriteLine($"limits {r.RepeatedRunLimit}/{r.AlternatingRunLimit}; attentive flagged by run rules {runs} of 20000");
+        Assert.True(runs <= 15, $"{runs} of 20,000 attentive respondents flagged by the run rules");
+        // Old limits on the same data, as the contrast the test relies on (the rule as it was: same indices, fixed limits).
+        int old = r.Respondents.Count(x => x.LongString >= 8 || x.AlternatingRun >= 10);
+        output.WriteLine($"with the fixed limits: {old}");
+        Assert.True(old >= 20, $"fixed limits flagged only {old}: the contrast no longer holds");
+        // Straight-liners and wide alternation are still caught by some rule (simulator truth), 10 % careless planted.
+        var o = ScreeningStudy.Run(new ScreeningStudy.Condition(12, 4, false, 0.05, 240, 0.10, 4), new ScreeningOptions(), 505);
+        Assert.Equal(1.0, o.Recall(CarelessKind.StraightLine));
+        Assert.Equal(1.0, o.Recall(CarelessKind.WideAlternation));
+    }
 }

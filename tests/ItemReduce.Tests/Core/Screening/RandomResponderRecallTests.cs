@@ -1,0 +1,51 @@
+using System.Globalization;
+using ItemReduce.Core.Screening;
+using ItemReduce.Tests.Cli;
+
+namespace ItemReduce.Tests.Core.Screening;
+
+/// <summary>The random-responder recall the tool quotes against the committed validation-study table.</summary>
+public class RandomResponderRecallTests
+{
+    private const string Study = "benchmarks/results/screening-study-2026-12-02.md";
+
+    [Fact]
+    public void Quoted_figures_are_the_ones_in_the_committed_study_table()
+    {
+        // Source: the section "Random responders: the screening against the best possible test" of the committed
+        // study results; cells with five-point items, 5 % missing and 20 respondents per item.
+        var lines = File.ReadAllLines(Path.Combine(PresentationTests.Root(), Study));
+        int start = Array.FindIndex(lines, l => l.StartsWith("## Random responders", StringComparison.Ordinal));
+        Assert.True(start >= 0, "oracle section missing from " + Study);
+        var cells = lines.Skip(start).Where(l => l.StartsWith("| ", StringComparison.Ordinal) && char.IsDigit(l[2]))
+            .Select(l => l.Split('|', StringSplitOptions.TrimEntries)).ToList();
+        static double Num(string s) => double.Parse(s.Split(' ')[0], CultureInfo.InvariantCulture);
+        foreach (var band in RandomResponderRecall.Bands)
+        {
+            foreach (bool skewed in new[] { false, true })
+            {
+                var rows = cells.Where(c => int.Parse(c[1], CultureInfo.InvariantCulture) == band.Items && c[2] == "5" && c[3] == (skewed ? "skewed" : "symmetric")
+                    && c[4] == "0.05" && int.Parse(c[5], CultureInfo.InvariantCulture) == 20 * band.Items).ToList();
+                Assert.NotEmpty(rows);
+                var ours = rows.Select(c => Num(c[8])).ToList();
+                var best = rows.Select(c => Num(c[9])).Distinct().Single();
+                Assert.Equal(skewed ? band.SkewedLow : band.SymmetricLow, ours.Min());
+                Assert.Equal(skewed ? band.SkewedHigh : band.SymmetricHigh, ours.Max());
+                Assert.Equal(skewed ? band.BestSkewed : band.BestSymmetric, best);
+            }
+        }
+    }
+
+    [Fact]
+    public void The_statement_names_the_nearest_studied_design_and_advises_other_evidence()
+    {
+        Assert.Equal(24, RandomResponderRecall.Nearest(20).Items);
+        Assert.Equal(12, RandomResponderRecall.Nearest(18).Items);   // ties go to the smaller band
+        Assert.Equal(48, RandomResponderRecall.Nearest(200).Items);
+        string text = RandomResponderRecall.Statement(24, 0.001)!;
+        Assert.Contains("24 five-point items", text);
+        Assert.Contains("attention-check items", text);
+        Assert.Contains("human review", text);
+        Assert.Contains("this run used cutoff p = 0.01", RandomResponderRecall.Statement(24, 0.01)!);
+    }
+}
