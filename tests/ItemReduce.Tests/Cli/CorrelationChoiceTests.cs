@@ -39,7 +39,7 @@ public class CorrelationChoiceTests
 
     private static void AssertMatchesReference(string[] items, double[][] loadings, string reference)
     {
-        var expected = File.ReadAllLines(Fixture(reference)).Where(l => l.Length > 0 && !l.StartsWith('#')).Select(l => l.Split(',')).ToList();
+        var expected = ReferenceData.Lines("Settings", reference).Select(l => l.Split(',')).ToList();
         Assert.Equal(expected.Select(e => e[0]), items);
         for (int f = 0; f < 2; f++)
         {
@@ -55,7 +55,7 @@ public class CorrelationChoiceTests
     public void Polychoric_loadings_match_scipy_minres_on_the_written_matrix()
     {
         var (items, loadings, corr) = Shorten("--correlation", "polychoric");
-        var written = File.ReadAllLines(Fixture("correlations-polychoric.csv")).Skip(1).Select(l => l.Split(',').Skip(1).Select(Num).ToArray()).ToArray();
+        var written = ReferenceData.Lines("Settings", "correlations-polychoric.csv").Skip(1).Select(l => l.Split(',').Skip(1).Select(Num).ToArray()).ToArray();
         for (int a = 0; a < written.Length; a++)
             for (int b = 0; b < written.Length; b++) Assert.Equal(written[a][b], corr[a, b], 12);
         AssertMatchesReference(items, loadings, "minres-polychoric.csv");
@@ -78,7 +78,7 @@ public class CorrelationChoiceTests
         var (items, loadings, _) = Shorten();
         foreach (string reference in new[] { "minres-polychoric.csv", "minres-listwise.csv" })
         {
-            var expected = File.ReadAllLines(Fixture(reference)).Where(l => l.Length > 0 && !l.StartsWith('#')).Select(l => Num(l.Split(',')[3])).ToArray();
+            var expected = ReferenceData.Lines("Settings", reference).Select(l => Num(l.Split(',')[3])).ToArray();
             Assert.True(Enumerable.Range(0, items.Length).Max(j => Math.Abs(expected[j] - loadings[j][2])) > 0.005, reference);
         }
     }

@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Simulation;
 using ItemReduce.Tests.Core.Screening;
 
@@ -19,7 +20,7 @@ public class OrdinalLikelihoodRatioTests
             FactorCorrelations = new[,] { { 1.0, 0.3 }, { 0.3, 1.0 } }, CategoryProbabilities = [1, 2, 4],
         };
         var lr = new OrdinalLikelihoodRatio(spec);
-        var (_, rows) = ScreeningFixtures.Read("ordinal_likelihood.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "ordinal_likelihood.csv");
         Assert.Equal(81 + 27, rows.Length);
         foreach (var r in rows)
         {

@@ -26,7 +26,7 @@ public class ConfirmatoryFactorAnalysisTests
     }
 
     private static Dictionary<string, double> Expected(string file) =>
-        File.ReadAllLines(ReferenceData.PathOf(Area, file)).Where(l => l.Length > 0 && !l.StartsWith('#'))
+        ReferenceData.Lines(Area, file)
             .Select(l => l.Split(',')).ToDictionary(a => a[0], a => double.Parse(a[1], CultureInfo.InvariantCulture));
 
     private static readonly int[] Right = [0, 0, 0, 0, 1, 1, 1];

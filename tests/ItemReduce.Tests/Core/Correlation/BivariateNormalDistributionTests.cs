@@ -10,7 +10,7 @@ public class BivariateNormalDistributionTests
     {
         // Expected: scipy.stats.multivariate_normal.cdf (abseps = releps = 1e-12), each value cross-checked in
         // the script against Owen's (1956) T-function formula — make_polychoric_fixtures.py.
-        foreach (var line in File.ReadAllLines(PathOf("bivariate_normal_cdf.csv")).Skip(1))
+        foreach (var line in Lines("bivariate_normal_cdf.csv").Skip(1))
         {
             var f = line.Split(',').Select(Parse).ToArray();
             double got = BivariateNormalDistribution.Cdf(f[0], f[1], f[2]);

@@ -1,30 +1,30 @@
 using System.Globalization;
 using ItemReduce.Core.Data;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Dimensions;
 
-/// <summary>Reads the fixtures in ReferenceData/Dimensions (produced by the .py scripts there).</summary>
+/// <summary>The fixtures in ReferenceData/Dimensions (produced by the .py scripts there), read by the one fixture
+/// reader <see cref="ReferenceData"/>; this class only binds the folder and builds a few test objects.</summary>
 internal static class DimensionsReferenceData
 {
-    public static string PathOf(string file) => Path.Combine(AppContext.BaseDirectory, "ReferenceData", "Dimensions", file);
+    private const string Area = "Dimensions";
 
-    public static double Parse(string s) => double.Parse(s, NumberStyles.Float, CultureInfo.InvariantCulture);
+    public static string PathOf(string file) => ReferenceData.PathOf(Area, file);
 
-    public static double[] Vector(string file) => File.ReadAllLines(PathOf(file)).Where(l => l.Length > 0).Select(Parse).ToArray();
+    public static double Parse(string s) => ReferenceData.Parse(s);
 
-    public static double[,] Matrix(string file)
-    {
-        var rows = File.ReadAllLines(PathOf(file)).Where(l => l.Length > 0).Select(l => l.Split(',').Select(Parse).ToArray()).ToArray();
-        var m = new double[rows.Length, rows[0].Length];
-        for (int i = 0; i < rows.Length; i++)
-            for (int j = 0; j < rows[i].Length; j++) m[i, j] = rows[i][j];
-        return m;
-    }
+    /// <summary>Data lines of a fixture (comments and empty lines skipped; header included).</summary>
+    public static string[] Lines(string file) => ReferenceData.Lines(Area, file);
+
+    public static double[] Vector(string file) => ReferenceData.Vector(Area, file);
+
+    public static double[,] Matrix(string file) => ReferenceData.Matrix(Area, file);
 
     /// <summary>A CSV with a header row of item names as a complete ResponseMatrix.</summary>
     public static ResponseMatrix Responses(string file)
     {
-        var lines = File.ReadAllLines(PathOf(file)).Where(l => l.Length > 0).ToArray();
+        var lines = Lines(file);
         var names = lines[0].Split(',');
         var items = names.Select(n => new ItemDefinition(n, null, false, double.MinValue, double.MaxValue, null)).ToList();
         var values = lines.Skip(1).SelectMany(l => l.Split(',').Select(Parse)).ToArray();
@@ -36,7 +36,7 @@ internal static class DimensionsReferenceData
     public static Dictionary<string, double[]> Quantities(string file)
     {
         var d = new Dictionary<string, List<(int, double)>>();
-        foreach (var line in File.ReadAllLines(PathOf(file)).Skip(1).Where(l => l.Length > 0))
+        foreach (var line in Lines(file).Skip(1))
         {
             var f = line.Split(',');
             if (!d.TryGetValue(f[0], out var list)) d[f[0]] = list = [];

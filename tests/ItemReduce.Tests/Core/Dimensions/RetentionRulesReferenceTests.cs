@@ -16,7 +16,7 @@ public class RetentionRulesReferenceTests
     private static double[] Split(string s) => s.Split(';').Select(Parse).ToArray();
 
     private static IEnumerable<string[]> Rows(string file) =>
-        File.ReadAllLines(PathOf(file)).Skip(1).Where(l => l.Length > 0).Select(l => l.Split(','));
+        Lines(file).Skip(1).Where(l => l.Length > 0).Select(l => l.Split(','));
 
     [Fact]
     public void Empirical_Kaiser_references_and_counts_match_numpy()

@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Simulation;
@@ -8,7 +9,7 @@ namespace ItemReduce.Tests.Core.Factoring;
 public class ExtractionTests
 {
     private const string Area = "Factoring";
-    private static double[,] R2 => ReferenceCsv.Matrix(Area, "two_factor_correlation.csv");
+    private static double[,] R2 => ReferenceData.Matrix(Area, "two_factor_correlation.csv");
     private static readonly FactoringOptions Tight = new() { Tolerance = 1e-9, MaxIterations = 20000, Rotation = FactorRotation.None };
 
     [Fact]
@@ -18,7 +19,7 @@ public class ExtractionTests
         // covariance equals the fixture correlation matrix (make_factoring_reference.py).
         var s = FactorAnalysis.Fit(R2, 3000, 2, Tight with { Extraction = FactorExtraction.MaximumLikelihood });
         Assert.True(s.Converged);
-        LoadingAssert.Close(ReferenceCsv.Vector(Area, "two_factor_ml_uniqueness_sklearn.csv"), s.Uniquenesses, 2e-5);
+        LoadingAssert.Close(ReferenceData.Vector(Area, "two_factor_ml_uniqueness_sklearn.csv"), s.Uniquenesses, 2e-5);
     }
 
     [Fact]
@@ -26,7 +27,7 @@ public class ExtractionTests
     {
         // Expected: numpy F = ln|Σ̂| − ln|R| + tr(RΣ̂⁻¹) − p at the sklearn optimum, Bartlett χ², df, RMSEA, TLI
         // (formulas as cited in MaximumLikelihoodFactoring, from memory).
-        var t = ReferenceCsv.Table(Area, "two_factor_ml_fit.csv");
+        var t = ReferenceData.Columns(Area, "two_factor_ml_fit.csv");
         var s = FactorAnalysis.Fit(R2, (int)t["n"][0], 2, Tight with { Extraction = FactorExtraction.MaximumLikelihood });
         var fit = s.Fit!;
         Assert.Equal(t["df"][0], fit.Df);
@@ -45,7 +46,7 @@ public class ExtractionTests
         // of squares (ULS), an independent formulation of minres.
         var s = FactorAnalysis.Fit(R2, 3000, 2, Tight);
         Assert.True(s.Converged);
-        LoadingAssert.Close(ReferenceCsv.Vector(Area, "two_factor_minres_communality_scipy.csv"), s.Communalities, 1e-5);
+        LoadingAssert.Close(ReferenceData.Vector(Area, "two_factor_minres_communality_scipy.csv"), s.Communalities, 1e-5);
     }
 
     [Fact]
@@ -54,7 +55,7 @@ public class ExtractionTests
         // Expected: numpy principal-axis iteration from SMC to a 1e-12 change.
         var s = FactorAnalysis.Fit(R2, 3000, 2, Tight with { Extraction = FactorExtraction.PrincipalAxis });
         Assert.True(s.Converged);
-        LoadingAssert.Close(ReferenceCsv.Vector(Area, "two_factor_paf_communality_numpy.csv"), s.Communalities, 1e-6);
+        LoadingAssert.Close(ReferenceData.Vector(Area, "two_factor_paf_communality_numpy.csv"), s.Communalities, 1e-6);
     }
 
     [Fact]

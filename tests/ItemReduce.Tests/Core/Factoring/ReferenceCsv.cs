@@ -1,41 +1,4 @@
-using System.Globalization;
-
 namespace ItemReduce.Tests.Core.Factoring;
-
-/// <summary>Reads the numeric CSV fixtures under ReferenceData (written by the committed .py scripts).</summary>
-internal static class ReferenceCsv
-{
-    public static string PathOf(string area, string file) => Path.Combine(AppContext.BaseDirectory, "ReferenceData", area, file);
-
-    public static double[,] Matrix(string area, string file)
-    {
-        var rows = File.ReadAllLines(PathOf(area, file)).Where(l => l.Length > 0)
-            .Select(l => l.Split(',').Select(s => double.Parse(s, CultureInfo.InvariantCulture)).ToArray()).ToArray();
-        var m = new double[rows.Length, rows[0].Length];
-        for (int i = 0; i < rows.Length; i++)
-            for (int j = 0; j < rows[0].Length; j++) m[i, j] = rows[i][j];
-        return m;
-    }
-
-    public static double[] Vector(string area, string file) =>
-        File.ReadAllLines(PathOf(area, file)).Where(l => l.Length > 0).SelectMany(l => l.Split(','))
-            .Select(s => double.Parse(s, CultureInfo.InvariantCulture)).ToArray();
-
-    /// <summary>A CSV with a header row: column name → values.</summary>
-    public static Dictionary<string, double[]> Table(string area, string file)
-    {
-        var lines = File.ReadAllLines(PathOf(area, file)).Where(l => l.Length > 0).ToArray();
-        var head = lines[0].Split(',');
-        var d = head.ToDictionary(h => h, _ => new double[lines.Length - 1]);
-        for (int i = 1; i < lines.Length; i++)
-        {
-            var cells = lines[i].Split(',');
-            for (int c = 0; c < head.Length; c++)
-                d[head[c]][i - 1] = double.TryParse(cells[c], NumberStyles.Float, CultureInfo.InvariantCulture, out double v) ? v : double.NaN;
-        }
-        return d;
-    }
-}
 
 /// <summary>Comparisons of loading matrices that are only defined up to column order and sign.</summary>
 internal static class LoadingAssert

@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Factoring;
 using MathNet.Numerics.LinearAlgebra;
 
@@ -6,14 +7,14 @@ namespace ItemReduce.Tests.Core.Factoring;
 public class RotationTests
 {
     private const string Area = "Factoring";
-    private static Matrix<double> A3 => Matrix<double>.Build.DenseOfArray(ReferenceCsv.Matrix(Area, "three_factor_loadings.csv"));
+    private static Matrix<double> A3 => Matrix<double>.Build.DenseOfArray(ReferenceData.Matrix(Area, "three_factor_loadings.csv"));
 
     [Fact]
     public void Varimax_with_Kaiser_normalisation_matches_numpy_pairwise_Kaiser_rotation()
     {
         // Expected: Kaiser's (1958) pairwise planar-rotation varimax in numpy (make_factoring_reference.py).
         var r = Varimax.Rotate(A3, normalize: true, 1000, 1e-12);
-        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_varimax_kaiser_numpy.csv"), r.Pattern.ToArray(), 1e-6);
+        LoadingAssert.Close(ReferenceData.Matrix(Area, "three_factor_varimax_kaiser_numpy.csv"), r.Pattern.ToArray(), 1e-6);
     }
 
     [Fact]
@@ -21,16 +22,16 @@ public class RotationTests
     {
         // Expected: numpy pairwise varimax without normalisation, and sklearn's _ortho_rotation (varimax, raw).
         var r = Varimax.Rotate(A3, normalize: false, 1000, 1e-12);
-        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_varimax_raw_numpy.csv"), r.Pattern.ToArray(), 1e-6);
-        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_varimax_raw_sklearn.csv"), r.Pattern.ToArray(), 1e-5);
+        LoadingAssert.Close(ReferenceData.Matrix(Area, "three_factor_varimax_raw_numpy.csv"), r.Pattern.ToArray(), 1e-6);
+        LoadingAssert.Close(ReferenceData.Matrix(Area, "three_factor_varimax_raw_sklearn.csv"), r.Pattern.ToArray(), 1e-5);
     }
 
     [Fact]
     public void Varimax_of_ml_loadings_matches_numpy()
     {
-        var a = Matrix<double>.Build.DenseOfArray(ReferenceCsv.Matrix(Area, "two_factor_unrotated_ml_loadings.csv"));
+        var a = Matrix<double>.Build.DenseOfArray(ReferenceData.Matrix(Area, "two_factor_unrotated_ml_loadings.csv"));
         var r = Varimax.Rotate(a, normalize: true, 1000, 1e-12);
-        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "two_factor_varimax_kaiser_numpy.csv"), r.Pattern.ToArray(), 1e-6);
+        LoadingAssert.Close(ReferenceData.Matrix(Area, "two_factor_varimax_kaiser_numpy.csv"), r.Pattern.ToArray(), 1e-6);
     }
 
     [Fact]
@@ -93,8 +94,8 @@ public class RotationTests
         // Expected: quartimin criterion minimised by scipy BFGS over column-normalised T (not gradient
         // projection), Kaiser-normalised, from T = I (make_factoring_reference.py).
         var r = Oblimin.Rotate(A3, 0.0, true, 5000, 1e-9);
-        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_quartimin_kaiser_scipy.csv"), r.Pattern.ToArray(), 1e-5);
-        LoadingAssert.Close(OffDiagonalMagnitudes(ReferenceCsv.Matrix(Area, "three_factor_quartimin_kaiser_scipy_phi.csv")),
+        LoadingAssert.Close(ReferenceData.Matrix(Area, "three_factor_quartimin_kaiser_scipy.csv"), r.Pattern.ToArray(), 1e-5);
+        LoadingAssert.Close(OffDiagonalMagnitudes(ReferenceData.Matrix(Area, "three_factor_quartimin_kaiser_scipy_phi.csv")),
             OffDiagonalMagnitudes(r.Phi.ToArray()), 1e-5);
     }
 
@@ -103,8 +104,8 @@ public class RotationTests
     {
         // Expected: numpy promax (power 4, Hendrickson & White 1964) on numpy's Kaiser pairwise varimax.
         var r = Promax.Rotate(A3, 4, true, 1000, 1e-12);
-        LoadingAssert.Close(ReferenceCsv.Matrix(Area, "three_factor_promax_numpy.csv"), r.Pattern.ToArray(), 1e-6);
-        LoadingAssert.Close(OffDiagonalMagnitudes(ReferenceCsv.Matrix(Area, "three_factor_promax_numpy_phi.csv")),
+        LoadingAssert.Close(ReferenceData.Matrix(Area, "three_factor_promax_numpy.csv"), r.Pattern.ToArray(), 1e-6);
+        LoadingAssert.Close(OffDiagonalMagnitudes(ReferenceData.Matrix(Area, "three_factor_promax_numpy_phi.csv")),
             OffDiagonalMagnitudes(r.Phi.ToArray()), 1e-6);
     }
 

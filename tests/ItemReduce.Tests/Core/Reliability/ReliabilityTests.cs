@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Reliability;
 using ItemReduce.Tests.Core.Factoring;
@@ -10,7 +11,7 @@ public class ReliabilityTests
 
     private static ResponseMatrix Likert()
     {
-        var m = ReferenceCsv.Matrix(Area, "likert_items.csv");
+        var m = ReferenceData.Matrix(Area, "likert_items.csv");
         int n = m.GetLength(0), k = m.GetLength(1);
         var items = Enumerable.Range(0, k).Select(j => new ItemDefinition($"i{j + 1}", "S", false, 1, 5, null)).ToList();
         var v = new double[n * k];
@@ -23,8 +24,8 @@ public class ReliabilityTests
     {
         // Expected: make_reliability_reference.py — numpy textbook alpha on listwise-complete rows,
         // np.corrcoef item-rest correlations, scipy.stats.f.ppf Feldt interval, scipy ULS one-factor omega.
-        var e = ReferenceCsv.Table(Area, "likert_expected.csv");
-        var items = ReferenceCsv.Table(Area, "likert_item_expected.csv");
+        var e = ReferenceData.Columns(Area, "likert_expected.csv");
+        var items = ReferenceData.Columns(Area, "likert_item_expected.csv");
         var r = ScaleReliability.Compute(Likert());
         Assert.Equal((int)e["n"][0], r.Respondents);
         Assert.Equal(e["alpha"][0], r.Alpha, 1e-12);
@@ -41,7 +42,7 @@ public class ReliabilityTests
     public void Feldt_interval_matches_scipy_f_quantiles()
     {
         // Expected: 1 − (1 − α)·scipy.stats.f.ppf(q, n − 1, (n − 1)(k − 1)), Feldt (1965).
-        var t = ReferenceCsv.Table(Area, "feldt_scipy.csv");
+        var t = ReferenceData.Columns(Area, "feldt_scipy.csv");
         for (int i = 0; i < t["alpha"].Length; i++)
         {
             var (lo, hi) = FeldtInterval.Compute(t["alpha"][i], (int)t["n"][i], (int)t["k"][i], t["confidence"][i]);
@@ -83,8 +84,8 @@ public class ReliabilityTests
         // (formula check); the correlation of the full form with the short items re-drawn with fresh errors
         // (replication, n = 200 000), and its population value from the planted model (tau-equivalent, where
         // alpha equals the reliability).
-        var cov = ReferenceCsv.Matrix(Area, "overlap_covariance.csv");
-        var e = ReferenceCsv.Table(Area, "overlap_expected.csv");
+        var cov = ReferenceData.Matrix(Area, "overlap_covariance.csv");
+        var e = ReferenceData.Columns(Area, "overlap_expected.csv");
         var (observed, corrected) = LevyOverlapCorrection.FromCovariance(cov, [0, 1, 2, 3], Enumerable.Range(0, 10).ToArray());
         Assert.Equal(e["observed_r"][0], observed, 1e-9);
         Assert.Equal(e["formula_r"][0], corrected, 1e-12);

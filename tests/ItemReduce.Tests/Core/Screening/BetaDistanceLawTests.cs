@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using System.Globalization;
 using ItemReduce.Core.Screening;
 
@@ -9,7 +10,7 @@ public class BetaDistanceLawTests
     public void Quantiles_and_tails_match_scipy()
     {
         // Reference: ReferenceData/Screening/beta_distance_reference.py (scipy.stats.beta.ppf / beta.sf).
-        var (_, rows) = ScreeningFixtures.Read("beta_distance.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "beta_distance.csv");
         foreach (var r in rows)
         {
             double q = r[0];

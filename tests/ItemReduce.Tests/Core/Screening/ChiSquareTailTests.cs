@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Screening;
 
 namespace ItemReduce.Tests.Core.Screening;
@@ -25,7 +26,7 @@ public class ChiSquareTailTests
     public void Upper_quantile_matches_scipy_isf_for_df_1_to_300_and_tails_down_to_1e_minus_10()
     {
         // Expected: scipy.stats.chi2.isf(q, df), written by chi2_reference.py.
-        var (_, rows) = ScreeningFixtures.Read("chi2_upper_quantiles.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "chi2_upper_quantiles.csv");
         Assert.True(rows.Length > 2700);
         double worst = 0;
         foreach (var r in rows)
@@ -40,7 +41,7 @@ public class ChiSquareTailTests
     public void Upper_tail_matches_scipy_sf_including_the_far_tail()
     {
         // Expected: scipy.stats.chi2.sf(x, df), written by chi2_reference.py; values reach 1e-46, where 1 − CDF gives 0.
-        var (_, rows) = ScreeningFixtures.Read("chi2_upper_tail.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "chi2_upper_tail.csv");
         foreach (var r in rows)
         {
             double q = ChiSquareTail.UpperTail(r[1], r[0]);
@@ -55,7 +56,7 @@ public class ChiSquareTailTests
         // regularised incomplete gamma functions of mpmath at 50 digits (Debian python3-mpmath 1.2.1); both written by
         // chi2_tail_grid_reference.py. Every df = 1..300 (the finite-sum path) from x = 1e-6 to Q = 1e-300, plus
         // non-whole df, df > 400 and x > 2800 (the general path).
-        var (_, rows) = ScreeningFixtures.Read("chi2_tail_grid.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "chi2_tail_grid.csv");
         Assert.True(rows.Length > 8000);
         var upperScipy = new WorstError("Q vs scipy chi2.sf");
         var upperMpmath = new WorstError("Q vs mpmath");

@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Screening;
 
 namespace ItemReduce.Tests.Core.Screening;
@@ -10,7 +11,7 @@ public class DiscretenessCalibrationTests
         // Reference: ReferenceData/Screening/ordinal_calibration_reference.py (numpy, 4 × 10⁶ draws): six skewed
         // five-point items from two correlated factors give factor 0.9547 (batch sd 0.0027). Our factor uses 100,000
         // draws (about 100 beyond the 0.999 quantile), whose own Monte Carlo sd is about 0.02; tolerance 0.05.
-        var (_, rows) = ScreeningFixtures.Read("ordinal_calibration.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "ordinal_calibration.csv");
         double expected = rows[0][0];
         double[] lam = [.8, .7, .6, .8, .7, .6];
         int[] f = [0, 0, 0, 1, 1, 1];

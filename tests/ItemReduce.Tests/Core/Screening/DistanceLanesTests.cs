@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Screening;
 
 namespace ItemReduce.Tests.Core.Screening;
@@ -11,7 +12,7 @@ public class DistanceLanesTests
     {
         // Property: each lane repeats the scalar forward substitution exactly, so results are equal as bits.
         // Matrix: iris covariance (Fisher 1936, public domain) from the committed numpy fixture's rows.
-        var (_, rows) = ScreeningFixtures.Read("iris_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_mahalanobis.csv");
         int n = rows.Length, p = 4;
         var mean = new double[p];
         for (int j = 0; j < p; j++) mean[j] = rows.Average(r => r[j]);
@@ -47,7 +48,7 @@ public class DistanceLanesTests
     {
         // Property: the D² of a complete row is the same whether it is batched with other rows or alone
         // (subsets of different sizes put each row into a different lane or into the scalar remainder).
-        var (_, rows) = ScreeningFixtures.Read("iris_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_mahalanobis.csv");
         var full = MahalanobisDistanceTests.Matrix(rows, 4);
         var mean = Enumerable.Range(0, 4).Select(j => rows.Average(r => r[j])).ToArray();
         var cov = new double[4, 4];

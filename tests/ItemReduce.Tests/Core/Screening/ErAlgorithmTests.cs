@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
 using ItemReduce.Simulation;
@@ -14,12 +15,12 @@ public class ErAlgorithmTests(ITestOutputHelper output)
         // algorithm's description (distances through Σ_OO solves and conditional covariances Σ_MM − Σ_MO Σ_OO⁻¹ Σ_OM
         // instead of the precision-matrix route; Beta quantiles from scipy.stats.beta.ppf). 90 rows × 5 items,
         // 6 % missing, six planted outliers.
-        var (_, rows) = ScreeningFixtures.Read("er-reference-data.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "er-reference-data.csv");
         int n = rows.Length, p = rows[0].Length;
         var x = rows.SelectMany(r => r).ToArray();
         var fit = ErAlgorithm.Fit(x, n, p, 0.001);
-        var (_, reference) = ScreeningFixtures.Read("er-reference-fit.csv");
-        var (_, kept) = ScreeningFixtures.Read("er-reference-kept.csv");
+        var (_, reference) = ReferenceData.Table("Screening", "er-reference-fit.csv");
+        var (_, kept) = ReferenceData.Table("Screening", "er-reference-kept.csv");
         Assert.Equal(kept.Select(k => k[0] == 1).ToArray(), fit.KeptRows);
         for (int j = 0; j < p; j++)
         {
@@ -108,7 +109,7 @@ public class ErAlgorithmTests(ITestOutputHelper output)
     {
         // Expected: p · 0.975 / ∫₀^q x f_χ²p(x) dx with q = χ²_p(0.975), by scipy.integrate.quad
         // (reweighting_factor_reference.py) — an independent check of the closed form (1 − α) / F_χ²(p+2)(q) at α = 0.025.
-        var (_, rows) = ScreeningFixtures.Read("reweighting_factor.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "reweighting_factor.csv");
         Assert.NotEmpty(rows);
         foreach (var r in rows) Assert.Equal(r[1], ErAlgorithm.TruncationFactor(0.025, (int)r[0]), 1e-9);
     }

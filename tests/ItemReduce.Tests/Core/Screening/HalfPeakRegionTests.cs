@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Screening;
 
 namespace ItemReduce.Tests.Core.Screening;
@@ -20,7 +21,7 @@ public class HalfPeakRegionTests
     public void Shares_match_scipy_and_the_share_beyond_the_cutoff_is_the_cutoff_probability()
     {
         // Expected: scipy.stats.chi2.cdf(2 ln 2, k), written by chi2_reference.py.
-        var (_, rows) = ScreeningFixtures.Read("half_peak_region.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "half_peak_region.csv");
         var t = HalfPeakRegion.Compute(100, 0.001);
         Assert.Equal(100, t.Count);
         foreach (var r in rows)

@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
 
@@ -17,7 +18,7 @@ public class MahalanobisDistanceTests
     {
         // Expected: numpy — sample mean, np.cov(ddof=1), np.linalg.solve (mahalanobis_reference.py; iris data,
         // Fisher 1936, public domain).
-        var (_, rows) = ScreeningFixtures.Read("iris_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_mahalanobis.csv");
         var data = Matrix(rows, 4);
         var r = RespondentScreening.Run(data, new ScreeningOptions());
         for (int i = 0; i < rows.Length; i++)
@@ -31,7 +32,7 @@ public class MahalanobisDistanceTests
     public void Sum_of_squared_distances_is_n_minus_1_times_p()
     {
         // Identity: Σ_i (x_i − x̄)ᵀ S⁻¹ (x_i − x̄) = tr(S⁻¹ (n − 1) S) = (n − 1) p for the n − 1 covariance.
-        var (_, rows) = ScreeningFixtures.Read("iris_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_mahalanobis.csv");
         var r = RespondentScreening.Run(Matrix(rows, 4), new ScreeningOptions());
         Assert.Equal(149.0 * 4, r.Respondents.Sum(x => x.D2), 1e-8);
     }
@@ -42,7 +43,7 @@ public class MahalanobisDistanceTests
         // Expected: numpy implementation of the same rule (item means over answered values, pairwise-complete
         // covariance with the pair's own means and m − 1, D² on the answered sub-vector / sub-matrix), in
         // mahalanobis_reference.py. Row 6 answered nothing.
-        var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_missing_mahalanobis.csv");
         var r = RespondentScreening.Run(Matrix(rows, 4), new ScreeningOptions());
         for (int i = 0; i < rows.Length; i++)
         {
@@ -64,7 +65,7 @@ public class MahalanobisDistanceTests
     {
         // Iris (Fisher 1936, public domain) with one answer missing in some rows: those rows take the precision-matrix
         // route, so no pattern needs its own factor (their values are checked against numpy in the test above).
-        var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_missing_mahalanobis.csv");
         var data = Matrix(rows, 4);
         var (mean, cov, _) = PairwiseCovariance.Compute(data);
         var d = new MahalanobisDistance(mean, cov);
@@ -117,7 +118,7 @@ public class MahalanobisDistanceTests
         // The iris-with-gaps data (validated against numpy above) stacked 200 times (30,000 rows, several row blocks):
         // each pair keeps its means and its cross-product sum grows 200-fold, so
         // cov'_jk = cov_jk · 200 (m_jk − 1) / (200 m_jk − 1), with m_jk the joint answer count of one copy.
-        var (_, rows) = ScreeningFixtures.Read("iris_missing_mahalanobis.csv");
+        var (_, rows) = ReferenceData.Table("Screening", "iris_missing_mahalanobis.csv");
         var once = Matrix(rows, 4);
         var many = Matrix(Enumerable.Repeat(rows, 200).SelectMany(r => r).ToArray(), 4);
         var (m1, c1, _) = PairwiseCovariance.Compute(once);

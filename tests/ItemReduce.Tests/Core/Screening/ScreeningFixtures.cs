@@ -1,19 +1,8 @@
-using System.Globalization;
-
 namespace ItemReduce.Tests.Core.Screening;
 
-/// <summary>Reads the CSV fixtures in ReferenceData/Screening (lines starting with '#' are comments; empty cell = NaN).</summary>
+/// <summary>Helpers of the screening tests (fixtures are read by <see cref="Support.ReferenceData"/>).</summary>
 internal static class ScreeningFixtures
 {
-    public static (string[] Header, double[][] Rows) Read(string file)
-    {
-        string path = Path.Combine(AppContext.BaseDirectory, "ReferenceData", "Screening", file);
-        var lines = File.ReadAllLines(path).Where(l => l.Length > 0 && !l.StartsWith('#')).ToArray();
-        var header = lines[0].Split(',');
-        var rows = lines.Skip(1).Select(l => l.Split(',').Select(c => c.Length == 0 ? double.NaN : double.Parse(c, CultureInfo.InvariantCulture)).ToArray()).ToArray();
-        return (header, rows);
-    }
-
     /// <summary>Spearman rank correlation (average ranks for ties), used to compare distance orderings.</summary>
     public static double Spearman(IReadOnlyList<double> a, IReadOnlyList<double> b)
     {
