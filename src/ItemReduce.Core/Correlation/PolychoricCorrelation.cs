@@ -165,7 +165,7 @@ public static class PolychoricCorrelation
     /// function values alone locate it only to about 1e-8.</summary>
     private static double MaximiseLikelihood(int[,] t, double[] a, double[] b)
     {
-        double rho = BrentMinimiser.Minimise(r => -LogLikelihood(t, a, b, r), -RhoBound, RhoBound, 1e-10);
+        double rho = BrentMinimizer.Minimise(r => -LogLikelihood(t, a, b, r), -RhoBound, RhoBound, 1e-10);
         for (int step = 0; step < 3; step++)
         {
             double s = Score(t, a, b, rho);

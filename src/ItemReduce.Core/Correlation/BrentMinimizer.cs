@@ -6,7 +6,7 @@ namespace ItemReduce.Core.Correlation;
 /// "localmin"). Finds a local minimum of f on [a, b] to within tol + 2·eps·|x|; at most 200 evaluations
 /// (bounded by the golden-section rate, so the cap is never reached for tol ≥ 1e-12 on a unit interval).
 /// </summary>
-internal static class BrentMinimiser
+internal static class BrentMinimizer
 {
     public static double Minimise(Func<double, double> f, double a, double b, double tol)
     {
