@@ -120,6 +120,8 @@ public static class ShortFormBuilder
         return new ShortFormResult
         {
             FullSolution = full,
+            OmegaHierarchical = full.FactorCount >= 3 && full.IsOblique
+                ? ItemReduce.Core.Reliability.OmegaHierarchical.Compute(full.Pattern, full.FactorCorrelations, r) : null,
             Correlation = new CorrelationUsed(o.Correlation.Kind, o.Correlation.MissingData, r, nCorr, sel.RespondentCount),
             Judgements = judgements,
             Scales = scaleResults,

@@ -1,5 +1,6 @@
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Factoring;
+using ItemReduce.Core.Reliability;
 
 namespace ItemReduce.Core.ShortForm;
 
@@ -83,6 +84,10 @@ public sealed record ShortFormResult
     /// <summary>Factor solution refitted on the short form's items (same k); null when it could not be fitted
     /// (see <see cref="Warnings"/>).</summary>
     public FactorSolution? ShortSolution { get; init; }
+
+    /// <summary>Omega hierarchical of all items from a Schmid–Leiman orthogonalisation of <see cref="FullSolution"/>
+    /// (<see cref="ItemReduce.Core.Reliability.OmegaHierarchical"/>); null unless the solution has three or more oblique factors.</summary>
+    public OmegaHierarchicalResult? OmegaHierarchical { get; init; }
 
     /// <summary>Reliability rows: per scale, full and short form on the selection sample (or all respondents),
     /// then — with a holdout — full and short form on the held-out respondents.</summary>

@@ -421,6 +421,12 @@ public static partial class AppendixBuilder
                Inv($". The short form has {total} items. Cronbach's alpha is reported with a {Percent(r.Settings.ShortForm.Confidence, 0)} confidence interval (Feldt's F-based interval), McDonald's omega total from a one-factor model of each scale, and the correlation between short and full scale scores corrected for the items they share (Levy's correction)."));
         if (sf.HoldoutRespondents > 0)
             b.Para(Inv($"Items were chosen on a random {sf.SelectionRespondents} respondents and evaluated again on the other {sf.HoldoutRespondents} (holdout rows), so the holdout figures are not inflated by the selection."));
+        if (sf.OmegaHierarchical is { } h)
+        {
+            b.Para(Inv($"For all {sf.FullSolution.ItemCount} items together, omega hierarchical (the share of the unit-weighted total score's variance due to one general factor) was {Loading(h.OmegaH)}. It was computed on the respondents the factor solution was fitted on: a one-factor minimum-residual model of the correlations among the {sf.FullSolution.FactorCount} oblique factors gave second-order loadings {string.Join(", ", h.SecondOrderLoadings.Select(Loading))}; the Schmid–Leiman transformation turned these into general-factor loadings of the items; and the squared sum of those loadings was divided by the sum of all entries of the item correlation matrix (reverse-keyed items reversed)."));
+            refs.Add(MethodReferences.SchmidLeiman1957);
+            refs.Add(MethodReferences.Zinbarg2005);
+        }
         var rows = sf.Reliability.Select(x => new TableRow(
         [
             x.Scale, x.FormLabel, Integer(x.Items), Integer(x.Respondents), Loading(x.Alpha),

@@ -48,6 +48,8 @@ public static class MethodReferences
     public const string Levy1967 = "Levy, P. (1967). The correction for spurious correlation in the evaluation of short-form tests. Journal of Clinical Psychology, 23(1), 84–86.";
     public const string Mahalanobis1936 = "Mahalanobis, P. C. (1936). On the generalised distance in statistics. Proceedings of the National Institute of Sciences of India, 2(1), 49–55.";
     public const string MarsagliaTsang2000 = "Marsaglia, G., & Tsang, W. W. (2000). A simple method for generating gamma variables. ACM Transactions on Mathematical Software, 26(3), 363–372.";
+    public const string SchmidLeiman1957 = "Schmid, J., & Leiman, J. M. (1957). The development of hierarchical factor solutions. Psychometrika, 22(1), 53–61.";
+    public const string Zinbarg2005 = "Zinbarg, R. E., Revelle, W., Yovel, I., & Li, W. (2005). Cronbach's α, Revelle's β, and McDonald's ω_H: Their relations with each other and two alternative conceptualizations of reliability. Psychometrika, 70(1), 123–133.";
     public const string McDonald1999 = "McDonald, R. P. (1999). Test theory: A unified treatment. Lawrence Erlbaum.";
     public const string MeadeCraig2012 = "Meade, A. W., & Craig, S. B. (2012). Identifying careless responses in survey data. Psychological Methods, 17(3), 437–455.";
     public const string Pearson1896 = "Pearson, K. (1896). Mathematical contributions to the theory of evolution. III. Regression, heredity, and panmixia. Philosophical Transactions of the Royal Society of London A, 187, 253–318.";

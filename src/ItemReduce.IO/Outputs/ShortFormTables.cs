@@ -76,21 +76,29 @@ public static class ShortFormTables
     }
 
     /// <summary><c>reliability.csv</c>: scale, form, items, alpha, alpha_ci_low, alpha_ci_high, omega, plus sample details, and last
-    /// <c>omega_cfa</c>: composite reliability from the confirmatory loadings of the same form and sample (empty when not fitted).</summary>
+    /// <c>omega_cfa</c>: composite reliability from the confirmatory loadings of the same form and sample (empty when not fitted),
+    /// then <c>omega_h</c>: omega hierarchical of the whole item bank (<see cref="Core.Reliability.OmegaHierarchical"/>), a single
+    /// bank-level value repeated on every full-form row of the sample the factor solution was fitted on; empty on other rows and
+    /// when the solution has fewer than three oblique factors.</summary>
     public static string Reliability(ShortFormResult r, Core.Confirmatory.ConfirmatoryCheckResult? confirmatory = null)
     {
         var w = new SafeCsvWriter(["scale", "form", "items", "alpha", "alpha_ci_low", "alpha_ci_high", "omega",
-            "standardized_alpha", "sample", "respondents", "short_full_r", "short_full_r_observed", "omega_cfa"]);
+            "standardized_alpha", "sample", "respondents", "short_full_r", "short_full_r_observed", "omega_cfa", "omega_h"]);
         foreach (var row in r.Reliability)
         {
             w.AppendRow([Text(row.Scale), Text(row.FormLabel), Integer(row.Items), Number(row.Alpha, Decimals), Number(row.AlphaCiLow, Decimals),
                 Number(row.AlphaCiHigh, Decimals), Number(row.Omega, Decimals), Number(row.StandardizedAlpha, Decimals),
                 row.Sample.ToString().ToLowerInvariant(), Integer(row.Respondents), Number(row.ShortFullCorrelation, Decimals),
                 Number(row.ShortFullCorrelationObserved, Decimals),
-                Number(ConfirmatoryTables.CompositeReliability(confirmatory, row.Scale, row.Form, row.Sample), Decimals)]);
+                Number(ConfirmatoryTables.CompositeReliability(confirmatory, row.Scale, row.Form, row.Sample), Decimals),
+                Number(BankOmegaHierarchical(r, row), Decimals)]);
         }
         return w.ToString();
     }
+
+    /// <summary>The bank's omega hierarchical for full-form rows of the sample the factors were fitted on, else NaN (empty cell).</summary>
+    private static double BankOmegaHierarchical(ShortFormResult r, ReliabilityRow row) =>
+        r.OmegaHierarchical is { } h && row.Form == ScaleForm.Full && row.Sample != SampleRole.Holdout ? h.OmegaH : double.NaN;
 
     /// <summary><c>short-form-codebook.csv</c>: the codebook rows of the retained items — a valid codebook for the next collection.</summary>
     public static string ShortFormCodebook(IReadOnlyList<ItemDefinition> items, ShortFormResult r)

@@ -222,6 +222,14 @@ public static class SummaryJson
                 ["shortFullR"] = Num(x.ShortFullCorrelation),
             }).ToArray()),
             ["caution"] = ShortFormBuilder.ValidationCaution,
+            ["omegaHierarchical"] = sf.OmegaHierarchical is { } h
+                ? new JsonObject
+                {
+                    ["omegaH"] = Num(h.OmegaH),
+                    ["secondOrderLoadings"] = Nums(h.SecondOrderLoadings),
+                    ["totalVariance"] = Num(h.TotalVariance),
+                }
+                : null,
         };
     }
 

@@ -69,8 +69,20 @@ public class ConfirmatoryContractTests : IClassFixture<PipelineContractTests.Run
     public void Reliability_gains_omega_from_the_confirmatory_loadings()
     {
         var lines = Lines("reliability.csv");
-        Assert.Equal("omega_cfa", lines[0].Split(',')[^1]);
-        Assert.All(lines.Skip(1), l => Assert.InRange(double.Parse(l.Split(',')[^1], System.Globalization.CultureInfo.InvariantCulture), 0.3, 1.0));
+        // omega_cfa keeps its place (13th column); later columns are appended after it.
+        Assert.Equal("omega_cfa", lines[0].Split(',')[12]);
+        Assert.All(lines.Skip(1), l => Assert.InRange(double.Parse(l.Split(',')[12], System.Globalization.CultureInfo.InvariantCulture), 0.3, 1.0));
+        // omega_h (appended last): one bank-level value on the full-form rows of the fitting sample, empty on the others.
+        Assert.Equal("omega_h", lines[0].Split(',')[^1]);
+        var omegaH = lines.Skip(1).Select(l => l.Split(',')).Where(c => c[1] == "full").Select(c => c[^1]).Distinct().ToList();
+        if (Summary.GetProperty("shortForm").GetProperty("omegaHierarchical").ValueKind == System.Text.Json.JsonValueKind.Null)
+            Assert.All(lines.Skip(1), l => Assert.Equal("", l.Split(',')[^1]));
+        else
+        {
+            Assert.Single(omegaH);
+            Assert.InRange(double.Parse(omegaH[0], System.Globalization.CultureInfo.InvariantCulture), 0.0, 1.0);
+            Assert.All(lines.Skip(1).Select(l => l.Split(',')).Where(c => c[1] != "full"), c => Assert.Equal("", c[^1]));
+        }
     }
 
     [Fact]
