@@ -54,8 +54,12 @@ internal static class ShortFormPanel
             for (int b = 0; b < factors; b++) phi[a, b] = a == b ? 1.0 : 0.3;
         var spec = new FactorModelSpec
         {
-            ItemFactor = itemFactor, Loadings = loadings, ReverseKeyed = reverse, FactorCorrelations = phi,
-            Categories = 5, CategoryProbabilities = [0.08, 0.17, 0.30, 0.29, 0.16],
+            ItemFactor = itemFactor,
+            Loadings = loadings,
+            ReverseKeyed = reverse,
+            FactorCorrelations = phi,
+            Categories = 5,
+            CategoryProbabilities = [0.08, 0.17, 0.30, 0.29, 0.16],
         };
         string[] subscales = ["s1", "s2", "s3", "s4", "s5"];
         ResponseMatrixBuilder? builder = null;

@@ -64,9 +64,9 @@ internal sealed class ResponseRows
         for (int d = 0; d < 10; d++) _digitMissing[d] = missing.Contains(((char)('0' + d)).ToString());
         _digitCode = new short[p * 10];
         for (int j = 0; j < p; j++)
-        for (int d = 0; d < 10; d++)
-            _digitCode[j * 10 + d] = _digitMissing[d] ? ResponseMatrixBuilder.MissingCode
-                : d >= _min[j] && d <= _max[j] ? (short)(d - _min[j]) : OutOfScale; // ItemDefinition.InRange
+            for (int d = 0; d < 10; d++)
+                _digitCode[j * 10 + d] = _digitMissing[d] ? ResponseMatrixBuilder.MissingCode
+                    : d >= _min[j] && d <= _max[j] ? (short)(d - _min[j]) : OutOfScale; // ItemDefinition.InRange
     }
 
     /// <summary>Reads every remaining row into the builder; throws the first error in the file.</summary>

@@ -90,7 +90,11 @@ public static class ScreeningStudy
             for (int b = 0; b < k; b++) phi[a, b] = a == b ? 1.0 : 0.3;
         return new FactorModelSpec
         {
-            ItemFactor = f, Loadings = l, FactorCorrelations = phi, Categories = c.Categories, ReverseKeyed = rev,
+            ItemFactor = f,
+            Loadings = l,
+            FactorCorrelations = phi,
+            Categories = c.Categories,
+            ReverseKeyed = rev,
             CategoryProbabilities = c.Skewed ? Skewed(c.Categories) : Symmetric(c.Categories),
         };
     }

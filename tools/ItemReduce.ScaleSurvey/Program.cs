@@ -40,8 +40,12 @@ for (int a = 0; a < factors; a++)
         phi[a, b] = a == b ? 1.0 : 0.3;
 var spec = new FactorModelSpec
 {
-    ItemFactor = itemFactor, Loadings = loadings, ReverseKeyed = reverse, FactorCorrelations = phi,
-    Categories = 5, CategoryProbabilities = [0.08, 0.17, 0.30, 0.29, 0.16],
+    ItemFactor = itemFactor,
+    Loadings = loadings,
+    ReverseKeyed = reverse,
+    FactorCorrelations = phi,
+    Categories = 5,
+    CategoryProbabilities = [0.08, 0.17, 0.30, 0.29, 0.16],
 };
 
 var inv = CultureInfo.InvariantCulture;

@@ -100,10 +100,18 @@ public static class ConfirmatoryFactorAnalysis
         Warn(warnings, converged, iterations, names, factorNames, estimates, psi, covariance is null);
         return new ConfirmatoryResult
         {
-            Items = names, Factors = [.. factorNames], ItemFactor = [.. itemFactor],
+            Items = names,
+            Factors = [.. factorNames],
+            ItemFactor = [.. itemFactor],
             Estimator = patterns.Complete ? ConfirmatoryEstimator.MaximumLikelihood : ConfirmatoryEstimator.FullInformation,
-            Converged = converged, Iterations = iterations, RespondentRows = patterns.RowIndex, Estimates = estimates,
-            UniqueVariances = psi, CompositeReliability = omega, Fit = fit, Warnings = warnings,
+            Converged = converged,
+            Iterations = iterations,
+            RespondentRows = patterns.RowIndex,
+            Estimates = estimates,
+            UniqueVariances = psi,
+            CompositeReliability = omega,
+            Fit = fit,
+            Warnings = warnings,
         };
     }
 

@@ -92,8 +92,16 @@ public static class SurveyPipeline
         }
         var result = new PipelineResult
         {
-            Prepared = prepared, Settings = settings, Screening = screening, Analysed = analysed, ExcludedAfterScreening = lateExcluded,
-            Dimensions = dims, FactorsUsed = k, ShortForm = shortForm, Confirmatory = confirmatory, Warnings = warnings,
+            Prepared = prepared,
+            Settings = settings,
+            Screening = screening,
+            Analysed = analysed,
+            ExcludedAfterScreening = lateExcluded,
+            Dimensions = dims,
+            FactorsUsed = k,
+            ShortForm = shortForm,
+            Confirmatory = confirmatory,
+            Warnings = warnings,
         };
         if (settings.Scope != PipelineScope.All || settings.SelfCheck.Surveys == 0) return result;
         long cells = (long)prepared.Scored.RespondentCount * analysed.ItemCount;

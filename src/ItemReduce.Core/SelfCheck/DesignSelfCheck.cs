@@ -132,8 +132,12 @@ public static class DesignSelfCheck
                 $"{reduced} item(s) had a fitted common variance above {MaxCommonVariance}; their loadings were scaled down to it for the simulated surveys.")));
         var spec = new FactorModelSpec
         {
-            ItemFactor = itemFactor, Loadings = loadings, Pattern = pattern, FactorCorrelations = (double[,])phi.Clone(),
-            ItemScales = scales, ReverseKeyed = data.Items.Select(i => i.Reverse).ToArray(),
+            ItemFactor = itemFactor,
+            Loadings = loadings,
+            Pattern = pattern,
+            FactorCorrelations = (double[,])phi.Clone(),
+            ItemScales = scales,
+            ReverseKeyed = data.Items.Select(i => i.Reverse).ToArray(),
         };
         var settings = new FactorModelSimulator.Settings(main.Prepared.Scored.RespondentCount, 0, ItemMissingRates: missing,
             Items: data.Items.ToArray());
@@ -248,9 +252,20 @@ public static class DesignSelfCheck
 
         return new SelfCheckResult
         {
-            Requested = outcomes.Length, Completed = ok.Count, Stopped = stopped, Respondents = n, Items = p, PlantedEach = plantedEach,
-            FalseFlags = falseFlags, Recall = recall, FittedFactors = fitted, DimensionRecovery = recovery, DimensionPicks = picks,
-            Stability = stability, Scales = scales, Warnings = warnings,
+            Requested = outcomes.Length,
+            Completed = ok.Count,
+            Stopped = stopped,
+            Respondents = n,
+            Items = p,
+            PlantedEach = plantedEach,
+            FalseFlags = falseFlags,
+            Recall = recall,
+            FittedFactors = fitted,
+            DimensionRecovery = recovery,
+            DimensionPicks = picks,
+            Stability = stability,
+            Scales = scales,
+            Warnings = warnings,
         };
     }
 }

@@ -84,7 +84,8 @@ public static class ShortFormBuilder
                 var (primary, secondary, pf) = ItemJudging.PrimaryAndSecondary(full, j);
                 var reasons = ItemJudging.Flags(full, j, sc.Home, sc.Declared, rel.ItemTotalCorrelations[a], rel.AlphaIfDeleted[a], rel.Alpha, o.Thresholds);
                 flags[j] = new ItemFlags(j, sc.Name, sc.Home, pf, primary, secondary, full.Communalities[j],
-                    rel.ItemTotalCorrelations[a], rel.AlphaIfDeleted[a], rel.Alpha, reasons) { HomeLoading = full.Pattern[j, sc.Home] };
+                    rel.ItemTotalCorrelations[a], rel.AlphaIfDeleted[a], rel.Alpha, reasons)
+                { HomeLoading = full.Pattern[j, sc.Home] };
             }
         }
 

@@ -117,48 +117,48 @@ public static class FactorModelSimulator
             switch (careless[i])
             {
                 case CarelessKind.StraightLine when rawValues is not null:
-                {
-                    // The same position on every item's scale (the same box when the scales are alike).
-                    double q = rng.NextDouble();
-                    for (int j = 0; j < p; j++) values[o + j] = rawValues[j][(int)(q * rawValues[j].Length)];
-                    break;
-                }
+                    {
+                        // The same position on every item's scale (the same box when the scales are alike).
+                        double q = rng.NextDouble();
+                        for (int j = 0; j < p; j++) values[o + j] = rawValues[j][(int)(q * rawValues[j].Length)];
+                        break;
+                    }
                 case CarelessKind.UniformRandom when rawValues is not null:
                     for (int j = 0; j < p; j++) values[o + j] = rawValues[j][rng.NextInt(rawValues[j].Length)];
                     break;
                 case CarelessKind.WideAlternation or CarelessKind.NarrowAlternation when rawValues is not null:
-                {
-                    bool wide = careless[i] == CarelessKind.WideAlternation;
-                    bool startHigh = rng.NextInt(2) == 1;
-                    for (int j = 0; j < p; j++)
                     {
-                        var r = rawValues[j];
-                        int mid = (r.Length - 1) / 2;
-                        int lo = wide ? 0 : Math.Max(0, mid - (r.Length % 2 == 1 ? 1 : 0)), hi = wide ? r.Length - 1 : Math.Min(r.Length - 1, mid + 1);
-                        values[o + j] = (j % 2 == 0) == startHigh ? r[hi] : r[lo];
+                        bool wide = careless[i] == CarelessKind.WideAlternation;
+                        bool startHigh = rng.NextInt(2) == 1;
+                        for (int j = 0; j < p; j++)
+                        {
+                            var r = rawValues[j];
+                            int mid = (r.Length - 1) / 2;
+                            int lo = wide ? 0 : Math.Max(0, mid - (r.Length % 2 == 1 ? 1 : 0)), hi = wide ? r.Length - 1 : Math.Min(r.Length - 1, mid + 1);
+                            values[o + j] = (j % 2 == 0) == startHigh ? r[hi] : r[lo];
+                        }
+                        break;
                     }
-                    break;
-                }
                 case CarelessKind.StraightLine:
-                {
-                    double v = c > 0 ? 1 + rng.NextInt(c) : rng.NextGaussian();
-                    for (int j = 0; j < p; j++) values[o + j] = v;
-                    break;
-                }
+                    {
+                        double v = c > 0 ? 1 + rng.NextInt(c) : rng.NextGaussian();
+                        for (int j = 0; j < p; j++) values[o + j] = v;
+                        break;
+                    }
                 case CarelessKind.UniformRandom:
                     for (int j = 0; j < p; j++) values[o + j] = c > 0 ? 1 + rng.NextInt(c) : 3 * (2 * rng.NextDouble() - 1);
                     break;
                 case CarelessKind.WideAlternation:
                 case CarelessKind.NarrowAlternation:
-                {
-                    // Wide: 1 and c. Narrow: one category either side of the midpoint, rounded outwards.
-                    double mid = (1 + c) / 2.0;
-                    bool wide = careless[i] == CarelessKind.WideAlternation;
-                    double lo = wide ? 1 : Math.Floor(mid - 0.5), hi = wide ? c : Math.Ceiling(mid + 0.5);
-                    bool startHigh = rng.NextInt(2) == 1;
-                    for (int j = 0; j < p; j++) values[o + j] = (j % 2 == 0) == startHigh ? hi : lo;
-                    break;
-                }
+                    {
+                        // Wide: 1 and c. Narrow: one category either side of the midpoint, rounded outwards.
+                        double mid = (1 + c) / 2.0;
+                        bool wide = careless[i] == CarelessKind.WideAlternation;
+                        double lo = wide ? 1 : Math.Floor(mid - 0.5), hi = wide ? c : Math.Ceiling(mid + 0.5);
+                        bool startHigh = rng.NextInt(2) == 1;
+                        for (int j = 0; j < p; j++) values[o + j] = (j % 2 == 0) == startHigh ? hi : lo;
+                        break;
+                    }
                 default:
                     for (int a = 0; a < k; a++) z[a] = rng.NextGaussian();
                     for (int a = 0; a < k; a++)

@@ -144,7 +144,8 @@ public static partial class AppendixBuilder
         [
             new ChartSeries("Inside the half-peak-density region (D² ≤ 2 ln 2)", xs, hp.Select(h => h.ShareInsideHalfPeak).ToList(), SeriesStyle.LineAndMarkers),
             new ChartSeries(Inv($"Beyond the χ² cutoff (p = {s.Options.CutoffP})"), xs, hp.Select(h => h.ShareBeyondCutoff).ToList(), SeriesStyle.Dashed),
-        ]) { Marker = new VerticalMarker(p, Inv($"this survey: {p} items")), LogY = true };
+        ])
+        { Marker = new VerticalMarker(p, Inv($"this survey: {p} items")), LogY = true };
         var k1 = hp.FirstOrDefault(h => h.Items == 1);
         var k2 = hp.FirstOrDefault(h => h.Items == 2);
         var k9 = hp.FirstOrDefault(h => h.Items == 9);
@@ -174,7 +175,8 @@ public static partial class AppendixBuilder
             b.Figure(Inv($"{(robust ? "Robust" : "Classical")} squared distances of the {n} respondents who answered all {p} items against ") + law + ". " +
                      "Points on the diagonal behave as that law expects; points far above it at the right are the atypical respondents." + thinned,
                 new ChartSpec(ChartKind.Scatter, robust ? "Reference quantile" : Inv($"χ²({p}) quantile"), robust ? "Robust D²" : "D²",
-                    [new ChartSeries("Respondents", q, d2, SeriesStyle.Markers)]) { IdentityLine = true });
+                    [new ChartSeries("Respondents", q, d2, SeriesStyle.Markers)])
+                { IdentityLine = true });
         }
 
         var flagged = s.Respondents.Where(x => x.Flagged).Take(FlaggedTableLimit + 1).ToList();

@@ -53,9 +53,25 @@ public static class LatexText
     {
         var map = new Dictionary<char, string>
         {
-            ['≥'] = @"\geq", ['≤'] = @"\leq", ['≠'] = @"\neq", ['≈'] = @"\approx", ['±'] = @"\pm", ['×'] = @"\times",
-            ['·'] = @"\cdot", ['→'] = @"\rightarrow", ['∞'] = @"\infty", ['√'] = @"\surd", ['∑'] = @"\sum",
-            ['²'] = "^{2}", ['³'] = "^{3}", ['¹'] = "^{1}", ['⁰'] = "^{0}", ['′'] = "'", ['₀'] = "_{0}", ['₁'] = "_{1}", ['₂'] = "_{2}",
+            ['≥'] = @"\geq",
+            ['≤'] = @"\leq",
+            ['≠'] = @"\neq",
+            ['≈'] = @"\approx",
+            ['±'] = @"\pm",
+            ['×'] = @"\times",
+            ['·'] = @"\cdot",
+            ['→'] = @"\rightarrow",
+            ['∞'] = @"\infty",
+            ['√'] = @"\surd",
+            ['∑'] = @"\sum",
+            ['²'] = "^{2}",
+            ['³'] = "^{3}",
+            ['¹'] = "^{1}",
+            ['⁰'] = "^{0}",
+            ['′'] = "'",
+            ['₀'] = "_{0}",
+            ['₁'] = "_{1}",
+            ['₂'] = "_{2}",
         };
         // Greek letters (U+03B1–U+03C9 and the capitals that differ from Latin ones), by name.
         string[] lower = ["alpha", "beta", "gamma", "delta", "epsilon", "zeta", "eta", "theta", "iota", "kappa", "lambda", "mu", "nu", "xi",

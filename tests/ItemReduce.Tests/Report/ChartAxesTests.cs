@@ -38,7 +38,8 @@ public class ChartAxesTests
     {
         // Shares of simulated surveys lie in [0, 1]; with every share 1 the automatic range would centre on 1.
         var spec = new ChartSpec(ChartKind.Scatter, "item", "share", [new ChartSeries("a", [1, 2], [1, 1], SeriesStyle.Markers),
-            new ChartSeries("b", [3], [1], SeriesStyle.Markers)]) { YLimits = (0, 1.05) };
+            new ChartSeries("b", [3], [1], SeriesStyle.Markers)])
+        { YLimits = (0, 1.05) };
         using var plot = ChartPainter.Build(spec);
         var limits = plot.Axes.GetLimits();
         Assert.Equal(0, limits.Bottom, 1e-12);

@@ -16,8 +16,11 @@ public class OrdinalLikelihoodRatioTests
         // affects the null and the alternative alike.
         var spec = new FactorModelSpec
         {
-            ItemFactor = [0, 0, 1, 1], Loadings = [0.5, 0.8, 0.6, 0.7], Categories = 3,
-            FactorCorrelations = new[,] { { 1.0, 0.3 }, { 0.3, 1.0 } }, CategoryProbabilities = [1, 2, 4],
+            ItemFactor = [0, 0, 1, 1],
+            Loadings = [0.5, 0.8, 0.6, 0.7],
+            Categories = 3,
+            FactorCorrelations = new[,] { { 1.0, 0.3 }, { 0.3, 1.0 } },
+            CategoryProbabilities = [1, 2, 4],
         };
         var lr = new OrdinalLikelihoodRatio(spec);
         var (_, rows) = ReferenceData.Table("Screening", "ordinal_likelihood.csv");

@@ -279,7 +279,7 @@ public class CompactStorageTests
     {
         // Planted factor model with careless respondents (our simulator), dense vs compact.
         var s = FactorModelSimulator.Generate(FactorModelSpec.Simple(3, 4, 0.7, 0.3) with
-            { ReverseKeyed = Enumerable.Range(0, 12).Select(j => j % 4 == 1).ToArray() },
+        { ReverseKeyed = Enumerable.Range(0, 12).Select(j => j % 4 == 1).ToArray() },
             new FactorModelSimulator.Settings(800, 9, 0.03, 5, 5));
         var dense = s.Responses;
         var b = new ResponseMatrixBuilder(dense.Items);

@@ -19,7 +19,9 @@ public class ParallelAnalysisTests
         // Finite-size corrections are O(σ), so we require edge − 3σ ≤ mean ≤ edge + 0.5σ.
         var reference = ParallelAnalysis.NormalReference(n, p, new ParallelAnalysisOptions
         {
-            Replicates = reps, Seed = 42, IncludeReducedMatrix = false,
+            Replicates = reps,
+            Seed = 42,
+            IncludeReducedMatrix = false,
         });
         double edge = Math.Pow(1 + Math.Sqrt((double)p / n), 2);
         double sigma = (Math.Sqrt(n) + Math.Sqrt(p)) * Math.Pow(1 / Math.Sqrt(n) + 1 / Math.Sqrt(p), 1.0 / 3) / n;

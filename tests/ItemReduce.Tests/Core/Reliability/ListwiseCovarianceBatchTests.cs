@@ -148,8 +148,10 @@ public class ListwiseCovarianceBatchTests
         // selection and holdout samples, bit for bit (invented two-factor survey from the planted-model simulator).
         var spec = new FactorModelSpec
         {
-            ItemFactor = [0, 0, 0, 0, 0, 1, 1, 1, 1, 1], Loadings = [.7, .65, .6, .55, .5, .7, .65, .6, .55, .5],
-            ReverseKeyed = [false, false, true, false, false, false, true, false, false, false], Categories = 5,
+            ItemFactor = [0, 0, 0, 0, 0, 1, 1, 1, 1, 1],
+            Loadings = [.7, .65, .6, .55, .5, .7, .65, .6, .55, .5],
+            ReverseKeyed = [false, false, true, false, false, false, true, false, false, false],
+            Categories = 5,
         };
         var survey = FactorModelSimulator.Generate(spec, new FactorModelSimulator.Settings(Respondents: 3000, Seed: 11, MissingRate: 0.03,
             SubscaleNames: ["a", "b"]));

@@ -15,7 +15,8 @@ public class DesignMatchedGeneratorTests
 
     private static FactorModelSpec Spec() => new()
     {
-        ItemFactor = [0, 0, 1], Loadings = [0, 0, 0],
+        ItemFactor = [0, 0, 1],
+        Loadings = [0, 0, 0],
         Pattern = new double[,] { { 0.7, 0.0 }, { 0.6, 0.2 }, { 0.0, 0.8 } },
         FactorCorrelations = new double[,] { { 1, 0.4 }, { 0.4, 1 } },
         ItemScales =

@@ -23,7 +23,8 @@ public class DesignSelfCheckTests
     {
         var spec = FactorModelSpec.Simple(2, 5, 0.7, 0.3, 5) with
         {
-            CategoryProbabilities = [0.1, 0.2, 0.3, 0.25, 0.15], Loadings = [0.8, 0.7, 0.6, 0.5, 0.4, 0.8, 0.7, 0.6, 0.5, 0.4],
+            CategoryProbabilities = [0.1, 0.2, 0.3, 0.25, 0.15],
+            Loadings = [0.8, 0.7, 0.6, 0.5, 0.4, 0.8, 0.7, 0.6, 0.5, 0.4],
         };
         var s = FactorModelSimulator.Generate(spec, new FactorModelSimulator.Settings(240, 31, 0.03, StraightLiners: 2, RandomResponders: 2));
         var settings = new PipelineSettings
@@ -84,7 +85,10 @@ public class DesignSelfCheckTests
         var spec = new FactorModelSpec
         {
             ItemFactor = Enumerable.Range(0, p).Select(j => Enumerable.Range(0, k).MaxBy(f => Math.Abs(pattern[j, f]))).ToArray(),
-            Loadings = new double[p], Pattern = pattern, FactorCorrelations = sol.FactorCorrelations, ItemScales = scales,
+            Loadings = new double[p],
+            Pattern = pattern,
+            FactorCorrelations = sol.FactorCorrelations,
+            ItemScales = scales,
             ReverseKeyed = data.Items.Select(i => i.Reverse).ToArray(),
         };
         int n = main.Prepared.Scored.RespondentCount, each = Math.Max(1, (int)Math.Round(0.01 * n));

@@ -142,7 +142,7 @@ public class ShortFormBuilderTests
     {
         // Our selection rule (ItemSelection): target 4, 2 of 8 reverse-keyed → round(4 × .25) = 1 reverse item.
         var items = Enumerable.Range(0, 8).Select(j => new ItemFlags(j, "S", 0, 0, 0.8 - 0.05 * j, 0.05, 0.5, 0.5, 0.7, 0.8, [])
-            { HomeLoading = 0.8 - 0.05 * j }).ToList();
+        { HomeLoading = 0.8 - 0.05 * j }).ToList();
         var reverse = Enumerable.Range(0, 8).Select(j => j >= 6).ToList();
         var (chosen, forced) = ItemSelection.Choose(items, reverse, 4, balance: true);
         Assert.Equal([0, 1, 2, 6], chosen);
@@ -154,7 +154,8 @@ public class ShortFormBuilderTests
     public void Too_few_clean_items_are_topped_up_with_flagged_ones_and_reported()
     {
         var items = Enumerable.Range(0, 5).Select(j => new ItemFlags(j, "S", 0, 0, 0.6, 0.1, 0.4, 0.5, 0.7, 0.8,
-            j < 2 ? [] : [ItemReasonCodes.WeakItemTotal]) { HomeLoading = 0.7 - 0.1 * j }).ToList();
+            j < 2 ? [] : [ItemReasonCodes.WeakItemTotal])
+        { HomeLoading = 0.7 - 0.1 * j }).ToList();
         var (chosen, forced) = ItemSelection.Choose(items, Enumerable.Repeat(false, 5).ToList(), 4, balance: true);
         Assert.Equal([0, 1, 2], chosen);
         Assert.Equal([2], forced);
