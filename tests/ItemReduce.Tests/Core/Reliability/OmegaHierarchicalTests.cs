@@ -1,3 +1,4 @@
+using ItemReduce.Tests.Support;
 using ItemReduce.Core.Reliability;
 using ItemReduce.Tests.Core.Factoring;
 
@@ -12,12 +13,12 @@ public class OmegaHierarchicalTests
     {
         // Expected: make_omega_hierarchical_reference.py — scipy.optimize.least_squares one-factor ULS fit to Φ,
         // numpy g = Pγ and (Σg)² / 1ᵀR1.
-        var pattern = ReferenceCsv.Matrix(Area, "omegah_pattern.csv");
-        var phi = ReferenceCsv.Matrix(Area, "omegah_phi.csv");
-        var r = ReferenceCsv.Matrix(Area, "omegah_correlation.csv");
-        var e = ReferenceCsv.Table(Area, "omegah_expected.csv");
-        var gamma = ReferenceCsv.Vector(Area, "omegah_gamma_scipy.csv");
-        var general = ReferenceCsv.Vector(Area, "omegah_general_numpy.csv");
+        var pattern = ReferenceData.Matrix(Area, "omegah_pattern.csv");
+        var phi = ReferenceData.Matrix(Area, "omegah_phi.csv");
+        var r = ReferenceData.Matrix(Area, "omegah_correlation.csv");
+        var e = ReferenceData.Columns(Area, "omegah_expected.csv");
+        var gamma = ReferenceData.Vector(Area, "omegah_gamma_scipy.csv");
+        var general = ReferenceData.Vector(Area, "omegah_general_numpy.csv");
 
         var res = OmegaHierarchical.Compute(pattern, phi, r);
 
@@ -66,9 +67,9 @@ public class OmegaHierarchicalTests
     [Fact]
     public void Reflecting_a_factor_leaves_omega_h_unchanged()
     {
-        var pattern = ReferenceCsv.Matrix(Area, "omegah_pattern.csv");
-        var phi = ReferenceCsv.Matrix(Area, "omegah_phi.csv");
-        var r = ReferenceCsv.Matrix(Area, "omegah_correlation.csv");
+        var pattern = ReferenceData.Matrix(Area, "omegah_pattern.csv");
+        var phi = ReferenceData.Matrix(Area, "omegah_phi.csv");
+        var r = ReferenceData.Matrix(Area, "omegah_correlation.csv");
         var before = OmegaHierarchical.Compute(pattern, phi, r);
         var p2 = (double[,])pattern.Clone();
         var phi2 = (double[,])phi.Clone();
@@ -76,7 +77,7 @@ public class OmegaHierarchicalTests
         for (int f = 0; f < 4; f++) if (f != 1) { phi2[f, 1] = -phi2[f, 1]; phi2[1, f] = -phi2[1, f]; }
         var after = OmegaHierarchical.Compute(p2, phi2, r);
         Assert.Equal(before.OmegaH, after.OmegaH, 1e-8);
-        Assert.Equal(pattern[0, 0], ReferenceCsv.Matrix(Area, "omegah_pattern.csv")[0, 0]); // inputs not changed
+        Assert.Equal(pattern[0, 0], ReferenceData.Matrix(Area, "omegah_pattern.csv")[0, 0]); // inputs not changed
     }
 
     [Fact]
