@@ -154,7 +154,7 @@ public static class RespondentScreening
         if (randomRecall is not null) warnings.Add("random-answering-partly-detectable", randomRecall);
         string rule = Describe(options, useRobust, runLimit, alternatingLimit, runLimits, robust.RowsUsed, p, evenOdd, calibration);
         if (randomRecall is not null) rule += " " + randomRecall;
-        var halfPeak = HalfPeakRegion.Compute(Math.Max(p, 20), options.CutoffP);
+        var halfPeak = CentreShareByItems.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample,
             runLimit, alternatingLimit);
     }

@@ -96,7 +96,7 @@ public sealed record RobustEstimatorDetails(
 /// <param name="DistanceRule">"robust" or "classical": which distance produced the distance flags.</param>
 /// <param name="RuleDescription">Plain-English description of the rules, with the caution that flags are for human review.</param>
 /// <param name="Robust">The robust fit.</param>
-/// <param name="HalfPeakRegion">Figure data for k = 1 .. max(p, 20).</param>
+/// <param name="CentreShareByItems">Figure data for k = 1 .. max(p, 20).</param>
 /// <param name="Warnings">Recoverable problems, in plain English.</param>
 /// <param name="Options">The options used.</param>
 /// <param name="SmallSampleFallback">True when there were fewer than <see cref="RespondentScreening.SmallSampleRatio"/>
@@ -113,7 +113,7 @@ public sealed record ScreeningResult(
     string DistanceRule,
     string RuleDescription,
     RobustEstimatorDetails Robust,
-    IReadOnlyList<HalfPeakRegionRow> HalfPeakRegion,
+    IReadOnlyList<CentreShareRow> CentreShareByItems,
     IReadOnlyList<AnalysisWarning> Warnings,
     ScreeningOptions Options,
     bool SmallSampleFallback = false,

@@ -138,7 +138,7 @@ public static partial class AppendixBuilder
             "A respondent may have several reasons, so counts can add up to more than the number flagged.");
 
         // Why a fixed radius fails.
-        var hp = s.HalfPeakRegion;
+        var hp = s.CentreShareByItems;
         var xs = hp.Select(h => (double)h.Items).ToList();
         var chart = new ChartSpec(ChartKind.Line, "Number of items answered (k)", "Share of respondents (log scale)",
         [

@@ -54,7 +54,7 @@ public static class SurveyJob
         if (result.Screening is { } s)
         {
             files.Add("respondent-flags.csv");
-            Write("centre-share-by-items.csv", ScreeningTables.CentreShare(s));
+            Write("centre-share-by-items.csv", ScreeningTables.CentreShareByItems(s));
         }
         log.Step("writing tables and summary");
         if (result.Dimensions is { } d)

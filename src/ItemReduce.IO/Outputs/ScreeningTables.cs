@@ -189,10 +189,10 @@ public static class ScreeningTables
     /// <c>centre-share-by-items.csv</c>: for k items, the share of a standardized normal sample inside the
     /// half-peak-density region and beyond the chi-square cutoff.
     /// </summary>
-    public static string CentreShare(ScreeningResult r)
+    public static string CentreShareByItems(ScreeningResult r)
     {
         var w = new SafeCsvWriter(["items", "share_inside_half_peak", "share_beyond_cutoff", "cutoff"]);
-        foreach (var h in r.HalfPeakRegion)
+        foreach (var h in r.CentreShareByItems)
             w.AppendRow([Integer(h.Items), Number(h.ShareInsideHalfPeak), Number(h.ShareBeyondCutoff), Number(h.Cutoff, Decimals)]);
         return w.ToString();
     }

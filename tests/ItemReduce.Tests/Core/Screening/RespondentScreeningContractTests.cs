@@ -34,7 +34,7 @@ public class RespondentScreeningContractTests
             Assert.True(x.Cutoff / r.Robust.ConsistencyFactor < ChiSquareTail.UpperQuantile(0.001, x.ItemsAnswered));
             Assert.Equal(0.001, BetaDistanceLaw.UpperTail(x.Cutoff / r.Robust.ConsistencyFactor, x.ItemsAnswered, r.Robust.SupportSize), 1e-9);
         });
-        Assert.Equal(20, r.HalfPeakRegion.Count); // max(p = 12, 20)
+        Assert.Equal(20, r.CentreShareByItems.Count); // max(p = 12, 20)
         Assert.Contains("human review", r.RuleDescription);
         Assert.Contains("not automatic deletion", r.RuleDescription);
     }

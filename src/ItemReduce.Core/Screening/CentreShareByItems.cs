@@ -7,7 +7,7 @@ namespace ItemReduce.Core.Screening;
 /// <param name="ShareBeyondCutoff">P(χ²_k &gt; c_k) for the screening cutoff c_k; equals the cutoff probability
 /// for every k by construction, because the cutoff grows with k.</param>
 /// <param name="Cutoff">The screening cutoff c_k = χ²_k upper quantile at the cutoff probability.</param>
-public sealed record HalfPeakRegionRow(int Items, double ShareInsideHalfPeak, double ShareBeyondCutoff, double Cutoff);
+public sealed record CentreShareRow(int Items, double ShareInsideHalfPeak, double ShareBeyondCutoff, double Cutoff);
 
 /// <summary>
 /// Figure data for the "curse of dimensionality" argument: in a k-variate standard normal, D² follows χ²_k, so the
@@ -16,21 +16,21 @@ public sealed record HalfPeakRegionRow(int Items, double ShareInsideHalfPeak, do
 /// χ²_k quantile keeps the share beyond it at the chosen probability for every k. A fixed radius therefore cannot
 /// serve as an outlier rule across different numbers of items answered.
 /// </summary>
-public static class HalfPeakRegion
+public static class CentreShareByItems
 {
     /// <summary>Rows for k = 1 .. <paramref name="maxItems"/>.</summary>
     /// <param name="maxItems">Largest k, 1 ≤ maxItems ≤ 100000.</param>
     /// <param name="cutoffP">Upper-tail probability of the screening cutoff, 0 &lt; cutoffP &lt; 1.</param>
-    public static IReadOnlyList<HalfPeakRegionRow> Compute(int maxItems, double cutoffP)
+    public static IReadOnlyList<CentreShareRow> Compute(int maxItems, double cutoffP)
     {
         if (maxItems < 1 || maxItems > 100_000) throw new ArgumentOutOfRangeException(nameof(maxItems), maxItems, "allowed range is 1..100000");
         if (!(cutoffP > 0 && cutoffP < 1)) throw new ArgumentOutOfRangeException(nameof(cutoffP), cutoffP, "allowed range is (0, 1)");
         double radius2 = 2 * Math.Log(2);
-        var rows = new HalfPeakRegionRow[maxItems];
+        var rows = new CentreShareRow[maxItems];
         for (int k = 1; k <= maxItems; k++)
         {
             double c = ChiSquareTail.UpperQuantile(cutoffP, k);
-            rows[k - 1] = new HalfPeakRegionRow(k, ChiSquareTail.Cdf(radius2, k), ChiSquareTail.UpperTail(c, k), c);
+            rows[k - 1] = new CentreShareRow(k, ChiSquareTail.Cdf(radius2, k), ChiSquareTail.UpperTail(c, k), c);
         }
         return rows;
     }
