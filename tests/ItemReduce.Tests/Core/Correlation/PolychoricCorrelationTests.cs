@@ -14,7 +14,7 @@ public class PolychoricCorrelationTests
 
     private static (int[,] Table, double Rho) Table(string name)
     {
-        var f = Lines("polychoric_tables.csv").Skip(1).Select(l => l.Split(',')).Single(x => x[0] == name);
+        var f = Fields("polychoric_tables.csv").Single(x => x[0] == name);
         int rows = int.Parse(f[1]), cols = int.Parse(f[2]);
         var counts = f[3].Split(';').Select(int.Parse).ToArray();
         var t = new int[rows, cols];

@@ -18,7 +18,7 @@ public class CombinedRetentionTests
         // scipy.optimize.minimize (L-BFGS-B) of the same objective on benchmarks/results/.../training-datasets.csv;
         // the committed file came from the study program's Newton iterations.
         int f = CombinedRetention.FeatureNames.Length;
-        var rows = Lines("combined_fit.csv").Skip(1).Where(l => l.Length > 0).Select(l => l.Split(',')).ToList();
+        var rows = Fields("combined_fit.csv").ToList();
         double Value(string kind, int index) => Parse(rows.Single(r => r[0] == kind && r[1] == index.ToString(CultureInfo.InvariantCulture))[2]);
         Assert.Equal(CombinedRetentionModel.Ridge, Value("ridge", 0));
         for (int j = 0; j < f; j++)

@@ -17,6 +17,9 @@ internal static class DimensionsReferenceData
     /// <summary>Data lines of a fixture (comments and empty lines skipped; header included).</summary>
     public static string[] Lines(string file) => ReferenceData.Lines(Area, file);
 
+    /// <summary>Rows after the header, cells as text.</summary>
+    public static string[][] Fields(string file) => ReferenceData.Fields(Area, file);
+
     public static double[] Vector(string file) => ReferenceData.Vector(Area, file);
 
     public static double[,] Matrix(string file) => ReferenceData.Matrix(Area, file);

@@ -15,16 +15,13 @@ public class RetentionRulesReferenceTests
 {
     private static double[] Split(string s) => s.Split(';').Select(Parse).ToArray();
 
-    private static IEnumerable<string[]> Rows(string file) =>
-        Lines(file).Skip(1).Where(l => l.Length > 0).Select(l => l.Split(','));
-
     [Fact]
     public void Empirical_Kaiser_references_and_counts_match_numpy()
     {
         // numpy: l_j = max((1 + sqrt(p/n))^2 (p - sum_{i<j} lambda_i) / (p - j + 1), 1) (Braeken & van Assen 2017),
         // eigenvalues from np.linalg.eigvalsh; ekc_cases.csv.
         int cases = 0;
-        foreach (var f in Rows("ekc_cases.csv"))
+        foreach (var f in Fields("ekc_cases.csv"))
         {
             int n = int.Parse(f[1], CultureInfo.InvariantCulture);
             var eig = Split(f[2]);
@@ -51,7 +48,7 @@ public class RetentionRulesReferenceTests
         // scipy.stats.mannwhitneyu(x, y, alternative='less', method='asymptotic', use_continuity=True);
         // case 4 has ties (tie-corrected variance). mann_whitney_cases.csv.
         int cases = 0;
-        foreach (var f in Rows("mann_whitney_cases.csv"))
+        foreach (var f in Fields("mann_whitney_cases.csv"))
         {
             double expected = Parse(f[3]);
             double actual = MannWhitneyUTest.PValueLess(Split(f[1]), Split(f[2]));
@@ -68,7 +65,7 @@ public class RetentionRulesReferenceTests
         // margins are the given counts, by central differences of multivariate_normal.cdf; its square root is I_j
         // (information n I_j I_k with I_j = I_k). Includes 2/pi for a median split (a fact of the trade).
         int cases = 0;
-        foreach (var f in Rows("polychoric_information.csv"))
+        foreach (var f in Fields("polychoric_information.csv"))
         {
             var counts = Split(f[0]).Select(x => (long)x).ToArray();
             Assert.Equal(Parse(f[1]), PolychoricNullDistribution.InformationFactor(counts), 5e-6);
@@ -96,7 +93,7 @@ public class RetentionRulesReferenceTests
             eig[r] = ItemReduce.Core.LinearAlgebra.SymmetricEigensolver.Eigenvalues(ItemReduce.Core.LinearAlgebra.MatrixChecks.FromRowMajor(w, p));
         }
         var (mean, p95) = ParallelAnalysis.Summarise(eig, p, 95);
-        foreach (var f in Rows("wishart_sigma_eigen.csv"))
+        foreach (var f in Fields("wishart_sigma_eigen.csv"))
         {
             int k = int.Parse(f[0], CultureInfo.InvariantCulture) - 1;
             // Tolerances: a few Monte-Carlo standard errors of two independent 20,000-replicate runs.
@@ -188,7 +185,7 @@ public class RetentionRulesReferenceTests
         // with arbitrary loadings.
         var matrices = new[] { Matrix("iris_correlation.csv"), null };
         int cases = 0;
-        foreach (var f in Rows("hull_caf.csv"))
+        foreach (var f in Fields("hull_caf.csv"))
         {
             int c = int.Parse(f[0], CultureInfo.InvariantCulture), m = int.Parse(f[1], CultureInfo.InvariantCulture);
             if (c == 1) continue; // the second case's matrix is not stored; iris covers the computation
@@ -212,7 +209,7 @@ public class RetentionRulesReferenceTests
         // numpy implementation of the selection steps (hull_select.csv): monotone fit, upper convex boundary,
         // scree-test values st and the chosen count.
         int cases = 0;
-        foreach (var f in Rows("hull_select.csv"))
+        foreach (var f in Fields("hull_select.csv"))
         {
             var fit = Split(f[1]);
             var par = Split(f[2]).Select(x => (int)x).ToArray();
