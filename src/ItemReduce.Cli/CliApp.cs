@@ -1,9 +1,10 @@
+using ItemReduce.Application.Summary;
 using System.CommandLine;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.IO;
-using ItemReduce.IO.Jobs;
+using ItemReduce.Application.Jobs;
 using ItemReduce.IO.Outputs;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Cli;
 

@@ -1,3 +1,4 @@
+using ItemReduce.Application.Summary;
 using ItemReduce.IO.Outputs;
 using Spectre.Console;
 

@@ -54,12 +54,12 @@ public static class ConfirmatoryFactorAnalysis
         {
             int count = itemFactor.Count(x => x == f);
             if (count < 2 || (count == 2 && k == 1))
-                throw new ArgumentException($"Factor '{factorNames[f]}' has {count} item(s); it is not identified.", nameof(itemFactor));
+                throw new DataConditionException($"Factor '{factorNames[f]}' has {count} item(s); it is not identified.", nameof(itemFactor));
         }
         var model = new IndependentClustersModel([.. itemFactor], k);
         var patterns = MissingDataPatterns.From(data, items, listwise);
         int n = patterns.Respondents;
-        if (n < p + 1) throw new ArgumentException($"{n} respondents for {p} items; the model needs at least {p + 1}.", nameof(data));
+        if (n < p + 1) throw new DataConditionException($"{n} respondents for {p} items; the model needs at least {p + 1}.", nameof(data));
         var names = items.Select(j => data.Items[j].Name).ToArray();
         var warnings = new List<AnalysisWarning>();
 

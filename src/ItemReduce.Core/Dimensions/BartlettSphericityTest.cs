@@ -23,10 +23,10 @@ public static class BartlettSphericityTest
     {
         MatrixChecks.SymmetricFinite(r, nameof(r));
         int p = r.GetLength(0);
-        if (p < 2) throw new ArgumentException($"The sphericity test needs at least 2 items, got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"The sphericity test needs at least 2 items, got {p}.", nameof(r));
         double factor = respondents - 1 - (2.0 * p + 5) / 6;
         if (!(factor > 0))
-            throw new ArgumentException($"The sphericity test needs n − 1 − (2p + 5)/6 > 0; got n = {respondents}, p = {p}.", nameof(respondents));
+            throw new DataConditionException($"The sphericity test needs n − 1 − (2p + 5)/6 > 0; got n = {respondents}, p = {p}.", nameof(respondents));
         double chi = -factor * CholeskyDecomposition.LogDeterminant(r);
         int df = p * (p - 1) / 2;
         double pValue = SpecialFunctions.GammaUpperRegularized(df / 2.0, chi / 2);

@@ -39,7 +39,7 @@ public static class HullMethod
     {
         ArgumentNullException.ThrowIfNull(correlation);
         int p = correlation.GetLength(0);
-        if (p < 3) throw new ArgumentException($"The Hull method needs at least 3 items, got {p}.", nameof(correlation));
+        if (p < 3) throw new DataConditionException($"The Hull method needs at least 3 items, got {p}.", nameof(correlation));
         if (maxFactors < 1) throw new ArgumentException($"maxFactors must be ≥ 1, got {maxFactors}.", nameof(maxFactors));
         int j = Math.Min(maxFactors, ComparisonData.MaxFactors(p));
         loadings ??= new MinimumResidualFits(correlation).Loadings;

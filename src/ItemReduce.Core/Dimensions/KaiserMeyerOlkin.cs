@@ -21,7 +21,7 @@ public static class KaiserMeyerOlkin
     {
         MatrixChecks.SymmetricFinite(r, nameof(r));
         int p = r.GetLength(0);
-        if (p < 2) throw new ArgumentException($"KMO needs at least 2 items, got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"KMO needs at least 2 items, got {p}.", nameof(r));
         var inv = CholeskyDecomposition.Inverse(r);
         var rowR = new double[p];
         var rowQ = new double[p];

@@ -29,7 +29,7 @@ public static class VelicerMap
     {
         MatrixChecks.SymmetricFinite(r, nameof(r));
         int p = r.GetLength(0);
-        if (p < 2) throw new ArgumentException($"MAP needs at least 2 items, got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"MAP needs at least 2 items, got {p}.", nameof(r));
         var (values, vectors) = SymmetricEigensolver.Decompose(r);
         var c = (double[,])r.Clone();
         var curve = new List<double>();

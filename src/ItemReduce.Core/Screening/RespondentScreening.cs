@@ -43,8 +43,8 @@ public static class RespondentScreening
         ArgumentNullException.ThrowIfNull(options);
         options.Validate();
         int n = data.RespondentCount, p = data.ItemCount;
-        if (p < 1) throw new ArgumentException("Screening needs at least 1 item; got 0.", nameof(data));
-        if (n < 2) throw new ArgumentException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
+        if (p < 1) throw new DataConditionException("Screening needs at least 1 item; got 0.", nameof(data));
+        if (n < 2) throw new DataConditionException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new WarningList("screening");

@@ -40,7 +40,7 @@ public static class ShortFormBuilder
         Validate(data, factors, o);
         var (selRows, holdRows) = HoldoutSplit.Split(data.RespondentCount, o.HoldoutFraction, o.Seed);
         if (holdRows.Length > 0 && (selRows.Length < 10 || holdRows.Length < 10))
-            throw new ArgumentException($"Holdout fraction {o.HoldoutFraction} leaves {selRows.Length} selection and {holdRows.Length} holdout respondents; each part needs at least 10.", nameof(options));
+            throw new DataConditionException($"Holdout fraction {o.HoldoutFraction} leaves {selRows.Length} selection and {holdRows.Length} holdout respondents; each part needs at least 10.", nameof(options));
         var sel = holdRows.Length > 0 ? data.SelectRespondents(selRows) : data;
         var warnings = new WarningList("short-form");
 
@@ -196,7 +196,7 @@ public static class ShortFormBuilder
             warnings.AddRange(s.Warnings.Select(w => w with { Message = "Short-form refit: " + w.Message }));
             return s;
         }
-        catch (Exception e) when (e is ArgumentException or FactorNonConvergenceException)
+        catch (Exception e) when (e is DataConditionException or FactorNonConvergenceException)
         {
             warnings.Add("refit-failed", "Short-form refit failed: " + e.Message);
             return null;
@@ -244,7 +244,7 @@ public static class ShortFormBuilder
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(o);
         int p = data.ItemCount;
-        if (factors < 1 || factors >= p) throw new ArgumentException($"factors = {factors}; allowed range is 1..{p - 1} for {p} items.", nameof(factors));
+        if (factors < 1 || factors >= p) throw new DataConditionException($"factors = {factors}; allowed range is 1..{p - 1} for {p} items.", nameof(factors));
         const int minLen = ShortFormOptions.MinItemsPerScale, maxLen = ShortFormOptions.MaxItemsPerScale;
         if (o.ItemsPerScale is < minLen or > maxLen) throw new ArgumentException($"ItemsPerScale = {o.ItemsPerScale}; allowed {minLen}..{maxLen}.", nameof(o));
         if (o.ScaleTargets is { } t)

@@ -1,8 +1,9 @@
+using ItemReduce.Application.Summary;
 using System.Globalization;
 using System.Text.Json;
 using ItemReduce.Cli;
 using ItemReduce.IO.Outputs;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Settings;
 using ItemReduce.Tests.Support;
 using Spectre.Console;
 

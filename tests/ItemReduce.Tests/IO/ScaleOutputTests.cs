@@ -3,7 +3,7 @@ using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Screening;
 using ItemReduce.IO;
-using ItemReduce.IO.Appendix;
+using ItemReduce.Application.Appendix;
 using ItemReduce.IO.Outputs;
 using ItemReduce.Simulation;
 using static ItemReduce.IO.SafeCsvWriter;

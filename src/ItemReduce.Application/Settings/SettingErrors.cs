@@ -1,4 +1,7 @@
-namespace ItemReduce.IO.Settings;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>Every message about a setting's value is built here: where it was given (option, or plan file, line and
 /// key), the value, and what is allowed, in plain words.</summary>

@@ -1,4 +1,8 @@
-namespace ItemReduce.IO.Appendix;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
+using ItemReduce.Application.Settings;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>
 /// Full citations of the published methods the appendix may cite (APA style). The same citations

@@ -1,8 +1,12 @@
 using System.Globalization;
 using ItemReduce.Core;
 using ItemReduce.Core.Pipeline;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
+using ItemReduce.Application.Settings;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>All warnings of a run in one order (data, pipeline, screening, dimensions, short form, confirmatory, self-check), for the terminal,
 /// summary.json and the appendix alike.</summary>

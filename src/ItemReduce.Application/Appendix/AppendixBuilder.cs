@@ -5,14 +5,16 @@ using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
-using ItemReduce.IO.Jobs;
+using ItemReduce.Application.Jobs;
 using ItemReduce.IO.Outputs;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Settings;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
 
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>
 /// Turns a run's results into the methods appendix document (sections, numbered tables and figures,

@@ -6,8 +6,11 @@ using ItemReduce.IO.Outputs;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.Application.Settings;
 
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>Section 8: the design-matched self-check ("How stable are these decisions?").</summary>
 public static partial class AppendixBuilder

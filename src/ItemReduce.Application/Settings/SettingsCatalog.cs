@@ -5,8 +5,11 @@ using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.SelfCheck;
 using ItemReduce.Core.ShortForm;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>
 /// Every setting of every command, declared once. Defaults and ranges of analysis settings are read from the Core

@@ -1,7 +1,10 @@
 using System.Text.Json.Nodes;
-using ItemReduce.IO.Jobs;
+using ItemReduce.Application.Jobs;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>One row of the settings record: a setting the command uses, its value in effect and where it came from.</summary>
 /// <param name="Setting">The setting.</param>

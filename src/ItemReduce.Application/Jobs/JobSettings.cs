@@ -1,7 +1,10 @@
 using ItemReduce.Core.Pipeline;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Settings;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>
 /// Every setting of a job, built from the declared settings (<see cref="SettingsCatalog"/>) by

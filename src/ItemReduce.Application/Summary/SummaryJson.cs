@@ -5,11 +5,13 @@ using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
-using ItemReduce.IO.Jobs;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
 using static ItemReduce.IO.JsonOut;
+using ItemReduce.IO;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Outputs;
+namespace ItemReduce.Application.Summary;
 
 /// <summary>Builds <c>summary.json</c>: every count, decision and rule of the run, in a fixed key order.</summary>
 public static class SummaryJson

@@ -1,8 +1,12 @@
 using System.Globalization;
 using System.Text;
 using ItemReduce.Core.Pipeline;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
+using ItemReduce.Application.Settings;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>Plain-text data summary printed by <c>itemreduce check</c>.</summary>
 public static class DataCheckReport

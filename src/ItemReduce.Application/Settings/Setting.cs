@@ -1,6 +1,9 @@
 using System.Globalization;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>Commands a setting applies to.</summary>
 [Flags]

@@ -1,6 +1,9 @@
 using System.Globalization;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>A value given for a setting, typed (see <see cref="SettingKind"/>), with where it came from.</summary>
 /// <param name="Setting">The setting.</param>

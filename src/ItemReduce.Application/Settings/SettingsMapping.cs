@@ -5,9 +5,12 @@ using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
-using ItemReduce.IO.Jobs;
+using ItemReduce.Application.Jobs;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>What the terminal shows.</summary>
 /// <param name="Quiet">No progress and no warnings.</param>

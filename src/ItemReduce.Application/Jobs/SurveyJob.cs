@@ -1,7 +1,10 @@
 using ItemReduce.Core.Pipeline;
 using ItemReduce.IO.Outputs;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.Application.Settings;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>What a finished job produced: the pipeline result, the summary.json model, the results folder (full path)
 /// and the names of the files written there.</summary>

@@ -5,8 +5,11 @@ using ItemReduce.Core.ShortForm;
 using ItemReduce.IO.Outputs;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
+using ItemReduce.IO;
+using ItemReduce.Application.Summary;
+using ItemReduce.Application.Settings;
 
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>Section 7 (confirmatory factor analysis) and the item descriptives table.</summary>
 public static partial class AppendixBuilder
