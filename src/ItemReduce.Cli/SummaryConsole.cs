@@ -1,5 +1,4 @@
 using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 using Spectre.Console;
 
 namespace ItemReduce.Cli;

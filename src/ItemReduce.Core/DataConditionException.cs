@@ -7,7 +7,7 @@ namespace ItemReduce.Core;
 /// reason or a warning as it is. It derives from <see cref="ArgumentException"/> because the offending data arrive as
 /// an argument; <see cref="ArgumentException.ParamName"/> still names that argument for programmers.
 /// </summary>
-public sealed class DataConditionException : ArgumentException
+internal sealed class DataConditionException : ArgumentException
 {
     private readonly string _reason;
 

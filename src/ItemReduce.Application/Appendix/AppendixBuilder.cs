@@ -1,18 +1,16 @@
 using System.Globalization;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
-using ItemReduce.Application.Jobs;
 using ItemReduce.IO.Outputs;
-using ItemReduce.Application.Settings;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
-using ItemReduce.IO;
-using ItemReduce.Application.Summary;
 
 namespace ItemReduce.Application.Appendix;
 
@@ -21,7 +19,7 @@ namespace ItemReduce.Application.Appendix;
 /// cautions and references). Wording is ours; numbers follow common reporting conventions (two or three
 /// decimals, no leading zero for values bounded by 1).
 /// </summary>
-public static partial class AppendixBuilder
+internal static partial class AppendixBuilder
 {
     /// <summary>Loadings with absolute value below this are left blank in the loading table.</summary>
     public const double BlankBelow = 0.30;

@@ -1,10 +1,5 @@
 using System.Globalization;
 using System.Text;
-using ItemReduce.Core.Pipeline;
-using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
-using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Application.Jobs;
 

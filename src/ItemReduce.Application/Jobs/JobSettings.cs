@@ -1,8 +1,6 @@
-using ItemReduce.Core.Pipeline;
 using ItemReduce.Application.Settings;
+using ItemReduce.Core.Pipeline;
 using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Jobs;
 

@@ -1,9 +1,5 @@
 using System.Diagnostics;
 using System.Globalization;
-using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
-using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Application.Jobs;
 

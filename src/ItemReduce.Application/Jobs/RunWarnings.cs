@@ -1,10 +1,6 @@
 using System.Globalization;
 using ItemReduce.Core;
 using ItemReduce.Core.Pipeline;
-using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
-using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Application.Jobs;
 

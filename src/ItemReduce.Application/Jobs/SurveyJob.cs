@@ -1,8 +1,7 @@
-using ItemReduce.Core.Pipeline;
-using ItemReduce.IO.Outputs;
-using ItemReduce.IO;
 using ItemReduce.Application.Summary;
-using ItemReduce.Application.Settings;
+using ItemReduce.Core.Pipeline;
+using ItemReduce.IO;
+using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Jobs;
 

@@ -1,8 +1,5 @@
 using ItemReduce.Core.Pipeline;
 using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
-using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Application.Jobs;
 

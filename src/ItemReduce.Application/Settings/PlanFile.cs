@@ -1,8 +1,6 @@
 using System.Globalization;
 using System.Text.Json;
 using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Settings;
 

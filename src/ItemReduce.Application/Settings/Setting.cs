@@ -1,7 +1,5 @@
 using System.Globalization;
 using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Settings;
 

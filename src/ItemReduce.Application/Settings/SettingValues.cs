@@ -1,7 +1,4 @@
 using System.Globalization;
-using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Settings;
 
@@ -13,7 +10,7 @@ namespace ItemReduce.Application.Settings;
 public sealed record GivenSetting(Setting Setting, object Value, string Source, bool FromPlan);
 
 /// <summary>A value that does not fit its setting; the message says what is allowed.</summary>
-public sealed class SettingValueException(string allowed) : Exception(allowed)
+internal sealed class SettingValueException(string allowed) : Exception(allowed)
 {
     /// <summary>Allowed values in plain words.</summary>
     public string Allowed { get; } = allowed;

@@ -1,13 +1,11 @@
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Dimensions;
-using ItemReduce.Core.Randomness;
 using ItemReduce.Core.Factoring;
+using ItemReduce.Core.Randomness;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.SelfCheck;
 using ItemReduce.Core.ShortForm;
 using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Settings;
 

@@ -1,14 +1,10 @@
+using ItemReduce.Application.Jobs;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
-using ItemReduce.Core.Screening;
-using ItemReduce.Core.ShortForm;
-using ItemReduce.Application.Jobs;
 using ItemReduce.IO;
-using ItemReduce.Application.Summary;
-using ItemReduce.IO.Outputs;
 
 namespace ItemReduce.Application.Settings;
 

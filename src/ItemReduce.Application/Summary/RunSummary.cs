@@ -2,8 +2,6 @@ using System.Globalization;
 using System.Text;
 using System.Text.Json.Nodes;
 using ItemReduce.IO;
-using ItemReduce.IO.Outputs;
-using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Application.Summary;
 

@@ -1,5 +1,5 @@
-using System.Runtime.CompilerServices;
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
 
@@ -21,7 +21,7 @@ namespace ItemReduce.Core.Confirmatory;
 /// (s_ij − σ̂_ij)/√(s_ii s_jj), s from the saturated model. The independence model has free means and variances
 /// (its casewise estimates are the available-case moments). Robust versions: <see cref="SatorraBentlerScaling"/>.</para>
 /// </summary>
-public static class ConfirmatoryFactorAnalysis
+internal static class ConfirmatoryFactorAnalysis
 {
     /// <summary>Fisher-scoring iteration cap.</summary>
     public const int MaxIterations = 500;
@@ -368,19 +368,4 @@ public static class ConfirmatoryFactorAnalysis
     private static double Se(double[]? covariance, int q, int i) => covariance is null ? double.NaN : Math.Sqrt(covariance[i * q + i]);
 
     private static double[]? InvertOrNull(double[] a, int q) => SymmetricFactor.TryInvert(a, q, out var inv, out _) ? inv : null;
-
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static double[]? SolveOrNull(double[] a, int q, double[] b)
-    {
-        var inv = InvertOrNull(a, q);
-        if (inv is null) return null;
-        var x = new double[q];
-        for (int i = 0; i < q; i++)
-        {
-            double s = 0;
-            for (int j = 0; j < q; j++) s += inv[i * q + j] * b[j];
-            x[i] = s;
-        }
-        return x;
-    }
 }

@@ -16,7 +16,7 @@ public sealed record BartlettSphericityResult(double ChiSquare, int DegreesOfFre
 /// positive definite); the p-value is the regularised upper incomplete gamma Q(df/2, χ²/2), computed directly
 /// so that very small p-values keep their precision.
 /// </summary>
-public static class BartlettSphericityTest
+internal static class BartlettSphericityTest
 {
     /// <summary>Statistic, df and p-value for correlation matrix <paramref name="r"/> from <paramref name="respondents"/> respondents.</summary>
     public static BartlettSphericityResult Compute(double[,] r, int respondents)

@@ -8,7 +8,7 @@ namespace ItemReduce.Core.Factoring;
 /// (<see cref="FactorExtraction"/>), rotation (<see cref="FactorRotation"/>), sign/order alignment and
 /// labelling (<see cref="FactorAlignment"/>), Heywood and convergence checks, and ML fit statistics.
 /// </summary>
-public static class FactorAnalysis
+internal static class FactorAnalysis
 {
     /// <summary>
     /// Fits k common factors to the p × p correlation matrix <paramref name="correlation"/> of

@@ -1,7 +1,6 @@
-using System.Runtime.CompilerServices;
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Data;
-using ItemReduce.Core.Randomness;
 
 namespace ItemReduce.Core.Screening;
 
@@ -27,8 +26,6 @@ namespace ItemReduce.Core.Screening;
 /// </summary>
 public static class RespondentScreening
 {
-    private const ulong PurposeSubsample = 0x5343_5245_01;
-
     /// <summary>Screens every respondent.</summary>
     /// <param name="data">Analysed responses: reverse-scored, usable items only (the caller drops all-missing and
     /// zero-variance items); NaN = missing. Distances and even-odd consistency use these values.</param>

@@ -140,7 +140,7 @@ public static class ShortFormBuilder
 
     /// <summary>Declared subscales keep their items and get their home factor; undeclared items join the scale
     /// named after their primary factor's label.</summary>
-    private static List<ScaleDefinition> AssignScales(ResponseMatrix data, FactorSolution s, IReadOnlyList<string?> subscales)
+    private static List<ScaleDefinition> AssignScales(ResponseMatrix data, FactorSolution s, List<string?> subscales)
     {
         var list = new List<ScaleDefinition>();
         var byName = new Dictionary<string, ScaleDefinition>(StringComparer.Ordinal);
@@ -180,7 +180,7 @@ public static class ShortFormBuilder
             f.SecondaryLoading, f.Communality, f.ItemTotal, f.AlphaIfDeleted, f.ScaleAlpha);
     }
 
-    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, IReadOnlyList<string?> subscales, IReadOnlyList<string> names, ShortFormOptions o, WarningList warnings)
+    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, List<string?> subscales, List<string> names, ShortFormOptions o, WarningList warnings)
     {
         if (selected.Count <= k || selected.Count < 3)
         {
@@ -207,7 +207,7 @@ public static class ShortFormBuilder
     /// <paramref name="knownFull"/> gives their estimates, and each short form) come from one read of its rows; each set
     /// stays listwise on its own items.</summary>
     private static void AddRows(List<ReliabilityRow> rows, ResponseMatrix sample, List<ScaleDefinition> scales, List<ShortFormScale> chosen,
-        ResponseMatrix data, SampleRole role, double confidence, IReadOnlyList<ReliabilityEstimate>? knownFull)
+        ResponseMatrix data, SampleRole role, double confidence, List<ReliabilityEstimate>? knownFull)
     {
         string suffix = role == SampleRole.Holdout ? "-holdout" : "";
         var shortPositions = new List<int>[scales.Count];

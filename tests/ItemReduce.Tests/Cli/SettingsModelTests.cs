@@ -1,10 +1,9 @@
-using ItemReduce.Cli;
-using ItemReduce.Core.Correlation;
-using ItemReduce.Core.Pipeline;
-using ItemReduce.IO;
 using ItemReduce.Application.Appendix;
 using ItemReduce.Application.Jobs;
 using ItemReduce.Application.Settings;
+using ItemReduce.Cli;
+using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Pipeline;
 using ItemReduce.Report.Model;
 using ItemReduce.Tests.Support;
 

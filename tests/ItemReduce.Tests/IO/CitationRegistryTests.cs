@@ -1,7 +1,6 @@
 using System.Reflection;
 using System.Text.RegularExpressions;
 using ItemReduce.Application.Appendix;
-using Xunit;
 
 namespace ItemReduce.Tests.IO;
 

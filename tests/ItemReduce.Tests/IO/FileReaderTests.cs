@@ -1,7 +1,5 @@
 using ItemReduce.Application.Settings;
-using ItemReduce.Application.Summary;
 using ItemReduce.IO;
-using Xunit;
 
 namespace ItemReduce.Tests.IO;
 

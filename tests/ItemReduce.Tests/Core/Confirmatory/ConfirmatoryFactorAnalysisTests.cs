@@ -1,5 +1,5 @@
-using ItemReduce.Core;
 using System.Globalization;
+using ItemReduce.Core;
 using ItemReduce.Core.Confirmatory;
 using ItemReduce.Core.Data;
 using ItemReduce.Tests.Support;

@@ -1,8 +1,8 @@
 using ItemReduce.Core;
-using ItemReduce.Tests.Support;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Simulation;
+using ItemReduce.Tests.Support;
 using MathNet.Numerics.LinearAlgebra;
 
 namespace ItemReduce.Tests.Core.Factoring;

@@ -1,4 +1,3 @@
-using ItemReduce.Core.Data;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Simulation;
 

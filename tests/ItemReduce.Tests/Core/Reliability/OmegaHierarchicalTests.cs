@@ -1,7 +1,6 @@
 using ItemReduce.Core;
-using ItemReduce.Tests.Support;
 using ItemReduce.Core.Reliability;
-using ItemReduce.Tests.Core.Factoring;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Reliability;
 
