@@ -80,6 +80,7 @@ public static class ComputingReferences
     public const string Browne1974 = "Browne, M. W. (1974). Generalized least squares estimators in the analysis of covariance structures. South African Statistical Journal, 8(1), 1–24.";
     public const string CrouxHaesbroeck1999 = "Croux, C., & Haesbroeck, G. (1999). Influence function and efficiency of the minimum covariance determinant scatter matrix estimator. Journal of Multivariate Analysis, 71(2), 161–190.";
     public const string DreznerWesolowsky1990 = "Drezner, Z., & Wesolowsky, G. O. (1990). On the computation of the bivariate normal integral. Journal of Statistical Computation and Simulation, 35(1–2), 101–107.";
+    public const string DowellJarratt1971 = "Dowell, M., & Jarratt, P. (1971). A modified regula falsi method for computing the root of an equation. BIT Numerical Mathematics, 11(2), 168–174.";
     public const string Dwyer1939 = "Dwyer, P. S. (1939). The contribution of an orthogonal multiple factor solution to multiple correlation. Psychometrika, 4(2), 163–171.";
     public const string Genz2004 = "Genz, A. (2004). Numerical computation of rectangular bivariate and trivariate normal and t probabilities. Statistics and Computing, 14(3), 251–260.";
     public const string GolubVanLoan2013 = "Golub, G. H., & Van Loan, C. F. (2013). Matrix computations (4th ed.). Johns Hopkins University Press.";
