@@ -13,6 +13,18 @@ namespace ItemReduce.Core.Confirmatory;
 /// </summary>
 internal static class BlockedDots
 {
+    /// <summary><see cref="Dot4x4"/> of rows <paramref name="firstRow"/> … + <paramref name="rows"/> − 1 (1 ≤ rows ≤ 4;
+    /// the missing rows repeat the last) of the row-major matrix <paramref name="m"/> (row length
+    /// <paramref name="stride"/>), columns <paramref name="start"/> … + <paramref name="length"/> − 1, with the vectors
+    /// <paramref name="v"/>[b … b + 3] from the same column <paramref name="start"/>.</summary>
+    public static void RowsByVectors(double[] m, int stride, int firstRow, int rows, int start, int length, double[][] v, int b, Span<double> sums)
+    {
+        int last = rows - 1;
+        Dot4x4(m.AsSpan(firstRow * stride + start, length), m.AsSpan((firstRow + Math.Min(1, last)) * stride + start, length),
+            m.AsSpan((firstRow + Math.Min(2, last)) * stride + start, length), m.AsSpan((firstRow + Math.Min(3, last)) * stride + start, length),
+            v[b].AsSpan(start), v[b + 1].AsSpan(start), v[b + 2].AsSpan(start), v[b + 3].AsSpan(start), sums);
+    }
+
     /// <summary>sums[4r + c] = a_r · x_c (r, c = 0..3) over the length of <paramref name="a0"/>; every span at least
     /// that long.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]

@@ -183,13 +183,9 @@ public static class SatorraBentlerScaling
             for (int j0 = 0; j0 < qc; j0 += 4)
             {
                 int rows = Math.Min(4, qc - j0);
-                var a0 = wdT.AsSpan(j0 * ps, ps);
-                var a1 = wdT.AsSpan((j0 + Math.Min(1, rows - 1)) * ps, ps);
-                var a2 = wdT.AsSpan((j0 + Math.Min(2, rows - 1)) * ps, ps);
-                var a3 = wdT.AsSpan((j0 + Math.Min(3, rows - 1)) * ps, ps);
                 for (int b = 0; b < used; b += 4)
                 {
-                    BlockedDots.Dot4x4(a0, a1, a2, a3, rs[b], rs[b + 1], rs[b + 2], rs[b + 3], sums);
+                    BlockedDots.RowsByVectors(wdT, ps, j0, rows, 0, ps, rs, b, sums);
                     for (int c = 0; c < 4; c++)
                         for (int rr = 0; rr < rows; rr++) gs[b + c][j0 + rr] = sums[rr * 4 + c];
                 }
@@ -226,13 +222,9 @@ public static class SatorraBentlerScaling
         for (int j0 = 0; j0 < n; j0 += 4)
         {
             int rows = Math.Min(4, n - j0);
-            var a0 = l.AsSpan(j0 * n, j0);
-            var a1 = l.AsSpan((j0 + Math.Min(1, rows - 1)) * n, j0);
-            var a2 = l.AsSpan((j0 + Math.Min(2, rows - 1)) * n, j0);
-            var a3 = l.AsSpan((j0 + Math.Min(3, rows - 1)) * n, j0);
             for (int b = 0; b < used; b += 4)
             {
-                BlockedDots.Dot4x4(a0, a1, a2, a3, v[b], v[b + 1], v[b + 2], v[b + 3], sums);
+                BlockedDots.RowsByVectors(l, n, j0, rows, 0, j0, v, b, sums);
                 for (int c = 0; c < 4; c++)
                 {
                     var y = v[b + c];
@@ -256,14 +248,10 @@ public static class SatorraBentlerScaling
     {
         for (int end = n; end > 0; end -= 4)
         {
-            int j0 = Math.Max(0, end - 4), rows = end - j0, len = n - end;
-            var a0 = u.AsSpan(j0 * n + end, len);
-            var a1 = u.AsSpan((j0 + Math.Min(1, rows - 1)) * n + end, len);
-            var a2 = u.AsSpan((j0 + Math.Min(2, rows - 1)) * n + end, len);
-            var a3 = u.AsSpan((j0 + Math.Min(3, rows - 1)) * n + end, len);
+            int j0 = Math.Max(0, end - 4), rows = end - j0;
             for (int b = 0; b < used; b += 4)
             {
-                BlockedDots.Dot4x4(a0, a1, a2, a3, v[b].AsSpan(end), v[b + 1].AsSpan(end), v[b + 2].AsSpan(end), v[b + 3].AsSpan(end), sums);
+                BlockedDots.RowsByVectors(u, n, j0, rows, end, n - end, v, b, sums);
                 for (int c = 0; c < 4; c++)
                 {
                     var y = v[b + c];
@@ -286,14 +274,10 @@ public static class SatorraBentlerScaling
     {
         for (int end = n; end > 0; end -= 4)
         {
-            int j0 = Math.Max(0, end - 4), rows = end - j0, len = n - end;
-            var a0 = w.AsSpan(j0 * n + end, len);
-            var a1 = w.AsSpan((j0 + Math.Min(1, rows - 1)) * n + end, len);
-            var a2 = w.AsSpan((j0 + Math.Min(2, rows - 1)) * n + end, len);
-            var a3 = w.AsSpan((j0 + Math.Min(3, rows - 1)) * n + end, len);
+            int j0 = Math.Max(0, end - 4), rows = end - j0;
             for (int b = 0; b < used; b += 4)
             {
-                BlockedDots.Dot4x4(a0, a1, a2, a3, v[b].AsSpan(end), v[b + 1].AsSpan(end), v[b + 2].AsSpan(end), v[b + 3].AsSpan(end), sums);
+                BlockedDots.RowsByVectors(w, n, j0, rows, end, n - end, v, b, sums);
                 for (int c = 0; c < 4; c++)
                 {
                     var y = v[b + c];
