@@ -80,6 +80,7 @@ internal static class ComputingReferences
     public const string Browne1974 = "Browne, M. W. (1974). Generalized least squares estimators in the analysis of covariance structures. South African Statistical Journal, 8(1), 1–24.";
     public const string CrouxHaesbroeck1999 = "Croux, C., & Haesbroeck, G. (1999). Influence function and efficiency of the minimum covariance determinant scatter matrix estimator. Journal of Multivariate Analysis, 71(2), 161–190.";
     public const string DreznerWesolowsky1990 = "Drezner, Z., & Wesolowsky, G. O. (1990). On the computation of the bivariate normal integral. Journal of Statistical Computation and Simulation, 35(1–2), 101–107.";
+    public const string DowellJarratt1971 = "Dowell, M., & Jarratt, P. (1971). A modified regula falsi method for computing the root of an equation. BIT Numerical Mathematics, 11(2), 168–174.";
     public const string Dwyer1939 = "Dwyer, P. S. (1939). The contribution of an orthogonal multiple factor solution to multiple correlation. Psychometrika, 4(2), 163–171.";
     public const string Genz2004 = "Genz, A. (2004). Numerical computation of rectangular bivariate and trivariate normal and t probabilities. Statistics and Computing, 14(3), 251–260.";
     public const string GolubVanLoan2013 = "Golub, G. H., & Van Loan, C. F. (2013). Matrix computations (4th ed.). Johns Hopkins University Press.";
@@ -90,6 +91,7 @@ internal static class ComputingReferences
     public const string LawleyMaxwell1971 = "Lawley, D. N., & Maxwell, A. E. (1971). Factor analysis as a statistical method (2nd ed.). Butterworths.";
     public const string Lemire2019 = "Lemire, D. (2019). Fast random integer generation in an interval. ACM Transactions on Modeling and Computer Simulation, 29(1), Article 3.";
     public const string MartinReinschWilkinson1968 = "Martin, R. S., Reinsch, C., & Wilkinson, J. H. (1968). Householder's tridiagonalization of a symmetric matrix. Numerische Mathematik, 11(3), 181–195.";
+    public const string NocedalWright2006 = "Nocedal, J., & Wright, S. J. (2006). Numerical optimization (2nd ed.). Springer.";
     public const string OdellFeiveson1966 = "Odell, P. L., & Feiveson, A. H. (1966). A numerical procedure to generate a sample covariance matrix. Journal of the American Statistical Association, 61(313), 199–203.";
     public const string Plackett1954 = "Plackett, R. L. (1954). A reduction formula for normal multivariate integrals. Biometrika, 41(3/4), 351–360.";
     public const string Smith1976 = "Smith, B. T., Boyle, J. M., Dongarra, J. J., Garbow, B. S., Ikebe, Y., Klema, V. C., & Moler, C. B. (1976). Matrix eigensystem routines — EISPACK guide (2nd ed.). Springer.";

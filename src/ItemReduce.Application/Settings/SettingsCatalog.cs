@@ -196,7 +196,7 @@ public static class SettingsCatalog
         {
             Name = "threads", Kind = SettingKind.Integer, Commands = Commands.Correlating, Concerns = Concerns.Dimensions, Group = DimensionsGroup,
             ValueName = "N", DefaultText = "all cores", Min = 1, Max = 1024, Example = "1",
-            Help = "Worker threads for correlations and parallel analysis. Results do not depend on it.",
+            Help = "Worker threads for correlations, parallel analysis and the confirmatory fits. Results do not depend on it.",
         },
 
         // Factoring and short form

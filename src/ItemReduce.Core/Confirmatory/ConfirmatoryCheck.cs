@@ -42,10 +42,14 @@ public static class ConfirmatoryCheck
     /// <param name="data">The analysed responses the short form was built from (same rows and items).</param>
     /// <param name="shortForm">The short form.</param>
     /// <param name="listwise">Listwise deletion instead of the casewise likelihood.</param>
-    public static ConfirmatoryCheckResult Run(ResponseMatrix data, ShortFormResult shortForm, bool listwise)
+    /// <param name="maxDegreeOfParallelism">Fits run at the same time (−1: as many as there are cores); the results
+    /// and their order do not depend on it.</param>
+    public static ConfirmatoryCheckResult Run(ResponseMatrix data, ShortFormResult shortForm, bool listwise, int maxDegreeOfParallelism = -1)
     {
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(shortForm);
+        if (maxDegreeOfParallelism == 0 || maxDegreeOfParallelism < -1)
+            throw new ArgumentException($"maxDegreeOfParallelism must be −1 or ≥ 1, got {maxDegreeOfParallelism}.", nameof(maxDegreeOfParallelism));
         var warnings = new List<AnalysisWarning>();
         var fits = new List<ConfirmatoryFormFit>();
         var holdout = shortForm.HoldoutRows.ToHashSet();
@@ -58,31 +62,52 @@ public static class ConfirmatoryCheck
         else samples.Add((ConfirmatorySample.Analysis, data));
         var column = new Dictionary<string, int>(StringComparer.Ordinal);
         for (int j = 0; j < data.ItemCount; j++) column[data.Items[j].Name] = j;
-        foreach (var form in new[] { ScaleForm.Full, ScaleForm.Short })
+        // The models (and their warnings) first, in order; then the fits, which are independent of one another, on
+        // up to maxDegreeOfParallelism threads, each writing only its own slot; then everything in the fixed order.
+        ScaleForm[] forms = [ScaleForm.Full, ScaleForm.Short];
+        var models = new (int[] Items, int[] Factor, string[] Names)?[forms.Length];
+        var modelWarnings = new List<AnalysisWarning>[forms.Length];
+        for (int f = 0; f < forms.Length; f++)
         {
-            string formName = form == ScaleForm.Full ? "full" : "short";
-            var model = Model(shortForm.Scales, form, column, formName, warnings);
-            foreach (var (role, sample) in samples)
+            modelWarnings[f] = [];
+            models[f] = Model(shortForm.Scales, forms[f], column, FormName(forms[f]), modelWarnings[f]);
+        }
+        int jobs = forms.Length * samples.Count;
+        var outcomes = new (ConfirmatoryResult? Result, string? Failure)[jobs];
+        Parallel.For(0, jobs, new ParallelOptions { MaxDegreeOfParallelism = maxDegreeOfParallelism }, job =>
+        {
+            var model = models[job / samples.Count];
+            if (model is null) return;
+            try
             {
-                string where = $"{formName} form, {(role == ConfirmatorySample.Analysis ? "analysis" : "holdout")} sample";
-                if (model is null) { fits.Add(new ConfirmatoryFormFit(form, role, null)); continue; }
-                try
-                {
-                    var r = ConfirmatoryFactorAnalysis.Fit(sample, model.Value.Items, model.Value.Factor, model.Value.Names, listwise);
-                    fits.Add(new ConfirmatoryFormFit(form, role, r));
+                outcomes[job] = (ConfirmatoryFactorAnalysis.Fit(samples[job % samples.Count].Item2, model.Value.Items, model.Value.Factor, model.Value.Names, listwise), null);
+            }
+            catch (Exception e) when (e is DataConditionException or LinearAlgebra.MatrixNotPositiveDefiniteException)
+            {
+                outcomes[job] = (null, e.Message);
+            }
+        });
+        for (int f = 0; f < forms.Length; f++)
+        {
+            warnings.AddRange(modelWarnings[f]);
+            for (int si = 0; si < samples.Count; si++)
+            {
+                var role = samples[si].Item1;
+                string where = $"{FormName(forms[f])} form, {(role == ConfirmatorySample.Analysis ? "analysis" : "holdout")} sample";
+                var (r, failure) = outcomes[f * samples.Count + si];
+                fits.Add(new ConfirmatoryFormFit(forms[f], role, r));
+                if (r is not null)
                     warnings.AddRange(r.Warnings.Select(w => w with { Message = $"Confirmatory model ({where}): {w.Message}" }));
-                }
-                catch (Exception e) when (e is DataConditionException or LinearAlgebra.MatrixNotPositiveDefiniteException)
-                {
-                    fits.Add(new ConfirmatoryFormFit(form, role, null));
-                    warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", $"Confirmatory model ({where}) was not fitted: {e.Message}"));
-                }
+                else if (failure is not null)
+                    warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", $"Confirmatory model ({where}) was not fitted: {failure}"));
             }
         }
         if (holdout.Count == 0 && fits.Any(f => f.Result is not null))
             warnings.Add(new AnalysisWarning("confirmatory-on-selection-sample", "confirmatory", OptimismCaution));
         return new ConfirmatoryCheckResult(fits, warnings, listwise);
     }
+
+    private static string FormName(ScaleForm form) => form == ScaleForm.Full ? "full" : "short";
 
     private static (int[] Items, int[] Factor, string[] Names)? Model(IReadOnlyList<ShortFormScale> scales, ScaleForm form,
         Dictionary<string, int> column, string formName, List<AnalysisWarning> warnings)

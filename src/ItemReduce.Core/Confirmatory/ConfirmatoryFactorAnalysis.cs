@@ -26,8 +26,8 @@ internal static class ConfirmatoryFactorAnalysis
     /// <summary>Fisher-scoring iteration cap.</summary>
     public const int MaxIterations = 500;
 
-    /// <summary>Iterations that always use a freshly computed information matrix.</summary>
-    private const int RefreshedIterations = 3;
+    /// <summary>Iterations that always use a freshly computed information matrix (then BFGS-updated).</summary>
+    private const int RefreshedIterations = 2;
 
     /// <summary>Convergence: largest relative parameter step.</summary>
     public const double StepTolerance = 1e-10;
@@ -149,7 +149,8 @@ internal static class ConfirmatoryFactorAnalysis
     }
 
     /// <summary>Fisher scoring on −2 ln L: step −½ I⁻¹ ∇, halved until −2 ln L falls (Armijo) with every pattern's
-    /// covariance block positive definite. Returns (converged, iterations); <paramref name="theta"/> is updated in place.</summary>
+    /// covariance block positive definite; after <see cref="RefreshedIterations"/> iterations the metric ½ I⁻¹ is
+    /// improved by BFGS updates (<see cref="BfgsUpdate"/>) until a step fails to shrink fast. Returns (converged, iterations); <paramref name="theta"/> is updated in place.</summary>
     private static (bool Converged, int Iterations) Minimise(IndependentClustersModel model, MissingDataPatterns data, double[] theta)
     {
         int p = model.Items, q = model.Parameters;
@@ -157,25 +158,30 @@ internal static class ConfirmatoryFactorAnalysis
         var gm = new double[p];
         double f = CasewiseLikelihood.Minus2LogLikelihood(data, model.Mu(theta), model.Sigma(theta), gs, gm);
         if (double.IsNaN(f)) return (false, 0);
-        double[]? inverse = null;
+        // metric: the approximate inverse Hessian of −2 ln L; ½ I⁻¹ when the information is refreshed, else updated by BFGS.
+        double[]? metric = null;
+        double[]? previousGrad = null;
+        var accepted = new double[q];
         bool refresh = true;
         double previousLargest = double.PositiveInfinity;
         for (int it = 1; it <= MaxIterations; it++)
         {
             var grad = model.Gradient(theta, gs, gm);
-            if (refresh || inverse is null)
+            if (refresh || metric is null)
             {
                 var info = FisherInformation(model, data, theta);
                 if (info is null) return (false, it);
-                inverse = InvertOrNull(info, q);
-                if (inverse is null) return (false, it);
+                metric = InvertOrNull(info, q);
+                if (metric is null) return (false, it);
+                for (int e = 0; e < metric.Length; e++) metric[e] *= 0.5;
             }
+            else if (previousGrad is not null) BfgsUpdate(metric, q, accepted, previousGrad, grad);
             var step = new double[q];
             for (int i = 0; i < q; i++)
             {
                 double v = 0;
-                for (int j = 0; j < q; j++) v += inverse[i * q + j] * grad[j];
-                step[i] = -0.5 * v;
+                for (int j = 0; j < q; j++) v += metric[i * q + j] * grad[j];
+                step[i] = -v;
             }
             double slope = 0;
             for (int i = 0; i < q; i++) slope += grad[i] * step[i];
@@ -194,15 +200,47 @@ internal static class ConfirmatoryFactorAnalysis
             if (double.IsNaN(fTrial)) return (false, it);
             double largest = 0;
             for (int i = 0; i < q; i++) largest = Math.Max(largest, Math.Abs(t * step[i]) / Math.Max(1, Math.Abs(theta[i])));
+            for (int i = 0; i < q; i++) accepted[i] = trial[i] - theta[i];
+            previousGrad = grad;
             Array.Copy(trial, theta, q);
             f = fTrial;
             if (largest < StepTolerance) return (true, it);
-            // The information changes little once θ is near the optimum: it is kept (a fixed metric, still a descent
-            // direction checked by the line search) while the steps shrink fast, and refreshed otherwise.
+            // Near the optimum the expected information alone gives only linear convergence (it is not the Hessian of
+            // the casewise likelihood): after the first iterations it is kept and corrected by BFGS updates from the
+            // gradients (a descent direction, checked by the line search) while the steps shrink fast, and refreshed
+            // otherwise.
             refresh = it < RefreshedIterations || t < 1 || largest > 0.5 * previousLargest;
             previousLargest = largest;
         }
         return (false, MaxIterations);
+    }
+
+    /// <summary>BFGS update of the inverse-Hessian approximation <paramref name="h"/> (q × q, in place) from the step
+    /// <paramref name="s"/> and the gradients before and after it: H ← (I − ρ s yᵀ) H (I − ρ y sᵀ) + ρ s sᵀ,
+    /// y = ∇₊ − ∇, ρ = 1/(yᵀs) (Nocedal and Wright 2006, Section 6.1); skipped unless yᵀs &gt; 0, which keeps H
+    /// positive definite.</summary>
+    private static void BfgsUpdate(double[] h, int q, double[] s, double[] gradBefore, double[] gradAfter)
+    {
+        var y = new double[q];
+        double ys = 0;
+        for (int i = 0; i < q; i++)
+        {
+            y[i] = gradAfter[i] - gradBefore[i];
+            ys += y[i] * s[i];
+        }
+        if (!(ys > 0)) return;
+        var hy = new double[q];
+        double yhy = 0;
+        for (int i = 0; i < q; i++)
+        {
+            double v = 0;
+            for (int j = 0; j < q; j++) v += h[i * q + j] * y[j];
+            hy[i] = v;
+            yhy += v * y[i];
+        }
+        double rho = 1 / ys, c = rho * rho * yhy + rho;
+        for (int i = 0; i < q; i++)
+            for (int j = 0; j < q; j++) h[i * q + j] += c * s[i] * s[j] - rho * (hy[i] * s[j] + s[i] * hy[j]);
     }
 
     /// <summary>Expected (Fisher) information of θ for ln L, summed over respondents (q × q, row-major), or null when a

@@ -1,7 +1,4 @@
-using System.Numerics;
 using System.Runtime.CompilerServices;
-using System.Runtime.InteropServices;
-using System.Runtime.Intrinsics;
 using ItemReduce.Core.LinearAlgebra;
 
 namespace ItemReduce.Core.Confirmatory;
@@ -153,18 +150,18 @@ public static class SatorraBentlerScaling
         }
         var inverses = CasewiseLikelihood.PatternInverses(data, sigma1)
             ?? throw new MatrixNotPositiveDefiniteException("The saturated covariance is not positive definite.");
-        // Blocks of respondents: each matrix row is read from memory once per block and reused from cache.
+        // Blocks of respondents: each matrix row is read from memory once per block and reused from cache; inside a
+        // block four rows meet four respondents at a time (BlockedDots).
         const int block = 32;
         var rs = new double[block][];
-        var ys = new double[block][];
-        for (int b = 0; b < block; b++) (rs[b], ys[b]) = (new double[ps], new double[ps]);
+        for (int b = 0; b < block; b++) rs[b] = new double[ps];
         var gs = new double[block][];
         for (int b = 0; b < block; b++) gs[b] = new double[qc];
         var scratch = new double[data.RowWidth];
         var x = new double[p];
         var kr = new double[p];
-        var dots = new double[block];
-        var dots2 = new double[block];
+        var sums = new double[16];
+        var quad = new double[block];
         double t1 = 0, t2 = 0, t0 = 0;
         for (int i0 = 0; i0 < n; i0 += block)
         {
@@ -173,30 +170,25 @@ public static class SatorraBentlerScaling
             {
                 int gi = data.PatternOf[i0 + b];
                 data.ReadRow(i0 + b, scratch, x);
-                NormalInformation.CovarianceScore(x, data.Patterns[gi].Observed, inverses[gi], mu1, ys[b], kr);
+                NormalInformation.CovarianceScore(x, data.Patterns[gi].Observed, inverses[gi], mu1, rs[b], kr);
             }
-            for (int b = nb; b < used; b++) Array.Clear(ys[b]);
-            // Forward: L y = s (in place in ys).
-            for (int j = 0; j < ps; j++)
-            {
-                Dots(l.AsSpan(j * ps, j), ys, 0, used, dots);
-                double inv = 1 / l[j * ps + j];
-                for (int b = 0; b < used; b++) ys[b][j] = (ys[b][j] - dots[b]) * inv;
-            }
-            // Backward: Lᵀ r = y, and in the same pass rᵀ W r = Σ_j r_j (W_jj r_j + 2 Σ_{l>j} W_jl r_l).
-            for (int j = ps - 1; j >= 0; j--)
-            {
-                for (int b = 0; b < used; b += 4)
-                    Dot4x2At(u.AsSpan(j * ps + j + 1, ps - j - 1), w.AsSpan(j * ps + j + 1, ps - j - 1), rs, b, j + 1, dots, dots2);
-                double inv = 1 / u[j * ps + j], wjj = w[j * ps + j];
-                for (int b = 0; b < used; b++) rs[b][j] = (ys[b][j] - dots[b]) * inv;
-                for (int b = 0; b < nb; b++) t1 += rs[b][j] * (2 * dots2[b] + wjj * rs[b][j]);
-            }
+            for (int b = nb; b < used; b++) Array.Clear(rs[b]);
+            // r = A₁⁻¹ s: L y = s, then Lᵀ r = y (in place), then rᵀ W r.
+            ForwardSolve(l, ps, rs, used, sums);
+            BackwardSolve(u, ps, rs, used, sums);
+            Array.Clear(quad);
+            QuadraticForms(w, ps, rs, used, sums, quad);
+            for (int b = 0; b < nb; b++) t1 += quad[b];
             // g = Δᵀ W r.
-            for (int j = 0; j < qc; j++)
+            for (int j0 = 0; j0 < qc; j0 += 4)
             {
-                Dots(wdT.AsSpan(j * ps, ps), rs, 0, used, dots);
-                for (int b = 0; b < nb; b++) gs[b][j] = dots[b];
+                int rows = Math.Min(4, qc - j0);
+                for (int b = 0; b < used; b += 4)
+                {
+                    BlockedDots.RowsByVectors(wdT, ps, j0, rows, 0, ps, rs, b, sums);
+                    for (int c = 0; c < 4; c++)
+                        for (int rr = 0; rr < rows; rr++) gs[b + c][j0 + rr] = sums[rr * 4 + c];
+                }
             }
             for (int b = 0; b < nb; b++)
             {
@@ -221,127 +213,85 @@ public static class SatorraBentlerScaling
         return s;
     }
 
-    /// <summary>dots[b] = Σ_t a_t x_b[start + t] for the first <paramref name="rows"/> vectors (a multiple of 4).</summary>
+    /// <summary>Solves L y = s in place for the first <paramref name="used"/> (a multiple of 4) vectors of
+    /// <paramref name="v"/>; L row-major lower triangular n × n. Rows four at a time: their dot products with the solved
+    /// part come from <see cref="BlockedDots.Dot4x4"/>, the small triangle inside the four rows is finished one by one.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void Dots(ReadOnlySpan<double> a, double[][] x, int start, int rows, double[] dots)
+    private static void ForwardSolve(double[] l, int n, double[][] v, int used, double[] sums)
     {
-        for (int b = 0; b < rows; b += 4) Dot4At(a, x, b, start, a.Length, dots);
+        for (int j0 = 0; j0 < n; j0 += 4)
+        {
+            int rows = Math.Min(4, n - j0);
+            for (int b = 0; b < used; b += 4)
+            {
+                BlockedDots.RowsByVectors(l, n, j0, rows, 0, j0, v, b, sums);
+                for (int c = 0; c < 4; c++)
+                {
+                    var y = v[b + c];
+                    for (int rr = 0; rr < rows; rr++)
+                    {
+                        int j = j0 + rr, row = j * n;
+                        double s = y[j] - sums[rr * 4 + c];
+                        for (int q = j0; q < j; q++) s -= l[row + q] * y[q];
+                        y[j] = s / l[row + j];
+                    }
+                }
+            }
+        }
     }
 
-    /// <summary>As <see cref="Dot4At"/> for two rows <paramref name="a"/> and <paramref name="c"/> at once (into
-    /// <paramref name="dots"/> and <paramref name="dots2"/>), sharing the loads of the four vectors.</summary>
+    /// <summary>Solves Lᵀ r = y in place for the first <paramref name="used"/> (a multiple of 4) vectors of
+    /// <paramref name="v"/>, given <paramref name="u"/> = Lᵀ row-major (upper triangular n × n); four rows at a time
+    /// from the last, as in <see cref="ForwardSolve"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void Dot4x2At(ReadOnlySpan<double> a, ReadOnlySpan<double> c, double[][] x, int first, int start, double[] dots, double[] dots2)
+    private static void BackwardSolve(double[] u, int n, double[][] v, int used, double[] sums)
     {
-        int length = a.Length;
-        var x0 = x[first].AsSpan(start, length);
-        var x1 = x[first + 1].AsSpan(start, length);
-        var x2 = x[first + 2].AsSpan(start, length);
-        var x3 = x[first + 3].AsSpan(start, length);
-        double s0 = 0, s1 = 0, s2 = 0, s3 = 0, r0 = 0, r1 = 0, r2 = 0, r3 = 0;
-        int t = 0;
-        if (Vector512.IsHardwareAccelerated && length >= Vector512<double>.Count)
+        for (int end = n; end > 0; end -= 4)
         {
-            var va = MemoryMarshal.Cast<double, Vector512<double>>(a);
-            var vc = MemoryMarshal.Cast<double, Vector512<double>>(c);
-            var v0 = MemoryMarshal.Cast<double, Vector512<double>>(x0);
-            var v1 = MemoryMarshal.Cast<double, Vector512<double>>(x1);
-            var v2 = MemoryMarshal.Cast<double, Vector512<double>>(x2);
-            var v3 = MemoryMarshal.Cast<double, Vector512<double>>(x3);
-            Vector512<double> a0 = default, a1 = default, a2 = default, a3 = default, c0 = default, c1 = default, c2 = default, c3 = default;
-            for (int v = 0; v < va.Length; v++)
+            int j0 = Math.Max(0, end - 4), rows = end - j0;
+            for (int b = 0; b < used; b += 4)
             {
-                var av = va[v];
-                var cv = vc[v];
-                var y0 = v0[v];
-                var y1 = v1[v];
-                var y2 = v2[v];
-                var y3 = v3[v];
-                a0 = Vector512.FusedMultiplyAdd(av, y0, a0);
-                a1 = Vector512.FusedMultiplyAdd(av, y1, a1);
-                a2 = Vector512.FusedMultiplyAdd(av, y2, a2);
-                a3 = Vector512.FusedMultiplyAdd(av, y3, a3);
-                c0 = Vector512.FusedMultiplyAdd(cv, y0, c0);
-                c1 = Vector512.FusedMultiplyAdd(cv, y1, c1);
-                c2 = Vector512.FusedMultiplyAdd(cv, y2, c2);
-                c3 = Vector512.FusedMultiplyAdd(cv, y3, c3);
+                BlockedDots.RowsByVectors(u, n, j0, rows, end, n - end, v, b, sums);
+                for (int c = 0; c < 4; c++)
+                {
+                    var y = v[b + c];
+                    for (int rr = rows - 1; rr >= 0; rr--)
+                    {
+                        int j = j0 + rr, row = j * n;
+                        double s = y[j] - sums[rr * 4 + c];
+                        for (int q = j + 1; q < end; q++) s -= u[row + q] * y[q];
+                        y[j] = s / u[row + j];
+                    }
+                }
             }
-            (s0, s1, s2, s3) = (Vector512.Sum(a0), Vector512.Sum(a1), Vector512.Sum(a2), Vector512.Sum(a3));
-            (r0, r1, r2, r3) = (Vector512.Sum(c0), Vector512.Sum(c1), Vector512.Sum(c2), Vector512.Sum(c3));
-            t = va.Length * Vector512<double>.Count;
         }
-        for (; t < length; t++)
-        {
-            double av = a[t], cv = c[t];
-            s0 += av * x0[t];
-            s1 += av * x1[t];
-            s2 += av * x2[t];
-            s3 += av * x3[t];
-            r0 += cv * x0[t];
-            r1 += cv * x1[t];
-            r2 += cv * x2[t];
-            r3 += cv * x3[t];
-        }
-        (dots[first], dots[first + 1], dots[first + 2], dots[first + 3]) = (s0, s1, s2, s3);
-        (dots2[first], dots2[first + 1], dots2[first + 2], dots2[first + 3]) = (r0, r1, r2, r3);
     }
 
+    /// <summary>quad[b] += rᵀ W r = Σ_j r_j (W_jj r_j + 2 Σ_(l&gt;j) W_jl r_l) for the first <paramref name="used"/>
+    /// (a multiple of 4) vectors r of <paramref name="v"/>, W symmetric row-major n × n (upper part read).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void Dot4At(ReadOnlySpan<double> a, double[][] x, int first, int start, int length, double[] dots)
+    private static void QuadraticForms(double[] w, int n, double[][] v, int used, double[] sums, double[] quad)
     {
-        var x0 = x[first].AsSpan(start, length);
-        var x1 = x[first + 1].AsSpan(start, length);
-        var x2 = x[first + 2].AsSpan(start, length);
-        var x3 = x[first + 3].AsSpan(start, length);
-        a = a[..length];
-        double s0 = 0, s1 = 0, s2 = 0, s3 = 0;
-        int t = 0;
-        if (Vector512.IsHardwareAccelerated && length >= Vector512<double>.Count)
+        for (int end = n; end > 0; end -= 4)
         {
-            var va = MemoryMarshal.Cast<double, Vector512<double>>(a);
-            var v0 = MemoryMarshal.Cast<double, Vector512<double>>(x0);
-            var v1 = MemoryMarshal.Cast<double, Vector512<double>>(x1);
-            var v2 = MemoryMarshal.Cast<double, Vector512<double>>(x2);
-            var v3 = MemoryMarshal.Cast<double, Vector512<double>>(x3);
-            Vector512<double> a0 = default, a1 = default, a2 = default, a3 = default;
-            for (int v = 0; v < va.Length; v++)
+            int j0 = Math.Max(0, end - 4), rows = end - j0;
+            for (int b = 0; b < used; b += 4)
             {
-                var av = va[v];
-                a0 = Vector512.FusedMultiplyAdd(av, v0[v], a0);
-                a1 = Vector512.FusedMultiplyAdd(av, v1[v], a1);
-                a2 = Vector512.FusedMultiplyAdd(av, v2[v], a2);
-                a3 = Vector512.FusedMultiplyAdd(av, v3[v], a3);
+                BlockedDots.RowsByVectors(w, n, j0, rows, end, n - end, v, b, sums);
+                for (int c = 0; c < 4; c++)
+                {
+                    var y = v[b + c];
+                    double total = 0;
+                    for (int rr = 0; rr < rows; rr++)
+                    {
+                        int j = j0 + rr, row = j * n;
+                        double s = sums[rr * 4 + c];
+                        for (int q = j + 1; q < end; q++) s += w[row + q] * y[q];
+                        total += y[j] * (w[row + j] * y[j] + 2 * s);
+                    }
+                    quad[b + c] += total;
+                }
             }
-            (s0, s1, s2, s3) = (Vector512.Sum(a0), Vector512.Sum(a1), Vector512.Sum(a2), Vector512.Sum(a3));
-            t = va.Length * Vector512<double>.Count;
         }
-        else if (Vector.IsHardwareAccelerated && length >= Vector<double>.Count)
-        {
-            var va = MemoryMarshal.Cast<double, Vector<double>>(a);
-            var v0 = MemoryMarshal.Cast<double, Vector<double>>(x0);
-            var v1 = MemoryMarshal.Cast<double, Vector<double>>(x1);
-            var v2 = MemoryMarshal.Cast<double, Vector<double>>(x2);
-            var v3 = MemoryMarshal.Cast<double, Vector<double>>(x3);
-            Vector<double> a0 = default, a1 = default, a2 = default, a3 = default;
-            for (int v = 0; v < va.Length; v++)
-            {
-                var av = va[v];
-                a0 += av * v0[v];
-                a1 += av * v1[v];
-                a2 += av * v2[v];
-                a3 += av * v3[v];
-            }
-            (s0, s1, s2, s3) = (Vector.Sum(a0), Vector.Sum(a1), Vector.Sum(a2), Vector.Sum(a3));
-            t = va.Length * Vector<double>.Count;
-        }
-        for (; t < length; t++)
-        {
-            double av = a[t];
-            s0 += av * x0[t];
-            s1 += av * x1[t];
-            s2 += av * x2[t];
-            s3 += av * x3[t];
-        }
-        (dots[first], dots[first + 1], dots[first + 2], dots[first + 3]) = (s0, s1, s2, s3);
     }
 }

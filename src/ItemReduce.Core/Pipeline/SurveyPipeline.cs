@@ -88,7 +88,8 @@ public static class SurveyPipeline
         if (stage.Confirmatory)
         {
             progress?.Invoke("confirmatory factor analysis of the full and short forms");
-            confirmatory = Confirm(analysed, shortForm, stage.ShortForm.Correlation.MissingData == Correlation.MissingDataHandling.Listwise, warnings);
+            confirmatory = Confirm(analysed, shortForm, stage.ShortForm.Correlation.MissingData == Correlation.MissingDataHandling.Listwise,
+                dimOptions.MaxDegreeOfParallelism, warnings);
         }
         var result = new PipelineResult
         {
@@ -125,11 +126,12 @@ public static class SurveyPipeline
     }
 
     /// <summary>The confirmatory check never stops a run: a failure becomes a warning and no confirmatory result.</summary>
-    private static Confirmatory.ConfirmatoryCheckResult? Confirm(ResponseMatrix analysed, ShortFormResult shortForm, bool listwise, WarningList warnings)
+    private static Confirmatory.ConfirmatoryCheckResult? Confirm(ResponseMatrix analysed, ShortFormResult shortForm, bool listwise,
+        int maxDegreeOfParallelism, WarningList warnings)
     {
         try
         {
-            return Confirmatory.ConfirmatoryCheck.Run(analysed, shortForm, listwise);
+            return Confirmatory.ConfirmatoryCheck.Run(analysed, shortForm, listwise, maxDegreeOfParallelism);
         }
         catch (Exception e) when (e is DataConditionException or LinearAlgebra.MatrixNotPositiveDefiniteException or LinearAlgebra.NonConvergenceException)
         {

@@ -87,6 +87,25 @@ public class ConfirmatoryFactorAnalysisTests
     }
 
     [Fact]
+    public void Check_gives_identical_fits_and_warnings_in_the_same_order_for_any_number_of_threads()
+    {
+        // Full and short form on the analysis and the holdout sample (four fits), data with missing answers.
+        var data = Load("cfa_missing_data.csv");
+        var shortForm = ItemReduce.Core.ShortForm.ShortFormBuilder.Build(data, 2,
+            new ItemReduce.Core.ShortForm.ShortFormOptions { HoldoutFraction = 0.5, Seed = 11 });
+        var ci = CultureInfo.InvariantCulture;
+        string Estimates(ConfirmatoryResult? r) =>
+            r is null ? "" : string.Join(" ", r.Estimates.Select(e => e.Estimate.ToString("R", ci) + "/" + e.StandardError.ToString("R", ci)));
+        string Dump(ConfirmatoryCheckResult r) =>
+            string.Join("\n", r.Fits.Select(f => FormattableString.Invariant($"{f.Form} {f.Sample} {f.Result?.Fit} ") + Estimates(f.Result)))
+            + "\n" + string.Join("\n", r.Warnings.Select(w => w.Code + ": " + w.Message));
+        string one = Dump(ConfirmatoryCheck.Run(data, shortForm, listwise: false, maxDegreeOfParallelism: 1));
+        Assert.Equal(4, ConfirmatoryCheck.Run(data, shortForm, false, 1).Fits.Count);
+        Assert.Equal(one, Dump(ConfirmatoryCheck.Run(data, shortForm, listwise: false, maxDegreeOfParallelism: 2)));
+        Assert.Equal(one, Dump(ConfirmatoryCheck.Run(data, shortForm, listwise: false)));
+    }
+
+    [Fact]
     public void Planted_model_fits_and_an_item_moved_to_the_wrong_factor_fits_clearly_worse()
     {
         // The data were simulated from the "right" model (script above); thresholds are common practice, no source.
