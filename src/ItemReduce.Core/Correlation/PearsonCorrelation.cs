@@ -218,7 +218,7 @@ public static class PearsonCorrelation
     /// accumulators, seven loads per twelve multiply-adds (4 × 2: eight and six per eight), which keeps both FMA pipes
     /// busy. Every entry is still the 4-lane sum over the tile in order, reduced by <see cref="Vector256.Sum{T}"/> and
     /// added to <paramref name="acc"/> once, so the blocking changes no result; the 1 or 2 columns left over at the
-    /// end of a row block take the 4 × 2 / 4 × 1 step.</summary>
+    /// end of a row block take 4 × 1 steps.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void AccumulateTileFma(double[] tile, int padded, double[] acc)
     {
@@ -227,19 +227,15 @@ public static class PearsonCorrelation
         {
             ref double a0 = ref Unsafe.Add(ref t0, j * TileRows);
             int k = 0, end = j + 4;
-            for (; k + 3 <= end; k += 3) Block4x3(ref t0, ref a0, k, acc, j * padded + k, padded);
-            if (end - k == 2) Block4x2(ref t0, ref a0, k, acc, j * padded + k, padded);
-            else if (end - k == 1) Block4x1(ref t0, ref a0, k, acc, j * padded + k, padded);
+            for (; k + 3 <= end; k += 3) Block4x3(ref a0, ref Unsafe.Add(ref t0, k * TileRows), acc, j * padded + k, padded);
+            for (; k < end; k++) Block4x1(ref a0, ref Unsafe.Add(ref t0, k * TileRows), acc, j * padded + k, padded);
         }
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void Block4x3(ref double t0, ref double a0, int k, double[] acc, int o, int padded)
+    private static void Block4x3(ref double a0, ref double b0, double[] acc, int o, int padded)
     {
-        ref double a1 = ref Unsafe.Add(ref a0, TileRows);
-        ref double a2 = ref Unsafe.Add(ref a1, TileRows);
-        ref double a3 = ref Unsafe.Add(ref a2, TileRows);
-        ref double b0 = ref Unsafe.Add(ref t0, k * TileRows);
+        ref double a1 = ref Unsafe.Add(ref a0, TileRows), a2 = ref Unsafe.Add(ref a0, 2 * TileRows), a3 = ref Unsafe.Add(ref a0, 3 * TileRows);
         ref double b1 = ref Unsafe.Add(ref b0, TileRows);
         ref double b2 = ref Unsafe.Add(ref b1, TileRows);
         Vector256<double> s00 = default, s01 = default, s02 = default, s10 = default, s11 = default, s12 = default,
@@ -265,39 +261,9 @@ public static class PearsonCorrelation
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void Block4x2(ref double t0, ref double a0, int k, double[] acc, int o, int padded)
+    private static void Block4x1(ref double a0, ref double b0, double[] acc, int o, int padded)
     {
-        ref double a1 = ref Unsafe.Add(ref a0, TileRows);
-        ref double a2 = ref Unsafe.Add(ref a1, TileRows);
-        ref double a3 = ref Unsafe.Add(ref a2, TileRows);
-        ref double b0 = ref Unsafe.Add(ref t0, k * TileRows);
-        ref double b1 = ref Unsafe.Add(ref b0, TileRows);
-        Vector256<double> s00 = default, s01 = default, s10 = default, s11 = default,
-                          s20 = default, s21 = default, s30 = default, s31 = default;
-        for (nuint t = 0; t < TileRows; t += 4)
-        {
-            var x0 = Vector256.LoadUnsafe(ref b0, t);
-            var x1 = Vector256.LoadUnsafe(ref b1, t);
-            var y = Vector256.LoadUnsafe(ref a0, t);
-            s00 = Fma.MultiplyAdd(y, x0, s00); s01 = Fma.MultiplyAdd(y, x1, s01);
-            y = Vector256.LoadUnsafe(ref a1, t);
-            s10 = Fma.MultiplyAdd(y, x0, s10); s11 = Fma.MultiplyAdd(y, x1, s11);
-            y = Vector256.LoadUnsafe(ref a2, t);
-            s20 = Fma.MultiplyAdd(y, x0, s20); s21 = Fma.MultiplyAdd(y, x1, s21);
-            y = Vector256.LoadUnsafe(ref a3, t);
-            s30 = Fma.MultiplyAdd(y, x0, s30); s31 = Fma.MultiplyAdd(y, x1, s31);
-        }
-        Store(acc, o, padded, Vector256.Sum(s00), Vector256.Sum(s01), Vector256.Sum(s10), Vector256.Sum(s11),
-            Vector256.Sum(s20), Vector256.Sum(s21), Vector256.Sum(s30), Vector256.Sum(s31));
-    }
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void Block4x1(ref double t0, ref double a0, int k, double[] acc, int o, int padded)
-    {
-        ref double a1 = ref Unsafe.Add(ref a0, TileRows);
-        ref double a2 = ref Unsafe.Add(ref a1, TileRows);
-        ref double a3 = ref Unsafe.Add(ref a2, TileRows);
-        ref double b0 = ref Unsafe.Add(ref t0, k * TileRows);
+        ref double a1 = ref Unsafe.Add(ref a0, TileRows), a2 = ref Unsafe.Add(ref a0, 2 * TileRows), a3 = ref Unsafe.Add(ref a0, 3 * TileRows);
         Vector256<double> s0 = default, s1 = default, s2 = default, s3 = default;
         for (nuint t = 0; t < TileRows; t += 4)
         {

@@ -74,10 +74,10 @@ public class PearsonCorrelationTests
     [Fact]
     public void Register_blocked_tile_kernel_sums_every_entry_like_a_single_dot_product()
     {
-        // Property (no outside source needed): the kernel's register blocking (4 × 3 with 4 × 2 / 4 × 1 remainders)
+        // Property (no outside source needed): the kernel's register blocking (4 × 3 with 4 × 1 steps for the remainder)
         // must not change any entry: each is the 4-lane fused multiply-add over the tile in order, reduced once and
         // added to the accumulator. Reference: that definition written out per entry. Padded widths 4..24 cover all
-        // remainders; the accumulator starts non-zero, as after earlier tiles.
+        // remainder steps; the accumulator starts non-zero, as after earlier tiles.
         if (!System.Runtime.Intrinsics.X86.Fma.IsSupported || !System.Runtime.Intrinsics.Vector256.IsHardwareAccelerated) return;
         var rng = new RandomStream(11);
         int rows = PearsonCorrelation.TileRows;
