@@ -214,7 +214,11 @@ public static class PearsonCorrelation
         }
     }
 
-    /// <summary>The same kernel with 256-bit fused multiply-add intrinsics (x86 FMA3).</summary>
+    /// <summary>The same sums with 256-bit fused multiply-add intrinsics (x86 FMA3), register-blocked 4 × 3: twelve
+    /// accumulators, seven loads per twelve multiply-adds (4 × 2: eight and six per eight), which keeps both FMA pipes
+    /// busy. Every entry is still the 4-lane sum over the tile in order, reduced by <see cref="Vector256.Sum{T}"/> and
+    /// added to <paramref name="acc"/> once, so the blocking changes no result; the 1 or 2 columns left over at the
+    /// end of a row block take 4 × 1 steps.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void AccumulateTileFma(double[] tile, int padded, double[] acc)
     {
@@ -222,32 +226,57 @@ public static class PearsonCorrelation
         for (int j = 0; j < padded; j += 4)
         {
             ref double a0 = ref Unsafe.Add(ref t0, j * TileRows);
-            ref double a1 = ref Unsafe.Add(ref a0, TileRows);
-            ref double a2 = ref Unsafe.Add(ref a1, TileRows);
-            ref double a3 = ref Unsafe.Add(ref a2, TileRows);
-            for (int k = 0; k < j + 4; k += 2)
-            {
-                ref double b0 = ref Unsafe.Add(ref t0, k * TileRows);
-                ref double b1 = ref Unsafe.Add(ref b0, TileRows);
-                Vector256<double> s00 = default, s01 = default, s10 = default, s11 = default,
-                                  s20 = default, s21 = default, s30 = default, s31 = default;
-                for (nuint t = 0; t < TileRows; t += 4)
-                {
-                    var x0 = Vector256.LoadUnsafe(ref b0, t);
-                    var x1 = Vector256.LoadUnsafe(ref b1, t);
-                    var y = Vector256.LoadUnsafe(ref a0, t);
-                    s00 = Fma.MultiplyAdd(y, x0, s00); s01 = Fma.MultiplyAdd(y, x1, s01);
-                    y = Vector256.LoadUnsafe(ref a1, t);
-                    s10 = Fma.MultiplyAdd(y, x0, s10); s11 = Fma.MultiplyAdd(y, x1, s11);
-                    y = Vector256.LoadUnsafe(ref a2, t);
-                    s20 = Fma.MultiplyAdd(y, x0, s20); s21 = Fma.MultiplyAdd(y, x1, s21);
-                    y = Vector256.LoadUnsafe(ref a3, t);
-                    s30 = Fma.MultiplyAdd(y, x0, s30); s31 = Fma.MultiplyAdd(y, x1, s31);
-                }
-                Store(acc, j * padded + k, padded, Vector256.Sum(s00), Vector256.Sum(s01), Vector256.Sum(s10), Vector256.Sum(s11),
-                    Vector256.Sum(s20), Vector256.Sum(s21), Vector256.Sum(s30), Vector256.Sum(s31));
-            }
+            int k = 0, end = j + 4;
+            for (; k + 3 <= end; k += 3) Block4x3(ref a0, ref Unsafe.Add(ref t0, k * TileRows), acc, j * padded + k, padded);
+            for (; k < end; k++) Block4x1(ref a0, ref Unsafe.Add(ref t0, k * TileRows), acc, j * padded + k, padded);
         }
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void Block4x3(ref double a0, ref double b0, double[] acc, int o, int padded)
+    {
+        ref double a1 = ref Unsafe.Add(ref a0, TileRows), a2 = ref Unsafe.Add(ref a0, 2 * TileRows), a3 = ref Unsafe.Add(ref a0, 3 * TileRows);
+        ref double b1 = ref Unsafe.Add(ref b0, TileRows);
+        ref double b2 = ref Unsafe.Add(ref b1, TileRows);
+        Vector256<double> s00 = default, s01 = default, s02 = default, s10 = default, s11 = default, s12 = default,
+                          s20 = default, s21 = default, s22 = default, s30 = default, s31 = default, s32 = default;
+        for (nuint t = 0; t < TileRows; t += 4)
+        {
+            var x0 = Vector256.LoadUnsafe(ref b0, t);
+            var x1 = Vector256.LoadUnsafe(ref b1, t);
+            var x2 = Vector256.LoadUnsafe(ref b2, t);
+            var y = Vector256.LoadUnsafe(ref a0, t);
+            s00 = Fma.MultiplyAdd(y, x0, s00); s01 = Fma.MultiplyAdd(y, x1, s01); s02 = Fma.MultiplyAdd(y, x2, s02);
+            y = Vector256.LoadUnsafe(ref a1, t);
+            s10 = Fma.MultiplyAdd(y, x0, s10); s11 = Fma.MultiplyAdd(y, x1, s11); s12 = Fma.MultiplyAdd(y, x2, s12);
+            y = Vector256.LoadUnsafe(ref a2, t);
+            s20 = Fma.MultiplyAdd(y, x0, s20); s21 = Fma.MultiplyAdd(y, x1, s21); s22 = Fma.MultiplyAdd(y, x2, s22);
+            y = Vector256.LoadUnsafe(ref a3, t);
+            s30 = Fma.MultiplyAdd(y, x0, s30); s31 = Fma.MultiplyAdd(y, x1, s31); s32 = Fma.MultiplyAdd(y, x2, s32);
+        }
+        acc[o] += Vector256.Sum(s00); acc[o + 1] += Vector256.Sum(s01); acc[o + 2] += Vector256.Sum(s02); o += padded;
+        acc[o] += Vector256.Sum(s10); acc[o + 1] += Vector256.Sum(s11); acc[o + 2] += Vector256.Sum(s12); o += padded;
+        acc[o] += Vector256.Sum(s20); acc[o + 1] += Vector256.Sum(s21); acc[o + 2] += Vector256.Sum(s22); o += padded;
+        acc[o] += Vector256.Sum(s30); acc[o + 1] += Vector256.Sum(s31); acc[o + 2] += Vector256.Sum(s32);
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void Block4x1(ref double a0, ref double b0, double[] acc, int o, int padded)
+    {
+        ref double a1 = ref Unsafe.Add(ref a0, TileRows), a2 = ref Unsafe.Add(ref a0, 2 * TileRows), a3 = ref Unsafe.Add(ref a0, 3 * TileRows);
+        Vector256<double> s0 = default, s1 = default, s2 = default, s3 = default;
+        for (nuint t = 0; t < TileRows; t += 4)
+        {
+            var x0 = Vector256.LoadUnsafe(ref b0, t);
+            s0 = Fma.MultiplyAdd(Vector256.LoadUnsafe(ref a0, t), x0, s0);
+            s1 = Fma.MultiplyAdd(Vector256.LoadUnsafe(ref a1, t), x0, s1);
+            s2 = Fma.MultiplyAdd(Vector256.LoadUnsafe(ref a2, t), x0, s2);
+            s3 = Fma.MultiplyAdd(Vector256.LoadUnsafe(ref a3, t), x0, s3);
+        }
+        acc[o] += Vector256.Sum(s0); o += padded;
+        acc[o] += Vector256.Sum(s1); o += padded;
+        acc[o] += Vector256.Sum(s2); o += padded;
+        acc[o] += Vector256.Sum(s3);
     }
 
     private static void Store(double[] acc, int o, int padded, double s00, double s01, double s10, double s11,

@@ -17,7 +17,7 @@ public sealed record ItemDescriptive(string Item, int Respondents, double Mean, 
 /// Item descriptives: moment skewness g₁ and excess kurtosis g₂ (the g-type measures of Joanes, D. N., &amp; Gill,
 /// C. A., 1998, "Comparing measures of sample skewness and kurtosis", The Statistician 47, 183–189, type g), floor and
 /// ceiling shares at the codebook's lowest and highest category (after reverse scoring: the scored scale's ends).
-/// Two passes per item (mean, then central moments). NaN where undefined (n = 0; SD and moments for n &lt; 2 or zero variance).
+/// Two passes over the rows (means, then central moments). NaN where undefined (n = 0; SD and moments for n &lt; 2 or zero variance).
 /// </summary>
 public static class ItemDescriptives
 {
@@ -26,38 +26,55 @@ public static class ItemDescriptives
     {
         ArgumentNullException.ThrowIfNull(data);
         int n = data.RespondentCount, p = data.ItemCount;
-        var x = new double[(long)n * p];
-        for (int i = 0; i < n; i++) data.CopyRow(i, x.AsSpan((int)((long)i * p), p));
-        var rows = new ItemDescriptive[p];
+        // Both passes stream the rows in blocks (no n × p copy); each item's sums still run over the respondents in
+        // input order, one term per answer, so every result is the same double as a plain loop over the column.
+        var count = new int[p];
+        var low = new int[p];
+        var high = new int[p];
+        var sum = new double[p];
+        var min = new double[p];
+        var max = new double[p];
+        for (int j = 0; j < p; j++) (min[j], max[j]) = (data.Items[j].Min, data.Items[j].Max);
+        data.ForEachBlock(ItemMoments.BlockRows, (x, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+                for (int j = 0; j < p; j++)
+                {
+                    double v = x[o + j];
+                    if (double.IsNaN(v)) continue;
+                    count[j]++;
+                    sum[j] += v;
+                    if (v == min[j]) low[j]++;
+                    if (v == max[j]) high[j]++;
+                }
+        });
+        var mean = new double[p];
+        for (int j = 0; j < p; j++) mean[j] = count[j] > 0 ? sum[j] / count[j] : double.NaN;
+        var m2 = new double[p];
+        var m3 = new double[p];
+        var m4 = new double[p];
+        data.ForEachBlock(ItemMoments.BlockRows, (x, rows) =>
+        {
+            for (int o = 0; o < rows * p; o += p)
+                for (int j = 0; j < p; j++)
+                {
+                    double v = x[o + j];
+                    if (double.IsNaN(v)) continue;
+                    double d = v - mean[j], d2 = d * d;
+                    m2[j] += d2; m3[j] += d2 * d; m4[j] += d2 * d2;
+                }
+        });
+        var result = new ItemDescriptive[p];
         for (int j = 0; j < p; j++)
         {
-            var item = data.Items[j];
-            int count = 0, low = 0, high = 0;
-            double sum = 0;
-            for (int i = 0; i < n; i++)
-            {
-                double v = x[(long)i * p + j];
-                if (double.IsNaN(v)) continue;
-                count++;
-                sum += v;
-                if (v == item.Min) low++;
-                if (v == item.Max) high++;
-            }
-            double mean = count > 0 ? sum / count : double.NaN;
-            double m2 = 0, m3 = 0, m4 = 0;
-            for (int i = 0; i < n; i++)
-            {
-                double v = x[(long)i * p + j];
-                if (double.IsNaN(v)) continue;
-                double d = v - mean, d2 = d * d;
-                m2 += d2; m3 += d2 * d; m4 += d2 * d2;
-            }
-            double sd = count > 1 ? Math.Sqrt(m2 / (count - 1)) : double.NaN;
-            m2 /= count; m3 /= count; m4 /= count;
-            bool ok = count > 1 && m2 > 0;
-            rows[j] = new ItemDescriptive(item.Name, count, mean, sd, ok ? m3 / Math.Pow(m2, 1.5) : double.NaN, ok ? m4 / (m2 * m2) - 3 : double.NaN,
-                count > 0 ? (double)low / count : double.NaN, count > 0 ? (double)high / count : double.NaN, n > 0 ? (double)(n - count) / n : double.NaN);
+            int c = count[j];
+            double sd = c > 1 ? Math.Sqrt(m2[j] / (c - 1)) : double.NaN;
+            double s2 = m2[j] / c, s3 = m3[j] / c, s4 = m4[j] / c;
+            bool ok = c > 1 && s2 > 0;
+            result[j] = new ItemDescriptive(data.Items[j].Name, c, mean[j], sd, ok ? s3 / Math.Pow(s2, 1.5) : double.NaN,
+                ok ? s4 / (s2 * s2) - 3 : double.NaN, c > 0 ? (double)low[j] / c : double.NaN, c > 0 ? (double)high[j] / c : double.NaN,
+                n > 0 ? (double)(n - c) / n : double.NaN);
         }
-        return rows;
+        return result;
     }
 }

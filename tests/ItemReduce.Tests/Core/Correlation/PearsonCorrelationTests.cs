@@ -72,6 +72,37 @@ public class PearsonCorrelationTests
     }
 
     [Fact]
+    public void Register_blocked_tile_kernel_sums_every_entry_like_a_single_dot_product()
+    {
+        // Property (no outside source needed): the kernel's register blocking (4 × 3 with 4 × 1 steps for the remainder)
+        // must not change any entry: each is the 4-lane fused multiply-add over the tile in order, reduced once and
+        // added to the accumulator. Reference: that definition written out per entry. Padded widths 4..24 cover all
+        // remainder steps; the accumulator starts non-zero, as after earlier tiles.
+        if (!System.Runtime.Intrinsics.X86.Fma.IsSupported || !System.Runtime.Intrinsics.Vector256.IsHardwareAccelerated) return;
+        var rng = new RandomStream(11);
+        int rows = PearsonCorrelation.TileRows;
+        for (int padded = 4; padded <= 24; padded += 4)
+        {
+            var tile = new double[padded * rows];
+            for (int i = 0; i < tile.Length; i++) tile[i] = rng.NextGaussian();
+            var acc = new double[padded * padded];
+            for (int i = 0; i < acc.Length; i++) acc[i] = rng.NextGaussian();
+            var expected = (double[])acc.Clone();
+            for (int j = 0; j < padded; j++)
+                for (int k = 0; k < (j / 4 + 1) * 4; k++)
+                {
+                    var s = System.Runtime.Intrinsics.Vector256<double>.Zero;
+                    for (int t = 0; t < rows; t += 4)
+                        s = System.Runtime.Intrinsics.X86.Fma.MultiplyAdd(System.Runtime.Intrinsics.Vector256.Create(tile.AsSpan(j * rows + t, 4)),
+                            System.Runtime.Intrinsics.Vector256.Create(tile.AsSpan(k * rows + t, 4)), s);
+                    expected[j * padded + k] += System.Runtime.Intrinsics.Vector256.Sum(s);
+                }
+            PearsonCorrelation.AccumulateTile(tile, padded, acc);
+            Assert.Equal(expected, acc);
+        }
+    }
+
+    [Fact]
     public void Pairwise_uses_each_pairs_joint_answers_and_listwise_only_complete_rows()
     {
         var d = RandomData(400, 5, 3, missing: 0.15);
