@@ -168,9 +168,17 @@ public static class ParallelAnalysis
         var replicates = PermutationReplicates.TryCreate(sample, correlation);
         if (replicates is null) return PermutationReference(data, d => correlation.Compute(d, 1), options);
         int p = sample.ItemCount;
-        using var workers = new ThreadLocal<PermutationReplicates.Worker>(replicates.NewWorker);
-        var draw = CountDraws(options, (rng, _, r) => replicates.Draw(workers.Value!, rng, r));
-        var reference = Run(p, options with { Reference = ReferenceKind.Permutation, ReplicatesDone = null }, PermutationPurpose, () => [], draw);
+        // Workers (one n × p byte copy each) are lent to one replicate at a time; with at most one replicate per core at
+        // once, no more than that many are ever made, however many threads the pool adds.
+        var workers = new System.Collections.Concurrent.ConcurrentBag<PermutationReplicates.Worker>();
+        var draw = CountDraws(options, (rng, _, r) =>
+        {
+            if (!workers.TryTake(out var worker)) worker = replicates.NewWorker();
+            replicates.Draw(worker, rng, r);
+            workers.Add(worker);
+        });
+        var reference = Run(p, options with { Reference = ReferenceKind.Permutation, ReplicatesDone = null, MaxDegreeOfParallelism = Workers(options) },
+            PermutationPurpose, () => [], draw);
         return reference with { PermutedRespondents = sample.RespondentCount, Subsampled = subsampled };
     }
 
@@ -184,10 +192,15 @@ public static class ParallelAnalysis
         options.Validate();
         (data, bool subsampled) = PermutationSample(data, options);
         int n = data.RespondentCount;
-        var quiet = options with { ReplicatesDone = null };
+        var quiet = options with { ReplicatesDone = null, MaxDegreeOfParallelism = Workers(options) };
         var reference = data.IsCompact ? PermuteCodes(data, correlate, quiet, options) : PermuteValues(data, correlate, quiet, options);
         return reference with { PermutedRespondents = n, Subsampled = subsampled };
     }
+
+    /// <summary>Replicates run at once by the permutation reference, each with its own copy of the data: the thread cap,
+    /// or the number of cores (not more, which the thread pool may otherwise reach when replicates take long).</summary>
+    private static int Workers(ParallelAnalysisOptions options)
+        => options.MaxDegreeOfParallelism == -1 ? Environment.ProcessorCount : options.MaxDegreeOfParallelism;
 
     /// <summary>The respondents the permutation replicates shuffle: all of them, or the seeded subsample above
     /// <see cref="ParallelAnalysisOptions.PermutationMaxRows"/>.</summary>

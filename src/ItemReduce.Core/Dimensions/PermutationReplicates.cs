@@ -23,7 +23,13 @@ namespace ItemReduce.Core.Dimensions;
 /// totals (which a permutation does not change) minus the few respondents with a missing answer, gathered per row;
 /// the correlations are then formed exactly as <see cref="PearsonCorrelation"/> forms them from exact integer sums
 /// (m·C_jk = m·P_jk − S_j|k S_k|j in 128-bit integers, one rounding), common practice, no source.</item>
+/// <item>Polychoric: the contingency table of every pair is counted from bit sets of the categories of the permuted
+/// items (one AND and population count per 64 respondents and cell); the thresholds of an item without missing answers
+/// are the same in every replicate and are computed once; each table's two-step estimate is taken by
+/// <see cref="TetrachoricSeries"/> (the same maximum-likelihood estimate as <see cref="PolychoricCorrelation"/>).</item>
 /// </list>
+/// A random table with the pair's margins is not used: it has the right distribution for one pair, but
+/// the tables of pairs that share an item are not independent in permuted data, and the eigenvalues depend on that.
 /// Every sum is an exact integer, so the result does not depend on the order of summation or the number of threads.
 /// </summary>
 internal sealed class PermutationReplicates
@@ -38,16 +44,22 @@ internal sealed class PermutationReplicates
     internal const int MaxShifted = 127;
 
     private readonly int _n, _p, _nPad, _pp, _pr, _flush;
+
+    /// <summary>The polychoric variant: item j's column holds its category numbers (0 … c_j − 1, 255 missing).</summary>
+    internal static PermutationReplicates ForCategories(int n, byte[][] categories, PolychoricTables tables)
+        => new(n, categories.Length, categories, 1, tables);
     private readonly byte[][] _shifted;      // item j: w of every respondent in row order (0 = missing)
     private readonly long[] _total, _totalSquares;
     private readonly int[] _missing;
     private readonly bool _anyMissing;
+    private readonly PolychoricTables? _polychoric;
 
-    private PermutationReplicates(int n, int p, byte[][] shifted, int maxShifted)
+    private PermutationReplicates(int n, int p, byte[][] shifted, int maxShifted, PolychoricTables? polychoric = null)
     {
+        _polychoric = polychoric;
         _n = n;
         _p = p;
-        _nPad = (n + 31) & ~31;
+        _nPad = (n + 63) & ~63;
         _pp = (p + 3) & ~3;
         _pr = (p + 31) & ~31;
         _shifted = shifted;
@@ -55,7 +67,7 @@ internal sealed class PermutationReplicates
         _total = new long[p];
         _totalSquares = new long[p];
         _missing = new int[p];
-        for (int j = 0; j < p; j++)
+        for (int j = 0; j < p && polychoric is null; j++)
             foreach (byte w in shifted[j])
             {
                 _total[j] += w;
@@ -70,9 +82,10 @@ internal sealed class PermutationReplicates
     /// <see cref="MaxShifted"/> − 1 points, listwise deletion, polychoric correlations, or sums that could overflow).</summary>
     internal static PermutationReplicates? TryCreate(ResponseMatrix data, CorrelationOptions correlation)
     {
-        if (correlation.Kind != CorrelationKind.Pearson) return null;
         if (correlation.MissingData == MissingDataHandling.Listwise && data.HasMissing()) return null;
         if (data.CodeHistogram() is not var (counts, decode, _, _)) return null;
+        if (correlation.Kind == CorrelationKind.Polychoric) return PolychoricTables.TryCreate(data, counts, decode);
+        if (correlation.Kind != CorrelationKind.Pearson) return null;
         int n = data.RespondentCount, p = data.ItemCount;
         var table = new byte[p][];
         int widest = 1;
@@ -117,6 +130,12 @@ internal sealed class PermutationReplicates
         internal Worker(PermutationReplicates owner)
         {
             Columns = new byte[(long)owner._pp * owner._nPad];
+            if (owner._polychoric is { } tables)
+            {
+                Tables = tables.NewWorker(Columns, owner._n, owner._nPad);
+                Products = [];
+                return;
+            }
             Products = new long[owner._pp * owner._pp];
             if (owner._anyMissing)
             {
@@ -130,6 +149,7 @@ internal sealed class PermutationReplicates
 
         internal byte[] Columns { get; }
         internal long[] Products { get; }
+        internal PolychoricTables.Buffers? Tables { get; }
         internal byte[]? Block { get; }
         internal int[]? LessSums { get; }
         internal int[]? LessSquares { get; }
@@ -150,6 +170,11 @@ internal sealed class PermutationReplicates
             var column = cols.AsSpan(j * nPad, n);
             _shifted[j].CopyTo(column);
             rng.Shuffle(column);
+        }
+        if (_polychoric is { } tables)
+        {
+            tables.Correlations(worker.Tables!, r);
+            return;
         }
         var products = worker.Products;
         Array.Clear(products);
