@@ -48,18 +48,7 @@ public sealed class RandomStream
     }
 
     /// <summary>Next 64 random bits.</summary>
-    public ulong NextUInt64()
-    {
-        ulong result = ulong.RotateLeft(_s1 * 5, 7) * 9;
-        ulong t = _s1 << 17;
-        _s2 ^= _s0;
-        _s3 ^= _s1;
-        _s1 ^= _s2;
-        _s0 ^= _s3;
-        _s2 ^= t;
-        _s3 = ulong.RotateLeft(_s3, 45);
-        return result;
-    }
+    public ulong NextUInt64() => Step(ref _s0, ref _s1, ref _s2, ref _s3);
 
     /// <summary>Uniform double in [0, 1) with 53 random bits.</summary>
     public double NextDouble() => (NextUInt64() >> 11) * (1.0 / (1UL << 53));
@@ -135,7 +124,7 @@ public sealed class RandomStream
         _s3 = s3;
     }
 
-    /// <summary>One step of xoshiro256** on a state held in locals (the same as <see cref="NextUInt64"/>).</summary>
+    /// <summary>One step of xoshiro256** (<see cref="NextUInt64"/> on the fields, <see cref="Shuffle{T}"/> on locals).</summary>
     [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
     private static ulong Step(ref ulong s0, ref ulong s1, ref ulong s2, ref ulong s3)
     {
