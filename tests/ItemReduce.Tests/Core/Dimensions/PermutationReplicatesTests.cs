@@ -49,27 +49,19 @@ public class PermutationReplicatesTests
         SameReference(plain, fast, 1e-12);
     }
 
-    [Fact]
-    public void Polychoric_replicates_equal_the_plain_column_permutation()
+    [Theory]
+    [InlineData(0.05, 12ul)]
+    [InlineData(0.0, 13ul)]
+    public void Polychoric_replicates_equal_the_plain_column_permutation(double missing, ulong seed)
     {
-        var data = Survey(250, 4, 12);
+        // Without missing answers the thresholds are computed once and the last row and column come from the margins.
+        var data = Survey(250, 4, seed, missing);
         var polychoric = new CorrelationOptions { Kind = CorrelationKind.Polychoric };
         Assert.NotNull(PermutationReplicates.TryCreate(data, polychoric));
         var o = new ParallelAnalysisOptions { Replicates = 30, Seed = 6, MaxDegreeOfParallelism = 1 };
         var fast = ParallelAnalysis.PermutationReference(data, polychoric, o);
         var plain = ParallelAnalysis.PermutationReference(data, d => PolychoricCorrelation.Compute(d, MissingDataHandling.Pairwise, 1), o);
         // The plain estimate stops Brent's search at about 1e-10 in ρ.
-        SameReference(plain, fast, 1e-8);
-    }
-
-    [Fact]
-    public void Polychoric_replicates_of_complete_items_equal_the_plain_column_permutation()
-    {
-        var data = Survey(250, 4, 13, missing: 0);
-        var polychoric = new CorrelationOptions { Kind = CorrelationKind.Polychoric };
-        var o = new ParallelAnalysisOptions { Replicates = 30, Seed = 7, MaxDegreeOfParallelism = 1 };
-        var fast = ParallelAnalysis.PermutationReference(data, polychoric, o);
-        var plain = ParallelAnalysis.PermutationReference(data, d => PolychoricCorrelation.Compute(d, MissingDataHandling.Pairwise, 1), o);
         SameReference(plain, fast, 1e-8);
     }
 
@@ -116,7 +108,8 @@ public class PermutationReplicatesTests
             var corr = PearsonCorrelation.Compute(data.WithValues(v), MissingDataHandling.Pairwise);
             slow[r] = SymmetricEigensolver.Eigenvalues(corr)[0];
         }
-        Assert.True(KolmogorovSmirnov(fast, slow) < 0.159, $"D = {KolmogorovSmirnov(fast, slow)}");
+        double d = ParallelAnalysisTests.KolmogorovSmirnov(fast, slow);
+        Assert.True(d < 0.159, $"D = {d}");
     }
 
     /// <summary>The largest eigenvalue of each fast replicate (one replicate per call, percentile of one = the value).</summary>
@@ -135,22 +128,6 @@ public class PermutationReplicatesTests
             values[k] = SymmetricEigensolver.Eigenvalues(m)[0];
         }
         return values;
-    }
-
-    private static double KolmogorovSmirnov(double[] a, double[] b)
-    {
-        var sa = a.Order().ToArray();
-        var sb = b.Order().ToArray();
-        double d = 0;
-        int i = 0, j = 0;
-        while (i < sa.Length && j < sb.Length)
-        {
-            double x = Math.Min(sa[i], sb[j]);
-            while (i < sa.Length && sa[i] <= x) i++;
-            while (j < sb.Length && sb[j] <= x) j++;
-            d = Math.Max(d, Math.Abs((double)i / sa.Length - (double)j / sb.Length));
-        }
-        return d;
     }
 
     [Fact]
