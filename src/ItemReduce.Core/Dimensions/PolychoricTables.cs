@@ -22,7 +22,7 @@ internal sealed class PolychoricTables
     private const byte Missing = ResponseMatrix.MissingCode;
     private const byte Padding = Missing - 1;
 
-    private readonly int _n, _p, _words, _slots;
+    private readonly int _p, _words, _slots;
     private readonly int[] _levels;
     private readonly long[][] _counts;
     private readonly bool[] _complete;
@@ -30,7 +30,6 @@ internal sealed class PolychoricTables
 
     private PolychoricTables(int n, int[] levels, long[][] counts, bool[] complete)
     {
-        _n = n;
         _p = levels.Length;
         _words = (n + 63) / 64;
         _levels = levels;
