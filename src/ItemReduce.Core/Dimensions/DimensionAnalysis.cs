@@ -19,7 +19,7 @@ public static class DimensionAnalysis
     /// <param name="options">Settings.</param>
     /// <exception cref="ArgumentException">Invalid options, too few items or respondents, or a pair of items
     /// with fewer than 3 joint answers (its correlation is undefined).</exception>
-    /// <param name="progress">Optional callback told how many permutation-reference replicates are done (every tenth).</param>
+    /// <param name="progress">Optional callback told how many parallel-analysis replicates are done.</param>
     public static DimensionResult Run(ResponseMatrix data, DimensionOptions options, Action<string>? progress = null)
     {
         ArgumentNullException.ThrowIfNull(data);
@@ -179,11 +179,11 @@ public static class DimensionAnalysis
     private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff, Action<string>? progress)
     {
         var po = ToParallelOptions(o);
-        // Reported every tenth of the replicates (a progress view shows it only when the step takes long).
+        // Reported every tenth of the replicates, the permutation replicates every hundredth from 0 (a progress view shows it only when the step takes long).
         if (progress is not null)
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)
-            return ParallelAnalysis.PermutationReference(data, d => o.Correlation.Compute(d, 1), po);
+            return ParallelAnalysis.PermutationReference(data, o.Correlation, po);
         if (o.Reference == ReferenceKind.Ordinal)
             return ParallelAnalysis.OrdinalReference(nEff, PolychoricNullDistribution.InformationFactors(data), po);
         return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);

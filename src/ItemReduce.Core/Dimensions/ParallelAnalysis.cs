@@ -156,25 +156,82 @@ public static class ParallelAnalysis
             (rng, scratch, r) => PolychoricNullDistribution.SampleInto(p, df, inverseRoot, rng, scratch, r));
     }
 
-    /// <summary>Permutation-reference eigenvalues: every replicate shuffles each item's answers independently
-    /// (missing answers move with them) and recomputes the correlation matrix with <paramref name="correlate"/>,
-    /// which is called from several threads at once and must be single-threaded and side-effect free.</summary>
+    /// <summary>Permutation-reference eigenvalues for data correlated as <paramref name="correlation"/> says: the
+    /// replicates of <see cref="PermutationReplicates"/> where they apply (compact integer answers), otherwise the plain
+    /// implementation below. Both shuffle the same way, so they describe the same permuted data sets.</summary>
+    internal static ParallelAnalysisReference PermutationReference(
+        ResponseMatrix data, CorrelationOptions correlation, ParallelAnalysisOptions options)
+    {
+        ArgumentNullException.ThrowIfNull(correlation);
+        options.Validate();
+        var (sample, subsampled) = PermutationSample(data, options);
+        var replicates = PermutationReplicates.TryCreate(sample, correlation);
+        if (replicates is null) return PermutationReference(data, d => correlation.Compute(d, 1), options);
+        int p = sample.ItemCount;
+        // Workers (one n × p byte copy each) are lent to one replicate at a time; with at most one replicate per core at
+        // once, no more than that many are ever made, however many threads the pool adds.
+        var workers = new System.Collections.Concurrent.ConcurrentBag<PermutationReplicates.Worker>();
+        var draw = CountDraws(options, (rng, _, r) =>
+        {
+            if (!workers.TryTake(out var worker)) worker = replicates.NewWorker();
+            replicates.Draw(worker, rng, r);
+            workers.Add(worker);
+        });
+        var reference = Run(p, options with { Reference = ReferenceKind.Permutation, ReplicatesDone = null, MaxDegreeOfParallelism = Workers(options) },
+            PermutationPurpose, () => [], draw);
+        return reference with { PermutedRespondents = sample.RespondentCount, Subsampled = subsampled };
+    }
+
+    /// <summary>Permutation-reference eigenvalues, plain implementation: every replicate shuffles each item's answers
+    /// independently (missing answers move with them) into a per-thread copy and recomputes the correlation matrix with
+    /// <paramref name="correlate"/>, which is called from several threads at once and must be single-threaded and
+    /// side-effect free.</summary>
     internal static ParallelAnalysisReference PermutationReference(
         ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
     {
         options.Validate();
+        (data, bool subsampled) = PermutationSample(data, options);
+        int n = data.RespondentCount;
+        var quiet = options with { ReplicatesDone = null, MaxDegreeOfParallelism = Workers(options) };
+        var reference = data.IsCompact ? PermuteCodes(data, correlate, quiet, options) : PermuteValues(data, correlate, quiet, options);
+        return reference with { PermutedRespondents = n, Subsampled = subsampled };
+    }
+
+    /// <summary>Replicates run at once by the permutation reference, each with its own copy of the data: the thread cap,
+    /// or the number of cores (not more, which the thread pool may otherwise reach when replicates take long).</summary>
+    private static int Workers(ParallelAnalysisOptions options)
+        => options.MaxDegreeOfParallelism == -1 ? Environment.ProcessorCount : options.MaxDegreeOfParallelism;
+
+    /// <summary>The respondents the permutation replicates shuffle: all of them, or the seeded subsample above
+    /// <see cref="ParallelAnalysisOptions.PermutationMaxRows"/>.</summary>
+    private static (ResponseMatrix Data, bool Subsampled) PermutationSample(ResponseMatrix data, ParallelAnalysisOptions options)
+    {
         int all = data.RespondentCount;
         bool subsampled = all > options.PermutationMaxRows;
-        if (subsampled) data = data.SelectRespondents(SubsampleRows(all, options.PermutationMaxRows, options.Seed));
-        int n = data.RespondentCount, p = data.ItemCount;
-        var reference = data.IsCompact ? PermuteCodes(data, correlate, options) : PermuteValues(data, correlate, options);
-        return reference with { PermutedRespondents = n, Subsampled = subsampled };
+        return (subsampled ? data.SelectRespondents(SubsampleRows(all, options.PermutationMaxRows, options.Seed)) : data, subsampled);
+    }
+
+    /// <summary>Progress of the permutation replicates, whose correlation matrices are the slow part: "0 done" at once,
+    /// then every hundredth of the replicates as their matrices are drawn (so a view shows movement from the first
+    /// second even when one replicate takes long). Reporting does not touch the random streams.</summary>
+    private static Action<RandomStream, double[], double[]> CountDraws(ParallelAnalysisOptions options, Action<RandomStream, double[], double[]> draw)
+    {
+        if (options.ReplicatesDone is not { } report) return draw;
+        report(0);
+        int drawn = 0, step = Math.Max(1, options.Replicates / 100);
+        return (rng, scratch, r) =>
+        {
+            draw(rng, scratch, r);
+            int k = Interlocked.Increment(ref drawn);
+            if (k % step == 0 || k == options.Replicates) report(k);
+        };
     }
 
     /// <summary>Permutation replicates of compact data: the byte codes are shuffled (the same permutations as
     /// <see cref="PermuteValues"/> would apply, since each column is shuffled by the same stream), so every
     /// replicate is itself compact and is correlated by the fast exact path.</summary>
-    private static ParallelAnalysisReference PermuteCodes(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    private static ParallelAnalysisReference PermuteCodes(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate,
+        ParallelAnalysisOptions options, ParallelAnalysisOptions progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
         var columns = new byte[p][];
@@ -182,7 +239,7 @@ public static class ParallelAnalysis
         using var codes = new ThreadLocal<byte[]>(() => new byte[(long)n * p]);
         using var shuffledColumn = new ThreadLocal<byte[]>(() => new byte[n]);
         return Run(p, options with { Reference = ReferenceKind.Permutation }, PermutationPurpose, () => [],
-            (rng, _, r) =>
+            CountDraws(progress, (rng, _, r) =>
             {
                 var buffer = codes.Value!;
                 var shuffled = shuffledColumn.Value!;
@@ -194,17 +251,18 @@ public static class ParallelAnalysis
                 }
                 var c = correlate(data.WithCodes(buffer));
                 Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
-            });
+            }));
     }
 
     /// <summary>Permutation replicates of dense data: shuffled doubles in a per-worker buffer.</summary>
-    private static ParallelAnalysisReference PermuteValues(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate, ParallelAnalysisOptions options)
+    private static ParallelAnalysisReference PermuteValues(ResponseMatrix data, Func<ResponseMatrix, double[,]> correlate,
+        ParallelAnalysisOptions options, ParallelAnalysisOptions progress)
     {
         int n = data.RespondentCount, p = data.ItemCount;
         var columns = new double[p][];
         for (int j = 0; j < p; j++) columns[j] = data.Column(j);
         return Run(p, options with { Reference = ReferenceKind.Permutation }, PermutationPurpose, () => new double[(long)n * p],
-            (rng, buffer, r) =>
+            CountDraws(progress, (rng, buffer, r) =>
             {
                 var shuffled = new double[n];
                 for (int j = 0; j < p; j++)
@@ -215,7 +273,7 @@ public static class ParallelAnalysis
                 }
                 var c = correlate(data.WithValues(buffer));
                 Buffer.BlockCopy(c, 0, r, 0, p * p * sizeof(double));
-            });
+            }));
     }
 
     /// <summary>A seeded random subset of <paramref name="count"/> of the rows 0 .. n − 1, in ascending order.</summary>

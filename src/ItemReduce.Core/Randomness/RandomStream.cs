@@ -48,18 +48,7 @@ public sealed class RandomStream
     }
 
     /// <summary>Next 64 random bits.</summary>
-    public ulong NextUInt64()
-    {
-        ulong result = ulong.RotateLeft(_s1 * 5, 7) * 9;
-        ulong t = _s1 << 17;
-        _s2 ^= _s0;
-        _s3 ^= _s1;
-        _s1 ^= _s2;
-        _s0 ^= _s3;
-        _s2 ^= t;
-        _s3 = ulong.RotateLeft(_s3, 45);
-        return result;
-    }
+    public ulong NextUInt64() => Step(ref _s0, ref _s1, ref _s2, ref _s3);
 
     /// <summary>Uniform double in [0, 1) with 53 random bits.</summary>
     public double NextDouble() => (NextUInt64() >> 11) * (1.0 / (1UL << 53));
@@ -106,13 +95,47 @@ public sealed class RandomStream
         return u * f;
     }
 
-    /// <summary>Fisher–Yates shuffle of <paramref name="values"/> in place.</summary>
+    /// <summary>Fisher–Yates shuffle of <paramref name="values"/> in place: position i = n − 1, …, 1 swaps with
+    /// <c>NextInt(i + 1)</c>. The generator state is kept in locals for the loop (the same draws as calling
+    /// <see cref="NextInt"/>, several times faster on long spans).</summary>
     public void Shuffle<T>(Span<T> values)
     {
+        ulong s0 = _s0, s1 = _s1, s2 = _s2, s3 = _s3;
         for (int i = values.Length - 1; i > 0; i--)
         {
-            int k = NextInt(i + 1);
+            uint bound = (uint)i + 1;
+            ulong m = (ulong)(uint)Step(ref s0, ref s1, ref s2, ref s3) * bound;
+            uint l = (uint)m;
+            if (l < bound)
+            {
+                uint t = (0u - bound) % bound;
+                while (l < t)
+                {
+                    m = (ulong)(uint)Step(ref s0, ref s1, ref s2, ref s3) * bound;
+                    l = (uint)m;
+                }
+            }
+            int k = (int)(m >> 32);
             (values[i], values[k]) = (values[k], values[i]);
         }
+        _s0 = s0;
+        _s1 = s1;
+        _s2 = s2;
+        _s3 = s3;
+    }
+
+    /// <summary>One step of xoshiro256** (<see cref="NextUInt64"/> on the fields, <see cref="Shuffle{T}"/> on locals).</summary>
+    [System.Runtime.CompilerServices.MethodImpl(System.Runtime.CompilerServices.MethodImplOptions.AggressiveInlining)]
+    private static ulong Step(ref ulong s0, ref ulong s1, ref ulong s2, ref ulong s3)
+    {
+        ulong result = ulong.RotateLeft(s1 * 5, 7) * 9;
+        ulong t = s1 << 17;
+        s2 ^= s0;
+        s3 ^= s1;
+        s1 ^= s2;
+        s0 ^= s3;
+        s2 ^= t;
+        s3 = ulong.RotateLeft(s3, 45);
+        return result;
     }
 }

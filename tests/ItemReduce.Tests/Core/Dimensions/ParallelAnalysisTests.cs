@@ -83,7 +83,8 @@ public class ParallelAnalysisTests
         return x.Sum(v => (v - m) * (v - m)) / (x.Length - 1);
     }
 
-    private static double KolmogorovSmirnov(double[] a, double[] b)
+    /// <summary>Two-sample Kolmogorov–Smirnov distance (largest gap between the empirical distribution functions).</summary>
+    internal static double KolmogorovSmirnov(double[] a, double[] b)
     {
         var sa = a.Order().ToArray();
         var sb = b.Order().ToArray();
