@@ -9,12 +9,19 @@ import subprocess, sys
 
 LIMIT = 150
 ALLOWANCE = ".ci/line-length-allowance.txt"
+# Files exempt, with the reason.
+EXEMPT = {
+    # The citation registry: one work per constant, each on one line, so that a search for an author finds the whole entry.
+    "src/ItemReduce.Application/Appendix/MethodReferences.cs",
+}
 
 
 def long_lines():
     files = subprocess.run(["git", "ls-files", "*.cs"], capture_output=True, text=True, check=True).stdout.split()
     counts = {}
     for f in files:
+        if f in EXEMPT:
+            continue
         with open(f, encoding="utf-8") as h:
             n = sum(1 for line in h if len(line.rstrip("\n")) > LIMIT)
         if n:

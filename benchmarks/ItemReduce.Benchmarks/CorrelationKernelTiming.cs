@@ -6,10 +6,12 @@ using ItemReduce.Core.Randomness;
 namespace ItemReduce.Benchmarks;
 
 /// <summary>
-/// Best-of-R timing (R batches of calls, each at least a quarter second of CPU) of the complete-data Pearson correlation (<see cref="PearsonCorrelation"/>: means, centring into
+/// Best-of-R timing (R batches of calls, each at least a quarter second of CPU) of the complete-data Pearson correlation (<see
+/// cref="PearsonCorrelation"/>: means, centring into
 /// tiles, the lower triangle of XcᵀXc, scaling) on seeded normal n × p data, for comparison with a dgemm of the same
 /// shape in another process (benchmarks/kernel/correlation-roof.sh). Prints one line per shape:
-/// <c>n p best_wall_seconds gflops best_cpu_seconds gflops_per_cpu_second</c>, flops counted as n·p² (one multiply and one add per lower-triangle entry and
+/// <c>n p best_wall_seconds gflops best_cpu_seconds gflops_per_cpu_second</c>, flops counted as n·p² (one multiply and one add per lower-triangle
+/// entry and
 /// observation, the convention of the README's Speed table). Not a BenchmarkDotNet job: the script alternates it
 /// with the dgemm timing so that both see the same load on the shared machine.
 /// </summary>

@@ -17,7 +17,8 @@ if (args is ["correlation-kernel", var nList, var pList, ..])
 {
     static int[] Ints(string list) => list.Split(',').Select(x => int.Parse(x, CultureInfo.InvariantCulture)).ToArray();
     ItemReduce.Benchmarks.CorrelationKernelTiming.Run(Ints(nList), Ints(pList),
-        args.Length > 3 ? int.Parse(args[3], CultureInfo.InvariantCulture) : 20, args.Length > 4 ? int.Parse(args[4], CultureInfo.InvariantCulture) : -1);
+        args.Length > 3 ? int.Parse(args[3], CultureInfo.InvariantCulture) : 20,
+        args.Length > 4 ? int.Parse(args[4], CultureInfo.InvariantCulture) : -1);
     return;
 }
 BenchmarkSwitcher.FromAssembly(typeof(ItemReduce.Benchmarks.DimensionBenchmarks).Assembly).Run(args);

@@ -11,7 +11,8 @@ using System.Globalization;
 //   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- train OUT_DIR [surveys=2000] [replicates=1000] [seed=7001]
 //   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- train-hard OUT_DIR [surveys=1000] [replicates=1000] [seed=7002]
 // "fit": fits the combined rule on training tables and writes its coefficient file (see Fit).
-//   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- fit src/ItemReduce.Core/Dimensions/CombinedRetentionModel.cs PROVENANCE_TXT TRAINING_CSV...
+//   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- fit src/ItemReduce.Core/Dimensions/CombinedRetentionModel.cs
+// PROVENANCE_TXT TRAINING_CSV...
 // "ordinal": checks of the ordinal references (see OrdinalCheck).
 // "timing": step times of comparison data and parallel analysis at 20,000 × 100 (see Timing), for tuning.
 // Results do not depend on the number of threads: every data set has its own seed.

@@ -9,7 +9,8 @@ namespace ItemReduce.Cli;
 
 /// <summary>
 /// The command-line shell: parses options (merging a plan file) into the declared settings, builds one
-/// <see cref="JobSettings"/>, hands it to the job and prints the run's warnings (numbered, one line each, unless --quiet). Exit codes: 0 success, 2 input or usage problem, 1 unexpected internal failure.
+/// <see cref="JobSettings"/>, hands it to the job and prints the run's warnings (numbered, one line each, unless --quiet). Exit codes: 0 success, 2
+/// input or usage problem, 1 unexpected internal failure.
 /// </summary>
 internal static class CliApp
 {

@@ -65,7 +65,8 @@ public static class ScreeningStudy
         }
     }
 
-    /// <summary>Pseudo reason counted for comparison only: the classical distance beyond its χ² cutoff (whether or not it is the rule in use).</summary>
+    /// <summary>Pseudo reason counted for comparison only: the classical distance beyond its χ² cutoff (whether or not it is the rule in
+    /// use).</summary>
     public const string ClassicalChiSquare = "(classical d2 > chi2)";
 
     /// <summary>The careless kinds planted, in order.</summary>

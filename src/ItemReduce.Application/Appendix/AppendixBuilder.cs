@@ -485,7 +485,8 @@ internal static partial class AppendixBuilder
     /// <summary>Most rows of the flagged-respondent table; the full list is in respondent-flags.csv.</summary>
     internal const int FlaggedTableLimit = 500;
 
-    /// <summary>Evenly spaced ranks drawn in the Q–Q plot when there are more points than <see cref="QqEvenRanks"/> + <see cref="QqTailRanks"/>.</summary>
+    /// <summary>Evenly spaced ranks drawn in the Q–Q plot when there are more points than <see cref="QqEvenRanks"/> + <see
+    /// cref="QqTailRanks"/>.</summary>
     internal const int QqEvenRanks = 2000;
 
     /// <summary>Largest distances always drawn in a thinned Q–Q plot (the tail is where atypical respondents show).</summary>

@@ -80,7 +80,8 @@ public static class ConfirmatoryCheck
             if (model is null) return;
             try
             {
-                outcomes[job] = (ConfirmatoryFactorAnalysis.Fit(samples[job % samples.Count].Item2, model.Value.Items, model.Value.Factor, model.Value.Names, listwise), null);
+                var (items, factor, names) = model.Value;
+                outcomes[job] = (ConfirmatoryFactorAnalysis.Fit(samples[job % samples.Count].Item2, items, factor, names, listwise), null);
             }
             catch (Exception e) when (e is DataConditionException or LinearAlgebra.MatrixNotPositiveDefiniteException)
             {

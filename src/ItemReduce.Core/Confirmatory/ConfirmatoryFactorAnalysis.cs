@@ -150,7 +150,8 @@ internal static class ConfirmatoryFactorAnalysis
 
     /// <summary>Fisher scoring on −2 ln L: step −½ I⁻¹ ∇, halved until −2 ln L falls (Armijo) with every pattern's
     /// covariance block positive definite; after <see cref="RefreshedIterations"/> iterations the metric ½ I⁻¹ is
-    /// improved by BFGS updates (<see cref="BfgsUpdate"/>) until a step fails to shrink fast. Returns (converged, iterations); <paramref name="theta"/> is updated in place.</summary>
+    /// improved by BFGS updates (<see cref="BfgsUpdate"/>) until a step fails to shrink fast. Returns (converged, iterations); <paramref
+    /// name="theta"/> is updated in place.</summary>
     private static (bool Converged, int Iterations) Minimise(IndependentClustersModel model, MissingDataPatterns data, double[] theta)
     {
         int p = model.Items, q = model.Parameters;

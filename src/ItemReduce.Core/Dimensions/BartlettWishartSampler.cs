@@ -19,7 +19,8 @@ namespace ItemReduce.Core.Dimensions;
 /// </para>
 /// <para>
 /// General scale matrix: if W ~ Wishart_p(I, m) and Σ = C Cᵀ (C lower triangular, the Cholesky factor), then
-/// C W Cᵀ ~ Wishart_p(Σ, m) (a standard property of the Wishart distribution; Anderson, 2003, ch. 7). With W = L Lᵀ from the Bartlett factor, C W Cᵀ = A Aᵀ
+/// C W Cᵀ ~ Wishart_p(Σ, m) (a standard property of the Wishart distribution; Anderson, 2003, ch. 7). With W = L Lᵀ from the Bartlett factor, C W Cᵀ
+/// = A Aᵀ
 /// where A = C L is again lower triangular, so a draw costs p³/3 multiply-adds: the sample correlation matrix of
 /// n = m + 1 normal observations from a population with correlation matrix Σ (used by <see cref="ComparisonData"/>).
 /// </para>

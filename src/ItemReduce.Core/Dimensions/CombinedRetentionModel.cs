@@ -9,17 +9,20 @@ namespace ItemReduce.Core.Dimensions;
 ///   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- train-hard OUT_DIR 1000 1000 7002
 /// (2,000 + 1,000 invented surveys of the training design Conditions.TrainingSurvey, seeds 7001 and 7002, 1,000 replicates, separate from the
 /// evaluation grid, which uses seed 2026 and fixed cells); fitted by
-///   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- fit src/ItemReduce.Core/Dimensions/CombinedRetentionModel.cs PROVENANCE_TXT OUT_DIR/training-datasets.csv OUT_DIR/training-hard-datasets.csv
+///   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- fit src/ItemReduce.Core/Dimensions/CombinedRetentionModel.cs
+/// PROVENANCE_TXT OUT_DIR/training-datasets.csv OUT_DIR/training-hard-datasets.csv
 /// (multinomial logistic regression, Newton's method, ridge chosen by five-fold cross-validation on the training table only).
 /// Checked against an independent scipy fit: tests/ItemReduce.Tests/ReferenceData/Dimensions/make_combined_fixture.py.
-/// 3000 training surveys; ridge 0.03 (five-fold cross-validated hit rate 0.9477); in-sample hit rate 0.9577; reduced-matrix parallel analysis alone 0.9283.
+/// 3000 training surveys; ridge 0.03 (five-fold cross-validated hit rate 0.9477); in-sample hit rate 0.9577; reduced-matrix parallel analysis alone
+/// 0.9283.
 /// </summary>
 internal static class CombinedRetentionModel
 {
     /// <summary>Ridge penalty (ridge / 2 · sum of squared weights) chosen by five-fold cross-validation on the training table.</summary>
     public const double Ridge = 0.03;
 
-    /// <summary>Feature order: d_pca95, d_pca_mean, d_reduced_mean, d_cd, d_ekc, d_kaiser, d_map, ln_n, ln_p, ln_items_per_factor, z_reduced_m, z_reduced_m1, z_reduced_m2, z_pca_m, z_pca_m1, z_pca_m2, ln_gap_m, cd_p_m1.</summary>
+    /// <summary>Feature order: d_pca95, d_pca_mean, d_reduced_mean, d_cd, d_ekc, d_kaiser, d_map, ln_n, ln_p, ln_items_per_factor, z_reduced_m,
+    /// z_reduced_m1, z_reduced_m2, z_pca_m, z_pca_m1, z_pca_m2, ln_gap_m, cd_p_m1.</summary>
     public static readonly double[] Means = [-0.2843333333333333, -0.17233333333333334, 0.227, -0.061, 0.03, 0.955, -1.3396666666666666, 6.025932729204192, 2.795539899384371, 1.6502523068682033, 3.4157663630673816, -1.0813406952057922, -1.537648799463334, 2.696526911127756, -2.7215498845023323, -2.9482444940075303, 0.5019979140531311, 0.8609803359515689];
 
     /// <summary>Training standard deviations (n − 1) of the features.</summary>

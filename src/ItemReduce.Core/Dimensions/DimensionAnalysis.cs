@@ -179,7 +179,8 @@ public static class DimensionAnalysis
     private static ParallelAnalysisReference Reference(ResponseMatrix data, DimensionOptions o, int nEff, Action<string>? progress)
     {
         var po = ToParallelOptions(o);
-        // Reported every tenth of the replicates, the permutation replicates every hundredth from 0 (a progress view shows it only when the step takes long).
+        // Reported every tenth of the replicates, the permutation replicates every hundredth from 0 (a progress view shows it only when the step
+        // takes long).
         if (progress is not null)
             po = po with { ReplicatesDone = k => progress(string.Create(CultureInfo.InvariantCulture, $"parallel analysis: {k} of {po.Replicates} replicates")) };
         if (o.Reference == ReferenceKind.Permutation)

@@ -130,7 +130,8 @@ internal sealed class NormalScores
         return _maps[j].TryGetValue(v, out double s) ? s : double.NaN;
     }
 
-    /// <summary>Transforms <paramref name="count"/> row-major rows of p items from <paramref name="source"/> into <paramref name="destination"/>.</summary>
+    /// <summary>Transforms <paramref name="count"/> row-major rows of p items from <paramref name="source"/> into <paramref
+    /// name="destination"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void Apply(ReadOnlySpan<double> source, int count, Span<double> destination)
     {

@@ -156,7 +156,8 @@ public static class ScreeningTables
         /// <summary>As <see cref="SafeCsvWriter.Number(double)"/>: round-trip text, empty for NaN/infinity.</summary>
         public RowBuffer Number(double v) => double.IsFinite(v) ? Format(v) : this;
 
-        /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals (see <see cref="FormatRounded"/>).</summary>
+        /// <summary>As <see cref="SafeCsvWriter.Number(double, int)"/> with <see cref="Decimals"/> decimals (see <see
+        /// cref="FormatRounded"/>).</summary>
         public RowBuffer Rounded(double v)
         {
             if (!double.IsFinite(v)) return this;

@@ -9,7 +9,8 @@ internal static class LatexText
     /// Escapes the ten LaTeX special characters <c>&amp; % $ # _ { } ~ ^ \</c> so they print literally,
     /// and replaces characters that print wrongly in the default font encoding: &lt; and &gt;
     /// (→ <c>\textless{}</c>, <c>\textgreater{}</c>), the typographic minus U+2212 (→ <c>$-$</c>).
-    /// Line breaks become spaces; a hyphen before another hyphen becomes <c>-{}</c> so option names keep both hyphens. Greek letters and mathematical signs that text fonts lack (α, ω, χ, λ, ≥, ≤, ±, ×,
+    /// Line breaks become spaces; a hyphen before another hyphen becomes <c>-{}</c> so option names keep both hyphens. Greek letters and mathematical
+    /// signs that text fonts lack (α, ω, χ, λ, ≥, ≤, ±, ×,
     /// superscript digits, …) are set in math mode (<c>$\alpha$</c>, <c>$\geq$</c>, <c>$^{2}$</c>), so the file
     /// compiles with pdflatex. Other Unicode passes through unchanged (UTF-8 input is the default since LaTeX 2018).
     /// </summary>

@@ -135,7 +135,13 @@ public class PermutationReplicatesTests
     {
         var data = Survey(120, 3, 16);
         var seen = new List<int>();
-        var o = new ParallelAnalysisOptions { Replicates = 50, Seed = 9, MaxDegreeOfParallelism = 1, ReplicatesDone = k => { lock (seen) seen.Add(k); } };
+        var o = new ParallelAnalysisOptions
+        {
+            Replicates = 50,
+            Seed = 9,
+            MaxDegreeOfParallelism = 1,
+            ReplicatesDone = k => { lock (seen) seen.Add(k); },
+        };
         ParallelAnalysis.PermutationReference(data, new CorrelationOptions(), o);
         Assert.Equal(0, seen[0]);
         Assert.Equal(50, seen[^1]);
