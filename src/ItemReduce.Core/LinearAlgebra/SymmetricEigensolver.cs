@@ -107,82 +107,53 @@ public static class SymmetricEigensolver
     /// i × i block. On return <paramref name="d"/> holds the diagonal of T, <paramref name="e"/>[i] the
     /// sub-diagonal element T[i, i−1] (e[0] = 0). When <paramref name="h"/> is given, the Householder vector
     /// of step i is left in row i, columns 0..i−1 of <paramref name="a"/> and H in h[i] (0 = no reflection).
-    /// <para>
-    /// One pass over the lower triangle per step: the rank-2 update of step i (A ← A − u qᵀ − q uᵀ) of a row is
-    /// followed at once by that row's share of the next step's product A u′ (row i − 1, which holds u′, is updated
-    /// first). Every element sees the same operations in the same order as with two separate passes (tred1's
-    /// order), so the results are bit-identical to them; the fusion only halves the traffic over the matrix.
-    /// </para>
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void HouseholderTridiagonalize(double[] a, int n, double[] d, double[] e, double[]? h, double[] work)
     {
         var p = work.AsSpan(0, n);
         var q = work.AsSpan(n, n);
-        if (n == 1) { d[0] = a[0]; e[0] = 0; return; }
-        double hh = PrepareReflection(a, n, n - 1, e, h);
-        if (hh != 0) AccumulateProduct(a, n, n - 1, p);
         for (int i = n - 1; i >= 1; i--)
         {
-            int m = i; // block 0..i−1 has m = i rows
-            ReadOnlySpan<double> u = a.AsSpan(i * n, m);
-            if (hh != 0)
+            int l = i - 1, m = i; // block 0..l has m = i rows
+            var row = a.AsSpan(i * n, m);
+            double scale = 0;
+            foreach (double x in row) scale += Math.Abs(x);
+            if (l == 0 || scale == 0)
             {
-                // p = A u / H; q = p − K u with K = uᵀp / (2H).
-                for (int j = 0; j < m; j++) p[j] /= hh;
-                double kk = VectorKernels.Dot(u, p[..m]) / (2 * hh);
-                for (int j = 0; j < m; j++) q[j] = p[j] - kk * u[j];
-                // A ← A − u qᵀ − q uᵀ on the lower triangle of the leading block, last row first (it holds u′).
-                VectorKernels.Rank2Row(u[m - 1], q[..m], q[m - 1], u[..m], a.AsSpan((m - 1) * n, m));
+                e[i] = row[l];
+                if (h is not null) h[i] = 0;
+                d[i] = a[i * n + i];
+                continue;
             }
+            // Householder vector u (scaled by 1/scale to avoid over/underflow), H = |u|²/2.
+            double hh = 0;
+            for (int k = 0; k < m; k++) { row[k] /= scale; hh += row[k] * row[k]; }
+            double f = row[l];
+            double g = f >= 0 ? -Math.Sqrt(hh) : Math.Sqrt(hh);
+            e[i] = scale * g;
+            hh -= f * g;
+            row[l] = f - g;
+            ReadOnlySpan<double> u = row;
+            // p = A u / H on the leading block, from the lower triangle only: row j gives
+            // Σ_{k<j} A_jk u_k + A_jj u_j to p_j and u_j A_jk to p_k (k < j).
+            p[..m].Clear();
+            for (int j = 0; j < m; j++)
+            {
+                var rowJ = a.AsSpan(j * n, j);
+                p[j] += VectorKernels.DotAndAxpy(rowJ, u, u[j], p) + a[j * n + j] * u[j];
+            }
+            for (int j = 0; j < m; j++) p[j] /= hh;
+            // q = p − K u with K = uᵀp / (2H).
+            double kk = VectorKernels.Dot(u, p[..m]) / (2 * hh);
+            for (int j = 0; j < m; j++) q[j] = p[j] - kk * u[j];
+            // A ← A − u qᵀ − q uᵀ on the lower triangle of the leading block.
+            for (int j = 0; j < m; j++) VectorKernels.Rank2Row(u[j], q[..(j + 1)], q[j], u[..(j + 1)], a.AsSpan(j * n, j + 1));
+            if (h is not null) h[i] = hh;
             d[i] = a[i * n + i];
-            double next = i - 1 >= 1 ? PrepareReflection(a, n, i - 1, e, h) : 0;
-            if (next != 0) p[..(m - 1)].Clear();
-            ReadOnlySpan<double> un = a.AsSpan((i - 1) * n, m - 1);
-            for (int j = 0; j < m - 1; j++)
-            {
-                if (hh != 0) VectorKernels.Rank2Row(u[j], q[..(j + 1)], q[j], u[..(j + 1)], a.AsSpan(j * n, j + 1));
-                if (next != 0) p[j] += VectorKernels.DotAndAxpy(a.AsSpan(j * n, j), un, un[j], p) + a[j * n + j] * un[j];
-            }
-            hh = next;
         }
         d[0] = a[0];
         e[0] = 0;
-    }
-
-    /// <summary>Householder vector of step <paramref name="i"/> from row i, columns 0..i−1 (scaled by 1/scale to avoid
-    /// over/underflow; tred1): sets e[i] and h[i] and returns H = |u|²/2, or 0 when no reflection is needed
-    /// (i = 1 or a zero row).</summary>
-    private static double PrepareReflection(double[] a, int n, int i, double[] e, double[]? h)
-    {
-        int l = i - 1, m = i;
-        var row = a.AsSpan(i * n, m);
-        double scale = 0;
-        foreach (double x in row) scale += Math.Abs(x);
-        if (l == 0 || scale == 0)
-        {
-            e[i] = row[l];
-            if (h is not null) h[i] = 0;
-            return 0;
-        }
-        double hh = 0;
-        for (int k = 0; k < m; k++) { row[k] /= scale; hh += row[k] * row[k]; }
-        double f = row[l];
-        double g = f >= 0 ? -Math.Sqrt(hh) : Math.Sqrt(hh);
-        e[i] = scale * g;
-        hh -= f * g;
-        row[l] = f - g;
-        if (h is not null) h[i] = hh;
-        return hh;
-    }
-
-    /// <summary>p = A u (u = row <paramref name="i"/>, columns 0..i−1) over the leading i × i block, from the lower triangle only: row j gives Σ_{k&lt;j} A_jk u_k + A_jj u_j to p_j and u_j A_jk to
-    /// p_k (k &lt; j).</summary>
-    private static void AccumulateProduct(double[] a, int n, int i, Span<double> p)
-    {
-        ReadOnlySpan<double> u = a.AsSpan(i * n, i);
-        p[..i].Clear();
-        for (int j = 0; j < i; j++) p[j] += VectorKernels.DotAndAxpy(a.AsSpan(j * n, j), u, u[j], p) + a[j * n + j] * u[j];
     }
 
     /// <summary>
