@@ -23,6 +23,8 @@ namespace ItemReduce.Core.LinearAlgebra;
 /// Use: cheaper than a full decomposition when k is small and the leading eigenvalues stand apart from the rest
 /// (the k-factor minimum-residual fits). When the wanted eigenvalues lie in a dense cluster (e.g. the leading
 /// eigenvalues of random correlation matrices) convergence takes many steps and the full decomposition is as cheap.
+/// Limitation of the single-vector method: an exactly repeated leading eigenvalue (not generic for sample correlation
+/// matrices) shows up once until the Krylov space becomes invariant, so a copy can be missed.
 /// </para>
 /// </summary>
 internal static class LanczosIteration
