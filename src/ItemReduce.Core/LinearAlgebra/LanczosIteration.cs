@@ -46,7 +46,8 @@ internal static class LanczosIteration
     {
         double norm = Math.Sqrt(VectorKernels.Dot(a, a));
         double tol = RelativeTolerance * Math.Max(norm, double.Epsilon);
-        var basis = new double[n * n];           // Lanczos vectors q_0, q_1, … as rows
+        int capacity = Math.Min(n, 2 * k + 32);
+        var basis = new double[capacity * n];    // Lanczos vectors q_0, q_1, … as rows; grows when needed
         var alpha = new double[n];
         var beta = new double[n];                // beta[j] couples q_j and q_{j+1}
         var w = new double[n];
@@ -73,6 +74,11 @@ internal static class LanczosIteration
                 nextCheck = Math.Min(n, m + Math.Max(4, m / 4));
             }
             beta[j] = b;
+            if (m == capacity)
+            {
+                capacity = Math.Min(n, 2 * capacity);
+                Array.Resize(ref basis, capacity * n);
+            }
             var qn = basis.AsSpan(m * n, n);
             if (b > tol * 1e-3)
             {
