@@ -1,5 +1,3 @@
-using System.Globalization;
-using System.Text;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Randomness;
 using ItemReduce.Simulation;

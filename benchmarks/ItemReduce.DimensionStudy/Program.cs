@@ -1,10 +1,5 @@
 using System.Diagnostics;
 using System.Globalization;
-using System.Text;
-using ItemReduce.Core.Data;
-using ItemReduce.Core.Dimensions;
-using ItemReduce.Core.Randomness;
-using ItemReduce.Simulation;
 
 // Simulation study of the number-of-dimensions rules (seeded; one command; minutes on 2 cores).
 //   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- grid OUT_DIR [sets-per-cell=16] [replicates=400] [seed=2026]

@@ -1,9 +1,9 @@
 using System.CommandLine;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
+using ItemReduce.Application.Summary;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.IO;
-using ItemReduce.IO.Jobs;
-using ItemReduce.IO.Outputs;
-using ItemReduce.IO.Settings;
 
 namespace ItemReduce.Cli;
 
@@ -11,7 +11,7 @@ namespace ItemReduce.Cli;
 /// The command-line shell: parses options (merging a plan file) into the declared settings, builds one
 /// <see cref="JobSettings"/>, hands it to the job and prints the run's warnings (numbered, one line each, unless --quiet). Exit codes: 0 success, 2 input or usage problem, 1 unexpected internal failure.
 /// </summary>
-public static class CliApp
+internal static class CliApp
 {
     public const int Ok = 0, InternalFailure = 1, InputProblem = 2;
 

@@ -1,5 +1,5 @@
 using System.CommandLine;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Cli;
 

@@ -1,8 +1,8 @@
 using System.CommandLine;
 using System.CommandLine.Help;
 using System.CommandLine.Invocation;
-using ItemReduce.IO.Jobs;
-using ItemReduce.IO.Settings;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
 
 namespace ItemReduce.Cli;
 

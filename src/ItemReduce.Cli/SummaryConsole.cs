@@ -1,4 +1,4 @@
-using ItemReduce.IO.Outputs;
+using ItemReduce.Application.Summary;
 using Spectre.Console;
 
 namespace ItemReduce.Cli;

@@ -49,7 +49,7 @@ internal sealed partial class TerminalProgress : IDisposable
         if (redraw) _timer = new Timer(_ => Tick(), null, TimeSpan.FromMilliseconds(100), TimeSpan.FromMilliseconds(100));
     }
 
-    /// <summary>Receives one progress message (the sink of a <see cref="IO.Jobs.ProgressLog"/>).</summary>
+    /// <summary>Receives one progress message (the sink of a <see cref="Application.Jobs.ProgressLog"/>).</summary>
     internal void Report(TimeSpan elapsed, string message)
     {
         _ = elapsed;

@@ -33,7 +33,7 @@ public static class InputErrors
                 _ => ch.ToString(),
             });
         }
-        if (value.Length > maxShown) sb.Append("…");
+        if (value.Length > maxShown) sb.Append('…');
         sb.Append('"');
         return sb.ToString();
     }

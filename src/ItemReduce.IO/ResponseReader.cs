@@ -1,4 +1,3 @@
-using System.Globalization;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.IO;

@@ -24,7 +24,6 @@ internal sealed class ResponseRows
     private readonly int[] _itemCol;
     private readonly int _idCol;
     private readonly double[] _min, _max;
-    private readonly HashSet<string> _missing;
     private readonly HashSet<string>.AlternateLookup<ReadOnlySpan<char>> _missingSpan;
     private readonly short[] _digitCode; // [j * 10 + digit]: byte code, MissingCode, or OutOfScale
     private readonly bool[] _digitMissing;
@@ -52,7 +51,6 @@ internal sealed class ResponseRows
         _idCol = idCol;
         _min = items.Select(i => i.Min).ToArray();
         _max = items.Select(i => i.Max).ToArray();
-        _missing = missing;
         _missingSpan = missing.GetAlternateLookup<ReadOnlySpan<char>>();
         _builder = builder;
         _firstLineOf = firstLineOf;

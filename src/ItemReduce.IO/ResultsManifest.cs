@@ -10,7 +10,7 @@ namespace ItemReduce.IO;
 /// it lists, each with its listed size and hash, was written by itemreduce and not changed since; only such a folder is
 /// replaced by <c>--force</c>, and replacing it removes exactly those files.
 /// </summary>
-internal static class ResultsManifest
+public static class ResultsManifest
 {
     /// <summary>File name of the manifest.</summary>
     public const string FileName = "itemreduce-manifest.txt";

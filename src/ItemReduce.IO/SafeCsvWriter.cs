@@ -10,7 +10,7 @@ namespace ItemReduce.IO;
 /// (OWASP "CSV injection" guidance, common practice). Numbers are written in invariant culture with
 /// round-trip precision; NaN and infinities as empty cells.
 /// </summary>
-public sealed class SafeCsvWriter
+internal sealed class SafeCsvWriter
 {
     private readonly StringBuilder _sb = new();
     private readonly TextWriter? _sink;

@@ -18,7 +18,7 @@ namespace ItemReduce.IO;
 /// </list>
 /// Lines end at <c>\n</c>, <c>\r\n</c> or a lone <c>\r</c>.
 /// </summary>
-internal sealed class SurveyTextReader : TextReader
+public sealed class SurveyTextReader : TextReader
 {
     /// <summary>Longest line accepted, in characters (1 Mi; a 300-item row needs about 2,000).</summary>
     public const int MaxLineChars = 1 << 20;

@@ -18,7 +18,7 @@ namespace ItemReduce.Simulation;
 /// over E_a; both are computed on a fixed grid of normal-weighted points (our numerical choice; the grid error
 /// changes T slightly for the null and the alternative alike, so the false-flag rate stays exact).</para>
 /// </summary>
-public sealed class OrdinalLikelihoodRatio
+internal sealed class OrdinalLikelihoodRatio
 {
     private const double GridHalfWidth = 6;
     private readonly int p, c, outer, inner;

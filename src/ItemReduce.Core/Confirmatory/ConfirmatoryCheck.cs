@@ -72,10 +72,10 @@ public static class ConfirmatoryCheck
                     fits.Add(new ConfirmatoryFormFit(form, role, r));
                     warnings.AddRange(r.Warnings.Select(w => w with { Message = $"Confirmatory model ({where}): {w.Message}" }));
                 }
-                catch (Exception e) when (e is ArgumentException or LinearAlgebra.MatrixNotPositiveDefiniteException)
+                catch (Exception e) when (e is DataConditionException or LinearAlgebra.MatrixNotPositiveDefiniteException)
                 {
                     fits.Add(new ConfirmatoryFormFit(form, role, null));
-                    warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", $"Confirmatory model ({where}) was not fitted: {e.Message.Split(" (Parameter")[0]}"));
+                    warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", $"Confirmatory model ({where}) was not fitted: {e.Message}"));
                 }
             }
         }

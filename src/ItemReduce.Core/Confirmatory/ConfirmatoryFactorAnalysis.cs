@@ -1,5 +1,5 @@
-using System.Runtime.CompilerServices;
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
 
@@ -21,7 +21,7 @@ namespace ItemReduce.Core.Confirmatory;
 /// (s_ij − σ̂_ij)/√(s_ii s_jj), s from the saturated model. The independence model has free means and variances
 /// (its casewise estimates are the available-case moments). Robust versions: <see cref="SatorraBentlerScaling"/>.</para>
 /// </summary>
-public static class ConfirmatoryFactorAnalysis
+internal static class ConfirmatoryFactorAnalysis
 {
     /// <summary>Fisher-scoring iteration cap.</summary>
     public const int MaxIterations = 500;
@@ -54,12 +54,12 @@ public static class ConfirmatoryFactorAnalysis
         {
             int count = itemFactor.Count(x => x == f);
             if (count < 2 || (count == 2 && k == 1))
-                throw new ArgumentException($"Factor '{factorNames[f]}' has {count} item(s); it is not identified.", nameof(itemFactor));
+                throw new DataConditionException($"Factor '{factorNames[f]}' has {count} item(s); it is not identified.", nameof(itemFactor));
         }
         var model = new IndependentClustersModel([.. itemFactor], k);
         var patterns = MissingDataPatterns.From(data, items, listwise);
         int n = patterns.Respondents;
-        if (n < p + 1) throw new ArgumentException($"{n} respondents for {p} items; the model needs at least {p + 1}.", nameof(data));
+        if (n < p + 1) throw new DataConditionException($"{n} respondents for {p} items; the model needs at least {p + 1}.", nameof(data));
         var names = items.Select(j => data.Items[j].Name).ToArray();
         var warnings = new List<AnalysisWarning>();
 
@@ -368,19 +368,4 @@ public static class ConfirmatoryFactorAnalysis
     private static double Se(double[]? covariance, int q, int i) => covariance is null ? double.NaN : Math.Sqrt(covariance[i * q + i]);
 
     private static double[]? InvertOrNull(double[] a, int q) => SymmetricFactor.TryInvert(a, q, out var inv, out _) ? inv : null;
-
-    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static double[]? SolveOrNull(double[] a, int q, double[] b)
-    {
-        var inv = InvertOrNull(a, q);
-        if (inv is null) return null;
-        var x = new double[q];
-        for (int i = 0; i < q; i++)
-        {
-            double s = 0;
-            for (int j = 0; j < q; j++) s += inv[i * q + j] * b[j];
-            x[i] = s;
-        }
-        return x;
-    }
 }

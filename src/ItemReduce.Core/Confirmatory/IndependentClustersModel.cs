@@ -28,6 +28,7 @@ internal sealed class IndependentClustersModel
     /// <summary>All parameters including the p means.</summary>
     public int Parameters => CovarianceParameters + Items;
 
+    [System.Diagnostics.CodeAnalysis.SuppressMessage("Performance", "CA1822", Justification = "An offset of this model's parameter vector, like its neighbours; it happens to start at 0.")]
     public int LoadingIndex(int j) => j;
     public int UniquenessIndex(int j) => Items + j;
     public int CorrelationIndex(int pair) => 2 * Items + pair;

@@ -13,7 +13,7 @@ namespace ItemReduce.Core.Correlation;
 /// |ρ| ≥ 0.925 the transformed integral around ρ = ±1 with Genz's asymptotic correction terms.
 /// Accuracy about 1e-15 absolute (Genz, Table 1). Infinite limits are handled exactly.
 /// </summary>
-public static class BivariateNormalDistribution
+internal static class BivariateNormalDistribution
 {
     private static readonly (double[] X, double[] W)[] Rules =
     [

@@ -67,7 +67,7 @@ public static class PolychoricCorrelation
         var column = data.Column(j);
         var distinct = column.Where(x => !double.IsNaN(x)).Distinct().Order().ToArray();
         if (distinct.Length > MaxCategories)
-            throw new ArgumentException(
+            throw new DataConditionException(
                 $"Item '{data.Items[j].Name}' has {distinct.Length} distinct values; polychoric correlations allow at most {MaxCategories} ordered categories. Use Pearson correlations for this item set.");
         var codes = new int[column.Length];
         for (int i = 0; i < column.Length; i++)

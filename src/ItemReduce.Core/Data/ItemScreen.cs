@@ -16,7 +16,7 @@ public sealed record ExcludedItem(string Item, ItemExclusionReason Reason, strin
 /// Finds items that cannot enter a correlation-based analysis (all missing or zero variance).
 /// Policy: such items are excluded with a warning and recorded in the results, not treated as errors.
 /// </summary>
-public static class ItemScreen
+internal static class ItemScreen
 {
     /// <summary>Returns the indices of usable items and the list of excluded ones.</summary>
     public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data) => Find(data, ItemMoments.Compute(data));

@@ -5,7 +5,7 @@ namespace ItemReduce.Core.Data;
 /// non-missing answers. Missing values stay missing. Items with zero or undefined SD give NaN columns;
 /// callers exclude such items beforehand (see <see cref="ItemScreen"/>).
 /// </summary>
-public static class Standardization
+internal static class Standardization
 {
     /// <summary>Standardizes every column; returns the z-matrix and the moments used.</summary>
     public static (ResponseMatrix Z, ItemMoments Moments) Apply(ResponseMatrix data)

@@ -16,17 +16,17 @@ public sealed record BartlettSphericityResult(double ChiSquare, int DegreesOfFre
 /// positive definite); the p-value is the regularised upper incomplete gamma Q(df/2, χ²/2), computed directly
 /// so that very small p-values keep their precision.
 /// </summary>
-public static class BartlettSphericityTest
+internal static class BartlettSphericityTest
 {
     /// <summary>Statistic, df and p-value for correlation matrix <paramref name="r"/> from <paramref name="respondents"/> respondents.</summary>
     public static BartlettSphericityResult Compute(double[,] r, int respondents)
     {
         MatrixChecks.SymmetricFinite(r, nameof(r));
         int p = r.GetLength(0);
-        if (p < 2) throw new ArgumentException($"The sphericity test needs at least 2 items, got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"The sphericity test needs at least 2 items, got {p}.", nameof(r));
         double factor = respondents - 1 - (2.0 * p + 5) / 6;
         if (!(factor > 0))
-            throw new ArgumentException($"The sphericity test needs n − 1 − (2p + 5)/6 > 0; got n = {respondents}, p = {p}.", nameof(respondents));
+            throw new DataConditionException($"The sphericity test needs n − 1 − (2p + 5)/6 > 0; got n = {respondents}, p = {p}.", nameof(respondents));
         double chi = -factor * CholeskyDecomposition.LogDeterminant(r);
         int df = p * (p - 1) / 2;
         double pValue = SpecialFunctions.GammaUpperRegularized(df / 2.0, chi / 2);

@@ -53,7 +53,7 @@ public static class BartlettWishartSampler
         ArgumentNullException.ThrowIfNull(rng);
         if (p < 1) throw new ArgumentException($"p must be ≥ 1, got {p}.", nameof(p));
         if (df < p)
-            throw new ArgumentException($"Degrees of freedom must be ≥ p = {p} (more respondents than items), got {df}.", "degreesOfFreedom");
+            throw new DataConditionException($"Degrees of freedom must be ≥ p = {p} (more respondents than items), got {df}.", nameof(df));
     }
 
     /// <summary>Unchecked kernel: fills <paramref name="w"/> (row-major p × p, full) with a correlation draw;

@@ -85,9 +85,9 @@ public static class ComparisonData
         ArgumentNullException.ThrowIfNull(options);
         options.Validate();
         int p = correlation.GetLength(0);
-        if (p < 3) throw new ArgumentException($"Comparison data needs at least 3 items, got {p}.", nameof(correlation));
+        if (p < 3) throw new DataConditionException($"Comparison data needs at least 3 items, got {p}.", nameof(correlation));
         if (eigenvalues.Count != p) throw new ArgumentException($"Expected {p} eigenvalues, got {eigenvalues.Count}.", nameof(eigenvalues));
-        if (respondents <= p) throw new ArgumentException($"Comparison data needs more respondents than items; got n = {respondents}, p = {p}.", nameof(respondents));
+        if (respondents <= p) throw new DataConditionException($"Comparison data needs more respondents than items; got n = {respondents}, p = {p}.", nameof(respondents));
 
         var observed = eigenvalues.ToArray();
         int maxK = MaxFactors(p);

@@ -32,7 +32,7 @@ public static class DimensionAnalysis
         CheckDefined(raw, data);
         int nEff = EffectiveRespondents(data, options, warnings);
         if (nEff <= p + 1)
-            throw new ArgumentException(
+            throw new DataConditionException(
                 $"Too few respondents for {p} items: {nEff} usable (at least {p + 2} needed; in practice several times the number of items).", nameof(data));
 
         var smoothing = NearestCorrelationMatrix.Find(raw, options.EigenvalueFloor);
@@ -115,19 +115,19 @@ public static class DimensionAnalysis
 
     private static void Validate(ResponseMatrix data, DimensionOptions o)
     {
-        if (data.ItemCount < 2) throw new ArgumentException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
+        if (data.ItemCount < 2) throw new DataConditionException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
         if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
-            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData, Hull or Combined, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o.FactorsRule));
+            throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData, Hull or Combined, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o));
         if (o.FactorsRule == RetentionRule.ParallelReduced && !o.IncludeReducedMatrix)
-            throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
+            throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o));
         if (o.FactorsRule == RetentionRule.Combined && !o.IncludeReducedMatrix)
-            throw new ArgumentException("FactorsRule Combined needs IncludeReducedMatrix = true.", nameof(o.FactorsRule));
+            throw new ArgumentException("FactorsRule Combined needs IncludeReducedMatrix = true.", nameof(o));
         if (o.FactorsRule is RetentionRule.ComparisonData or RetentionRule.Hull or RetentionRule.Combined && data.ItemCount < 3)
-            throw new ArgumentException($"Comparison data, the Hull method and the combined rule need at least 3 items, got {data.ItemCount}.", nameof(o.FactorsRule));
+            throw new DataConditionException($"Comparison data, the Hull method and the combined rule need at least 3 items, got {data.ItemCount}.", nameof(o));
         if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
-            throw new ArgumentException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o.FixedFactors));
+            throw new DataConditionException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o));
         if (!(o.EigenvalueFloor > 0 && o.EigenvalueFloor <= 0.5))
-            throw new ArgumentException($"EigenvalueFloor must lie in (0, 0.5], got {o.EigenvalueFloor}.", nameof(o.EigenvalueFloor));
+            throw new ArgumentException($"EigenvalueFloor must lie in (0, 0.5], got {o.EigenvalueFloor}.", nameof(o));
         ToParallelOptions(o).Validate();
     }
 
@@ -156,7 +156,7 @@ public static class DimensionAnalysis
         for (int j = 0; j < p; j++)
             for (int k = 0; k < j; k++)
                 if (double.IsNaN(r[j, k]))
-                    throw new ArgumentException(
+                    throw new DataConditionException(
                         $"The correlation of items '{data.Items[k].Name}' and '{data.Items[j].Name}' is undefined (fewer than 3 respondents answered both, or one of them does not vary among those who did).",
                         nameof(data));
     }

@@ -10,7 +10,7 @@ namespace ItemReduce.Core.Dimensions;
 /// while their eigenvalue exceeds its reference (sequentially, stopping at the first that does not).
 /// Deterministic and needs no simulation.
 /// </summary>
-public static class EmpiricalKaiserCriterion
+internal static class EmpiricalKaiserCriterion
 {
     /// <summary>Reference eigenvalues l_1..l_p for descending <paramref name="eigenvalues"/> of a p × p correlation
     /// matrix from <paramref name="respondents"/> respondents.</summary>

@@ -26,7 +26,7 @@ public sealed record HullResult(int Count, double[] Fit, int[] FreeParameters, b
 /// by keeping too few (<see cref="RetentionStudyAccuracy.HullOverall"/>), far below what the authors report, so it is
 /// reported for comparison and not offered as a command-line rule.
 /// </summary>
-public static class HullMethod
+internal static class HullMethod
 {
     /// <summary>Runs the method on the correlation matrix <paramref name="correlation"/> (p × p, positive definite) with
     /// upper bound <paramref name="maxFactors"/> (J ≥ 1, capped where the model has no degrees of freedom left).</summary>
@@ -39,7 +39,7 @@ public static class HullMethod
     {
         ArgumentNullException.ThrowIfNull(correlation);
         int p = correlation.GetLength(0);
-        if (p < 3) throw new ArgumentException($"The Hull method needs at least 3 items, got {p}.", nameof(correlation));
+        if (p < 3) throw new DataConditionException($"The Hull method needs at least 3 items, got {p}.", nameof(correlation));
         if (maxFactors < 1) throw new ArgumentException($"maxFactors must be ≥ 1, got {maxFactors}.", nameof(maxFactors));
         int j = Math.Min(maxFactors, ComparisonData.MaxFactors(p));
         loadings ??= new MinimumResidualFits(correlation).Loadings;

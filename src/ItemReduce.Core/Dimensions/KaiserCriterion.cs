@@ -6,7 +6,7 @@ namespace ItemReduce.Core.Dimensions;
 /// reference only; simulation studies find it tends to retain too many components when there are many items
 /// (Zwick &amp; Velicer, 1986, Psychological Bulletin 99(3), 432–442).
 /// </summary>
-public static class KaiserCriterion
+internal static class KaiserCriterion
 {
     /// <summary>Plain-language caution attached to every result that shows this count.</summary>
     public const string Caution =

@@ -5,7 +5,7 @@ namespace ItemReduce.Core.Dimensions;
 /// <summary>KMO result.</summary>
 /// <param name="Overall">Overall measure of sampling adequacy in [0, 1].</param>
 /// <param name="PerItem">MSA of each item (length p), in [0, 1].</param>
-public sealed record KaiserMeyerOlkinResult(double Overall, double[] PerItem);
+internal sealed record KaiserMeyerOlkinResult(double Overall, double[] PerItem);
 
 /// <summary>
 /// Kaiser–Meyer–Olkin measure of sampling adequacy: Kaiser (1970), "A second generation little jiffy",
@@ -14,14 +14,14 @@ public sealed record KaiserMeyerOlkinResult(double Overall, double[] PerItem);
 /// KMO = Σ_{i≠j} r_ij² / (Σ_{i≠j} r_ij² + Σ_{i≠j} q_ij²) and, per item,
 /// MSA_j = Σ_{i≠j} r_ij² / (Σ_{i≠j} r_ij² + Σ_{i≠j} q_ij²). R must be positive definite.
 /// </summary>
-public static class KaiserMeyerOlkin
+internal static class KaiserMeyerOlkin
 {
     /// <summary>KMO and per-item MSA of the correlation matrix <paramref name="r"/> (p ≥ 2).</summary>
     public static KaiserMeyerOlkinResult Compute(double[,] r)
     {
         MatrixChecks.SymmetricFinite(r, nameof(r));
         int p = r.GetLength(0);
-        if (p < 2) throw new ArgumentException($"KMO needs at least 2 items, got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"KMO needs at least 2 items, got {p}.", nameof(r));
         var inv = CholeskyDecomposition.Inverse(r);
         var rowR = new double[p];
         var rowQ = new double[p];

@@ -129,7 +129,7 @@ public static class ParallelAnalysis
         options.Validate();
         if (items < 1) throw new ArgumentException($"items must be ≥ 1, got {items}.", nameof(items));
         if (respondents <= items)
-            throw new ArgumentException($"The normal reference needs more respondents than items; got n = {respondents}, p = {items}.", nameof(respondents));
+            throw new DataConditionException($"The normal reference needs more respondents than items; got n = {respondents}, p = {items}.", nameof(respondents));
         int p = items, df = respondents - 1;
         return Run(p, options with { Reference = ReferenceKind.Normal }, NormalPurpose, () => new double[p * p],
             (rng, scratch, r) => BartlettWishartSampler.SampleCorrelationInto(p, df, rng, scratch, r));
@@ -149,7 +149,7 @@ public static class ParallelAnalysis
         if (information.Any(x => !(x > 0 && x <= 1)))
             throw new ArgumentException("Information factors must lie in (0, 1].", nameof(information));
         if (respondents <= p)
-            throw new ArgumentException($"The ordinal reference needs more respondents than items; got n = {respondents}, p = {p}.", nameof(respondents));
+            throw new DataConditionException($"The ordinal reference needs more respondents than items; got n = {respondents}, p = {p}.", nameof(respondents));
         int df = respondents - 1;
         var inverseRoot = information.Select(x => 1 / Math.Sqrt(x)).ToArray();
         return Run(p, options with { Reference = ReferenceKind.Ordinal }, OrdinalPurpose, () => new double[p * p],

@@ -9,7 +9,7 @@ namespace ItemReduce.Core.Dimensions;
 /// Psychometrika 4, 163–171 for the identity with the inverse. R⁻¹ comes from a Cholesky factorisation,
 /// so R must be positive definite (smooth it first with <see cref="Correlation.NearestCorrelationMatrix"/>).
 /// </summary>
-public static class SquaredMultipleCorrelation
+internal static class SquaredMultipleCorrelation
 {
     /// <summary>SMC of every item (length p, each in [0, 1)).</summary>
     /// <exception cref="MatrixNotPositiveDefiniteException">R is not positive definite.</exception>

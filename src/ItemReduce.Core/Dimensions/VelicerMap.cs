@@ -8,7 +8,7 @@ namespace ItemReduce.Core.Dimensions;
 /// <param name="RevisedCurve">Same with fourth powers (the 2000 revision), same indices.</param>
 /// <param name="Count">argmin of <paramref name="Curve"/> (first minimum; 0 allowed).</param>
 /// <param name="RevisedCount">argmin of <paramref name="RevisedCurve"/>.</param>
-public sealed record VelicerMapResult(double[] Curve, double[] RevisedCurve, int Count, int RevisedCount);
+internal sealed record VelicerMapResult(double[] Curve, double[] RevisedCurve, int Count, int RevisedCount);
 
 /// <summary>
 /// Minimum average partial (MAP) test: Velicer (1976), "Determining the number of components from the matrix
@@ -22,14 +22,14 @@ public sealed record VelicerMapResult(double[] Curve, double[] RevisedCurve, int
 /// <para>m runs from 0 to p − 1, stopping earlier if a residual variance c*_ii falls below 1e-12
 /// (the partial correlations are then undefined).</para>
 /// </summary>
-public static class VelicerMap
+internal static class VelicerMap
 {
     /// <summary>MAP curves and counts for the correlation matrix <paramref name="r"/> (p ≥ 2).</summary>
     public static VelicerMapResult Compute(double[,] r)
     {
         MatrixChecks.SymmetricFinite(r, nameof(r));
         int p = r.GetLength(0);
-        if (p < 2) throw new ArgumentException($"MAP needs at least 2 items, got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"MAP needs at least 2 items, got {p}.", nameof(r));
         var (values, vectors) = SymmetricEigensolver.Decompose(r);
         var c = (double[,])r.Clone();
         var curve = new List<double>();

@@ -15,7 +15,7 @@ namespace ItemReduce.Core.Factoring;
 /// "F" + its 1-based position.</item>
 /// </list>
 /// </summary>
-public static class FactorAlignment
+internal static class FactorAlignment
 {
     /// <summary>Flips and reorders the factors of (pattern, Φ) as described above.</summary>
     internal static (Matrix<double> Pattern, Matrix<double> Phi) AlignSignsAndOrder(Matrix<double> pattern, Matrix<double> phi)

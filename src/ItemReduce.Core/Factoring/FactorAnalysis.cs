@@ -8,7 +8,7 @@ namespace ItemReduce.Core.Factoring;
 /// (<see cref="FactorExtraction"/>), rotation (<see cref="FactorRotation"/>), sign/order alignment and
 /// labelling (<see cref="FactorAlignment"/>), Heywood and convergence checks, and ML fit statistics.
 /// </summary>
-public static class FactorAnalysis
+internal static class FactorAnalysis
 {
     /// <summary>
     /// Fits k common factors to the p × p correlation matrix <paramref name="correlation"/> of
@@ -27,7 +27,7 @@ public static class FactorAnalysis
         Validate(correlation, n, factors, o);
         var r = MatrixHelpers.ToMatrix(correlation);
         if (o.Extraction == FactorExtraction.MaximumLikelihood && !MatrixHelpers.IsPositiveDefinite(r, out _))
-            throw new ArgumentException("Maximum likelihood needs a positive definite correlation matrix; this one is not " +
+            throw new DataConditionException("Maximum likelihood needs a positive definite correlation matrix; this one is not " +
                                         "(pairwise deletion, linearly dependent or duplicated items?). Use minres or principal axis.", nameof(correlation));
         var extraction = Extract(r, factors, o);
         var rotation = Rotate(extraction.Loadings, factors, o);
@@ -112,18 +112,18 @@ public static class FactorAnalysis
         ArgumentNullException.ThrowIfNull(r);
         int p = r.GetLength(0);
         if (r.GetLength(1) != p) throw new ArgumentException($"Correlation matrix must be square; got {p}×{r.GetLength(1)}.", nameof(r));
-        if (p < 2) throw new ArgumentException($"Need at least 2 items; got {p}.", nameof(r));
+        if (p < 2) throw new DataConditionException($"Need at least 2 items; got {p}.", nameof(r));
         for (int i = 0; i < p; i++)
         {
             if (Math.Abs(r[i, i] - 1.0) > 1e-8) throw new ArgumentException($"Diagonal entry [{i},{i}] = {r[i, i]}; a correlation matrix has 1 there.", nameof(r));
             for (int j = 0; j < p; j++)
             {
-                if (!double.IsFinite(r[i, j])) throw new ArgumentException($"Entry [{i},{j}] is {r[i, j]}; all entries must be finite (too few joint answers?).", nameof(r));
+                if (!double.IsFinite(r[i, j])) throw new DataConditionException($"Entry [{i},{j}] is {r[i, j]}; all entries must be finite (too few joint answers?).", nameof(r));
                 if (Math.Abs(r[i, j] - r[j, i]) > 1e-10) throw new ArgumentException($"Matrix is not symmetric at [{i},{j}].", nameof(r));
             }
         }
         if (n < 2) throw new ArgumentException($"n = {n}; must be ≥ 2.", nameof(n));
-        if (k < 1 || k >= p) throw new ArgumentException($"factors = {k}; allowed range is 1..{p - 1} for {p} items.", nameof(k));
+        if (k < 1 || k >= p) throw new DataConditionException($"factors = {k}; allowed range is 1..{p - 1} for {p} items.", nameof(k));
         if (o.MaxIterations is < 10 or > 100000) throw new ArgumentException($"MaxIterations = {o.MaxIterations}; allowed 10..100000.", nameof(o));
         if (!(o.Tolerance > 0 && o.Tolerance <= 1e-2)) throw new ArgumentException($"Tolerance = {o.Tolerance}; allowed (0, 0.01].", nameof(o));
         if (!(o.UniquenessLowerBound > 0 && o.UniquenessLowerBound <= 0.1)) throw new ArgumentException($"UniquenessLowerBound = {o.UniquenessLowerBound}; allowed (0, 0.1].", nameof(o));

@@ -5,7 +5,7 @@ namespace ItemReduce.Core.Factoring;
 /// matrix) fails. Ordinary iteration caps do not throw: they return a result flagged
 /// <see cref="FactorSolution.Converged"/> = false with a warning.
 /// </summary>
-public sealed class FactorNonConvergenceException : Exception
+internal sealed class FactorNonConvergenceException : Exception
 {
     public FactorNonConvergenceException(string message) : base(message) { }
     public FactorNonConvergenceException(string message, Exception inner) : base(message, inner) { }

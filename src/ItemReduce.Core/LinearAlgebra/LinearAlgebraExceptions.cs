@@ -4,13 +4,13 @@ namespace ItemReduce.Core.LinearAlgebra;
 /// An iterative matrix algorithm (QL iteration, alternating projections) did not reach its tolerance within
 /// its iteration cap. The message names the algorithm, the cap and where it stopped.
 /// </summary>
-public sealed class NonConvergenceException : Exception
+internal sealed class NonConvergenceException : Exception
 {
     public NonConvergenceException(string message) : base(message) { }
 }
 
 /// <summary>A matrix that must be symmetric positive definite (Cholesky) is not.</summary>
-public sealed class MatrixNotPositiveDefiniteException : Exception
+internal sealed class MatrixNotPositiveDefiniteException : Exception
 {
     public MatrixNotPositiveDefiniteException(string message) : base(message) { }
 }

@@ -116,10 +116,10 @@ public static class SurveyPipeline
         {
             return result with { SelfCheck = SelfCheck.DesignSelfCheck.Run(result, settings, progress) };
         }
-        catch (ArgumentException e)
+        catch (DataConditionException e)
         {
             // The fitted model could not be simulated (e.g. a factor correlation matrix that is not positive definite).
-            warnings.Add(new AnalysisWarning("self-check-not-run", "self-check", "The self-check could not simulate surveys from the fitted model: " + e.Message.Split(" (Parameter")[0]));
+            warnings.Add(new AnalysisWarning("self-check-not-run", "self-check", "The self-check could not simulate surveys from the fitted model: " + e.Message));
             return result;
         }
     }
@@ -131,9 +131,9 @@ public static class SurveyPipeline
         {
             return Confirmatory.ConfirmatoryCheck.Run(analysed, shortForm, listwise);
         }
-        catch (Exception e) when (e is ArgumentException or LinearAlgebra.MatrixNotPositiveDefiniteException or LinearAlgebra.NonConvergenceException)
+        catch (Exception e) when (e is DataConditionException or LinearAlgebra.MatrixNotPositiveDefiniteException or LinearAlgebra.NonConvergenceException)
         {
-            warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", "The confirmatory factor analysis could not be run: " + e.Message.Split(" (Parameter")[0]));
+            warnings.Add(new AnalysisWarning("confirmatory-not-fitted", "confirmatory", "The confirmatory factor analysis could not be run: " + e.Message));
             return null;
         }
     }
@@ -144,9 +144,9 @@ public static class SurveyPipeline
         {
             return run();
         }
-        catch (ArgumentException e)
+        catch (DataConditionException e)
         {
-            throw new AnalysisStoppedException(name, e.Message.Split(" (Parameter")[0], e);
+            throw new AnalysisStoppedException(name, e.Message, e);
         }
         catch (Exception e) when (e is Factoring.FactorNonConvergenceException or LinearAlgebra.NonConvergenceException
                                        or LinearAlgebra.MatrixNotPositiveDefiniteException)

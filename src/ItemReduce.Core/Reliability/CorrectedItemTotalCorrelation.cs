@@ -5,7 +5,7 @@ namespace ItemReduce.Core.Reliability;
 /// scale (the item is removed from the total so it does not correlate with itself; common practice, no
 /// source). From a covariance matrix C: r_j = (Σ_{l≠j} C_jl) / sqrt(C_jj · Σ_{a,b≠j} C_ab).
 /// </summary>
-public static class CorrectedItemTotalCorrelation
+internal static class CorrectedItemTotalCorrelation
 {
     /// <summary>One correlation per item (length k); NaN when k &lt; 2 or a variance is zero.</summary>
     public static double[] Compute(double[,] covariance)

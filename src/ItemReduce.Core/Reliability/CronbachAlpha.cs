@@ -8,7 +8,7 @@ namespace ItemReduce.Core.Reliability;
 /// Spearman–Brown form). Alpha-if-item-deleted recomputes α on the k − 1 remaining items.
 /// NaN when k &lt; 2 or the total variance is not positive.
 /// </summary>
-public static class CronbachAlpha
+internal static class CronbachAlpha
 {
     /// <summary>Raw alpha from a k × k covariance matrix.</summary>
     public static double FromCovariance(double[,] covariance)

@@ -8,7 +8,7 @@ namespace ItemReduce.Core.Reliability;
 /// (1 − α)/(1 − α̂) follows F with (n − 1) and (n − 1)(k − 1) degrees of freedom, so the two-sided
 /// interval with coverage c is [1 − (1 − α̂) F_{(1+c)/2}, 1 − (1 − α̂) F_{(1−c)/2}].
 /// </summary>
-public static class FeldtInterval
+internal static class FeldtInterval
 {
     /// <summary>Interval for alpha <paramref name="alpha"/> from <paramref name="n"/> respondents and
     /// <paramref name="k"/> items at coverage <paramref name="confidence"/> (0 &lt; c &lt; 1, default .95).

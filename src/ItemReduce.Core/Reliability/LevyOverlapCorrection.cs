@@ -9,7 +9,7 @@ namespace ItemReduce.Core.Reliability;
 /// r_c = (Cov(S, F) − σ²_S (1 − ρ_S)) / (σ_S σ_F), where ρ_S is the short form's reliability (alpha). This is
 /// the expected correlation between F and a re-administration of S with fresh errors.
 /// </summary>
-public static class LevyOverlapCorrection
+internal static class LevyOverlapCorrection
 {
     /// <summary>Corrected correlation from the short/full covariance, both variances and ρ_S.</summary>
     public static double Correct(double covarianceShortFull, double varianceShort, double varianceFull, double shortReliability)

@@ -9,7 +9,7 @@ namespace ItemReduce.Core.Reliability;
 /// scale's items, so ω here is on the correlation metric: the reliability of the sum of standardized items.
 /// NaN for fewer than 3 items (one-factor model not identified).
 /// </summary>
-public static class McDonaldOmega
+internal static class McDonaldOmega
 {
     /// <summary>ω from given loadings and uniquenesses (same length).</summary>
     public static double FromLoadings(IReadOnlyList<double> loadings, IReadOnlyList<double> uniquenesses)

@@ -34,7 +34,7 @@ public static class OmegaHierarchical
         ArgumentNullException.ThrowIfNull(factorCorrelations);
         ArgumentNullException.ThrowIfNull(correlation);
         int p = pattern.GetLength(0), k = pattern.GetLength(1);
-        if (k < 3) throw new ArgumentException($"{k} factors; omega hierarchical by Schmid–Leiman needs at least 3.", nameof(pattern));
+        if (k < 3) throw new DataConditionException($"{k} factors; omega hierarchical by Schmid–Leiman needs at least 3.", nameof(pattern));
         if (factorCorrelations.GetLength(0) != k || factorCorrelations.GetLength(1) != k)
             throw new ArgumentException($"Φ is {factorCorrelations.GetLength(0)}×{factorCorrelations.GetLength(1)} for {k} factors.", nameof(factorCorrelations));
         if (correlation.GetLength(0) != p || correlation.GetLength(1) != p)

@@ -17,7 +17,7 @@ namespace ItemReduce.Core.Reliability;
 /// <param name="ItemTotalCorrelations">Corrected item–total correlations (length k).</param>
 /// <param name="AlphaIfDeleted">Raw alpha of the other k − 1 items (length k).</param>
 /// <param name="Covariance">Item covariance matrix used (k × k).</param>
-public sealed record ReliabilityEstimate(
+internal sealed record ReliabilityEstimate(
     int ItemCount, int Respondents, double Alpha, double AlphaCiLow, double AlphaCiHigh, double Confidence,
     double StandardizedAlpha, double Omega, double[] OmegaLoadings, double[] ItemTotalCorrelations,
     double[] AlphaIfDeleted, double[,] Covariance);

@@ -9,7 +9,7 @@ namespace ItemReduce.Core.Reliability;
 /// Missing data: respondents with any missing answer on the scale's items are left out (listwise within the
 /// scale), so every statistic uses the same rows and n is well defined for the interval.
 /// </summary>
-public static class ScaleReliability
+internal static class ScaleReliability
 {
     /// <summary>Reliability of all columns of <paramref name="items"/> taken as one scale.</summary>
     public static ReliabilityEstimate Compute(ResponseMatrix items, double confidence = 0.95)

@@ -1,5 +1,5 @@
-using System.Runtime.CompilerServices;
 using System.Collections.Concurrent;
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Data;
 
 namespace ItemReduce.Core.Screening;

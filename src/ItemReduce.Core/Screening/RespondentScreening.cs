@@ -1,7 +1,6 @@
-using System.Runtime.CompilerServices;
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Data;
-using ItemReduce.Core.Randomness;
 
 namespace ItemReduce.Core.Screening;
 
@@ -27,8 +26,6 @@ namespace ItemReduce.Core.Screening;
 /// </summary>
 public static class RespondentScreening
 {
-    private const ulong PurposeSubsample = 0x5343_5245_01;
-
     /// <summary>Screens every respondent.</summary>
     /// <param name="data">Analysed responses: reverse-scored, usable items only (the caller drops all-missing and
     /// zero-variance items); NaN = missing. Distances and even-odd consistency use these values.</param>
@@ -43,8 +40,8 @@ public static class RespondentScreening
         ArgumentNullException.ThrowIfNull(options);
         options.Validate();
         int n = data.RespondentCount, p = data.ItemCount;
-        if (p < 1) throw new ArgumentException("Screening needs at least 1 item; got 0.", nameof(data));
-        if (n < 2) throw new ArgumentException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
+        if (p < 1) throw new DataConditionException("Screening needs at least 1 item; got 0.", nameof(data));
+        if (n < 2) throw new DataConditionException($"Screening needs at least 2 respondents; got {n}.", nameof(data));
         if (asAnswered is not null && (asAnswered.RespondentCount != n || asAnswered.ItemCount != p))
             throw new ArgumentException($"asAnswered is {asAnswered.RespondentCount}×{asAnswered.ItemCount} but data is {n}×{p}.", nameof(asAnswered));
         var warnings = new WarningList("screening");

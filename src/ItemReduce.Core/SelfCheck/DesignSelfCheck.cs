@@ -1,5 +1,4 @@
 using System.Globalization;
-using ItemReduce.Core.Data;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Randomness;
 using ItemReduce.Core.ShortForm;

@@ -7,7 +7,7 @@ namespace ItemReduce.Core.SelfCheck;
 /// <c>(p̂ + z²/2n ± z·sqrt(p̂(1 − p̂)/n + z²/4n²)) / (1 + z²/n)</c>; it stays inside [0, 1] and is not degenerate at
 /// x = 0 or x = n.
 /// </summary>
-public static class WilsonScoreInterval
+internal static class WilsonScoreInterval
 {
     /// <summary>Two-sided 95 % normal quantile z(0.975).</summary>
     public const double Z95 = 1.959963984540054;

@@ -8,7 +8,7 @@ namespace ItemReduce.Core.ShortForm;
 /// <see cref="Purpose"/>); the first round(n × fraction) shuffled rows are held out. Both parts are returned
 /// in ascending row order.
 /// </summary>
-public static class HoldoutSplit
+internal static class HoldoutSplit
 {
     /// <summary>Stream purpose tag, so the split does not share random numbers with other steps.</summary>
     public const ulong Purpose = 0x5F0A_4D01UL;

@@ -1,5 +1,3 @@
-using ItemReduce.Core.Factoring;
-
 namespace ItemReduce.Core.ShortForm;
 
 /// <summary>Per-item statistics and flags before any selection (decisions are set by <see cref="ItemSelection"/>).</summary>

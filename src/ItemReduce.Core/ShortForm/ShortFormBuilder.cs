@@ -40,7 +40,7 @@ public static class ShortFormBuilder
         Validate(data, factors, o);
         var (selRows, holdRows) = HoldoutSplit.Split(data.RespondentCount, o.HoldoutFraction, o.Seed);
         if (holdRows.Length > 0 && (selRows.Length < 10 || holdRows.Length < 10))
-            throw new ArgumentException($"Holdout fraction {o.HoldoutFraction} leaves {selRows.Length} selection and {holdRows.Length} holdout respondents; each part needs at least 10.", nameof(options));
+            throw new DataConditionException($"Holdout fraction {o.HoldoutFraction} leaves {selRows.Length} selection and {holdRows.Length} holdout respondents; each part needs at least 10.", nameof(options));
         var sel = holdRows.Length > 0 ? data.SelectRespondents(selRows) : data;
         var warnings = new WarningList("short-form");
 
@@ -140,7 +140,7 @@ public static class ShortFormBuilder
 
     /// <summary>Declared subscales keep their items and get their home factor; undeclared items join the scale
     /// named after their primary factor's label.</summary>
-    private static List<ScaleDefinition> AssignScales(ResponseMatrix data, FactorSolution s, IReadOnlyList<string?> subscales)
+    private static List<ScaleDefinition> AssignScales(ResponseMatrix data, FactorSolution s, List<string?> subscales)
     {
         var list = new List<ScaleDefinition>();
         var byName = new Dictionary<string, ScaleDefinition>(StringComparer.Ordinal);
@@ -180,7 +180,7 @@ public static class ShortFormBuilder
             f.SecondaryLoading, f.Communality, f.ItemTotal, f.AlphaIfDeleted, f.ScaleAlpha);
     }
 
-    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, IReadOnlyList<string?> subscales, IReadOnlyList<string> names, ShortFormOptions o, WarningList warnings)
+    private static FactorSolution? Refit(double[,] r, int n, int k, List<int> selected, List<string?> subscales, List<string> names, ShortFormOptions o, WarningList warnings)
     {
         if (selected.Count <= k || selected.Count < 3)
         {
@@ -196,7 +196,7 @@ public static class ShortFormBuilder
             warnings.AddRange(s.Warnings.Select(w => w with { Message = "Short-form refit: " + w.Message }));
             return s;
         }
-        catch (Exception e) when (e is ArgumentException or FactorNonConvergenceException)
+        catch (Exception e) when (e is DataConditionException or FactorNonConvergenceException)
         {
             warnings.Add("refit-failed", "Short-form refit failed: " + e.Message);
             return null;
@@ -207,7 +207,7 @@ public static class ShortFormBuilder
     /// <paramref name="knownFull"/> gives their estimates, and each short form) come from one read of its rows; each set
     /// stays listwise on its own items.</summary>
     private static void AddRows(List<ReliabilityRow> rows, ResponseMatrix sample, List<ScaleDefinition> scales, List<ShortFormScale> chosen,
-        ResponseMatrix data, SampleRole role, double confidence, IReadOnlyList<ReliabilityEstimate>? knownFull)
+        ResponseMatrix data, SampleRole role, double confidence, List<ReliabilityEstimate>? knownFull)
     {
         string suffix = role == SampleRole.Holdout ? "-holdout" : "";
         var shortPositions = new List<int>[scales.Count];
@@ -244,7 +244,7 @@ public static class ShortFormBuilder
         ArgumentNullException.ThrowIfNull(data);
         ArgumentNullException.ThrowIfNull(o);
         int p = data.ItemCount;
-        if (factors < 1 || factors >= p) throw new ArgumentException($"factors = {factors}; allowed range is 1..{p - 1} for {p} items.", nameof(factors));
+        if (factors < 1 || factors >= p) throw new DataConditionException($"factors = {factors}; allowed range is 1..{p - 1} for {p} items.", nameof(factors));
         const int minLen = ShortFormOptions.MinItemsPerScale, maxLen = ShortFormOptions.MaxItemsPerScale;
         if (o.ItemsPerScale is < minLen or > maxLen) throw new ArgumentException($"ItemsPerScale = {o.ItemsPerScale}; allowed {minLen}..{maxLen}.", nameof(o));
         if (o.ScaleTargets is { } t)

@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Randomness;
 using MathNet.Numerics.Distributions;
@@ -303,7 +304,7 @@ public static class FactorModelSimulator
                 for (int t = 0; t < j; t++) s -= l[i, t] * l[j, t];
                 if (i == j)
                 {
-                    if (s <= 0) throw new ArgumentException("Factor correlation matrix is not positive definite.");
+                    if (s <= 0) throw new DataConditionException("Factor correlation matrix is not positive definite.");
                     l[i, i] = Math.Sqrt(s);
                 }
                 else l[i, j] = s / l[j, j];

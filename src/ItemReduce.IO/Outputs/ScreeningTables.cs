@@ -1,5 +1,5 @@
-using System.Runtime.CompilerServices;
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using ItemReduce.Core.Screening;
 using static ItemReduce.IO.SafeCsvWriter;
 

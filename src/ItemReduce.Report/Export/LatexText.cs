@@ -3,7 +3,7 @@ using System.Text;
 namespace ItemReduce.Report.Export;
 
 /// <summary>Escaping of plain text for LaTeX (text mode).</summary>
-public static class LatexText
+internal static class LatexText
 {
     /// <summary>
     /// Escapes the ten LaTeX special characters <c>&amp; % $ # _ { } ~ ^ \</c> so they print literally,

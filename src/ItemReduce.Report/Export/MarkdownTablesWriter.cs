@@ -1,6 +1,5 @@
 using System.Globalization;
 using System.Text;
-using ItemReduce.Report.Layout;
 using ItemReduce.Report.Model;
 
 namespace ItemReduce.Report.Export;

@@ -114,7 +114,7 @@ internal sealed partial class AppendixLayout
     }
 
     /// <summary>Flowing text: lines move to the next page one by one.</summary>
-    private void FlowLines(IReadOnlyList<TextLine> lines, float firstX, float otherX, TextStyle style)
+    private void FlowLines(List<TextLine> lines, float firstX, float otherX, TextStyle style)
     {
         for (int i = 0; i < lines.Count; i++)
         {

@@ -90,7 +90,7 @@ public sealed record KeyValueEntry(string Label, string Value);
 public sealed record KeyValueBlock(IReadOnlyList<KeyValueEntry> Entries) : Block;
 
 /// <summary>Forces the following content onto a new page (no effect at the top of a page or at the end of the document).</summary>
-public sealed record PageBreakBlock : Block;
+internal sealed record PageBreakBlock : Block;
 
 /// <summary>Reference list; each entry is a fully formatted citation, printed with a hanging indent.</summary>
 public sealed record ReferenceListBlock(IReadOnlyList<string> Entries) : Block;

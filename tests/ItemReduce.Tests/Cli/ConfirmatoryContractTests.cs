@@ -1,5 +1,4 @@
 using System.Text.Json;
-using ItemReduce.Tests.Support;
 using UglyToad.PdfPig;
 
 namespace ItemReduce.Tests.Cli;

@@ -145,7 +145,7 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         Assert.Contains(Squeeze("Selection stability"), pdf);
         Assert.Contains(Squeeze("not evidence that the model is right"), pdf);
         Assert.Contains(Squeeze("does not show that the model is right"), pdf); // the caution
-        string title = ItemReduce.IO.Appendix.AppendixBuilder.SelfCheckTableTitle;
+        string title = ItemReduce.Application.Appendix.AppendixBuilder.SelfCheckTableTitle;
         Assert.Contains(title, System.IO.File.ReadAllText(File("tables.md")));
         Assert.Contains("Self-check: the decisions of this run", System.IO.File.ReadAllText(File("tables.tex")));
         Assert.Contains("self-check.csv", System.IO.File.ReadAllText(File("itemreduce-manifest.txt")));
@@ -270,7 +270,7 @@ public class ReadmeTests
     public void Readme_lists_every_citation_the_appendix_can_print()
     {
         string readme = File.ReadAllText(Path.Combine(Root(), "README.md"));
-        var fields = typeof(ItemReduce.IO.Appendix.MethodReferences).GetFields().Where(f => f.IsLiteral).ToList();
+        var fields = typeof(ItemReduce.Application.Appendix.MethodReferences).GetFields().Where(f => f.IsLiteral).ToList();
         Assert.NotEmpty(fields);
         foreach (var f in fields) Assert.Contains((string)f.GetRawConstantValue()!, readme);
     }

@@ -1,8 +1,8 @@
 using System.Globalization;
 using System.Text.Json;
+using ItemReduce.Application.Settings;
+using ItemReduce.Application.Summary;
 using ItemReduce.Cli;
-using ItemReduce.IO.Outputs;
-using ItemReduce.IO.Settings;
 using ItemReduce.Tests.Support;
 using Spectre.Console;
 
@@ -237,7 +237,7 @@ public class TemplateTests
         string template = File.ReadAllText(Path.Combine(PresentationTests.Root(), "templates", "codebook-template.csv"));
         var sb = new System.Text.StringBuilder("respondent,q01,q02,q03,q04,q05,q06\n");
         for (int i = 0; i < 40; i++)
-            sb.Append("r").Append(i).Append(string.Concat(Enumerable.Range(0, 6).Select(j => "," + ((i * (j + 2) + j * j + i / 3) % 5 + 1)))).Append('\n');
+            sb.Append('r').Append(i).Append(string.Concat(Enumerable.Range(0, 6).Select(j => "," + ((i * (j + 2) + j * j + i / 3) % 5 + 1)))).Append('\n');
         using var s = new TempSurvey().WithCodebook(6, template).WithResponses(sb.ToString());
         var r = s.Check();
         Assert.True(r.Code == 0, r.Err);

@@ -1,10 +1,9 @@
+using ItemReduce.Application.Appendix;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
 using ItemReduce.Cli;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Pipeline;
-using ItemReduce.IO;
-using ItemReduce.IO.Appendix;
-using ItemReduce.IO.Jobs;
-using ItemReduce.IO.Settings;
 using ItemReduce.Report.Model;
 using ItemReduce.Tests.Support;
 
@@ -188,7 +187,7 @@ public class SettingsModelTests
         string root = AppContext.BaseDirectory;
         while (!File.Exists(Path.Combine(root, "ItemReduce.sln"))) root = Path.GetDirectoryName(root)!;
         string readme = File.ReadAllText(Path.Combine(root, "README.md")).ReplaceLineEndings("\n");
-        const string begin = "<!-- options table: generated from src/ItemReduce.IO/Settings/SettingsCatalog.cs -->\n", end = "<!-- end of options table -->";
+        const string begin = "<!-- options table: generated from src/ItemReduce.Application/Settings/SettingsCatalog.cs -->\n", end = "<!-- end of options table -->";
         int a = readme.IndexOf(begin, StringComparison.Ordinal), b = readme.IndexOf(end, StringComparison.Ordinal);
         Assert.True(a >= 0 && b > a, "README lacks the options-table markers");
         string expected = CliOptions.MarkdownTable();

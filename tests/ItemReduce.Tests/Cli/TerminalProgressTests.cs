@@ -1,5 +1,4 @@
 using ItemReduce.Cli;
-using Xunit;
 
 namespace ItemReduce.Tests.Cli;
 

@@ -1,7 +1,6 @@
 using System.Reflection;
 using System.Text.RegularExpressions;
-using ItemReduce.IO.Appendix;
-using Xunit;
+using ItemReduce.Application.Appendix;
 
 namespace ItemReduce.Tests.IO;
 
@@ -116,7 +115,7 @@ public sealed partial class CitationRegistryTests
     {
         string path = Path.Combine(Root, "README.md");
         string readme = File.ReadAllText(path).ReplaceLineEndings("\n");
-        const string begin = "<!-- reference list: generated from src/ItemReduce.IO/Appendix/MethodReferences.cs -->\n", end = "<!-- end of reference list -->";
+        const string begin = "<!-- reference list: generated from src/ItemReduce.Application/Appendix/MethodReferences.cs -->\n", end = "<!-- end of reference list -->";
         int a = readme.IndexOf(begin, StringComparison.Ordinal), b = readme.IndexOf(end, StringComparison.Ordinal);
         Assert.True(a >= 0 && b > a, "README lacks the reference-list markers");
         static string List(IEnumerable<Work> works) =>

@@ -1,5 +1,5 @@
+using ItemReduce.Application.Settings;
 using ItemReduce.IO;
-using Xunit;
 
 namespace ItemReduce.Tests.IO;
 

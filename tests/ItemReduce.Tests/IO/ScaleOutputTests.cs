@@ -1,9 +1,9 @@
 using System.Text;
+using ItemReduce.Application.Appendix;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Screening;
 using ItemReduce.IO;
-using ItemReduce.IO.Appendix;
 using ItemReduce.IO.Outputs;
 using ItemReduce.Simulation;
 using static ItemReduce.IO.SafeCsvWriter;

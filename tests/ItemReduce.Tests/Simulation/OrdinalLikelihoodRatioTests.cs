@@ -1,6 +1,5 @@
-using ItemReduce.Tests.Support;
 using ItemReduce.Simulation;
-using ItemReduce.Tests.Core.Screening;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Simulation;
 

@@ -1,5 +1,5 @@
-using System.Runtime.InteropServices;
 using System.Diagnostics;
+using System.Runtime.InteropServices;
 
 namespace ItemReduce.Tests.Support;
 

@@ -1,4 +1,5 @@
 using System.Globalization;
+using ItemReduce.Core;
 using ItemReduce.Core.Confirmatory;
 using ItemReduce.Core.Data;
 using ItemReduce.Tests.Support;
@@ -123,7 +124,7 @@ public class ConfirmatoryFactorAnalysisTests
     [Fact]
     public void A_factor_with_one_item_is_refused_as_not_identified()
     {
-        var e = Assert.Throws<ArgumentException>(() => ConfirmatoryFactorAnalysis.Fit(Load("cfa_complete_data.csv"), Enumerable.Range(0, 7).ToArray(),
+        var e = Assert.Throws<DataConditionException>(() => ConfirmatoryFactorAnalysis.Fit(Load("cfa_complete_data.csv"), Enumerable.Range(0, 7).ToArray(),
             [0, 0, 0, 0, 0, 0, 1], ["A", "B"], false));
         Assert.Contains("not identified", e.Message);
     }

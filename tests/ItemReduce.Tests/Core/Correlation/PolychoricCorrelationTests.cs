@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Randomness;
@@ -93,7 +94,7 @@ public class PolychoricCorrelationTests
         var items = new[] { new ItemDefinition("a", null, false, 0, 100, null), new ItemDefinition("b", null, false, 0, 100, null) };
         var v = Enumerable.Range(0, 60).SelectMany(i => new double[] { i, i % 3 }).ToArray();
         var data = new ResponseMatrix(Enumerable.Range(0, 30 * 2).Select(i => $"r{i}").ToList(), items, v);
-        var ex = Assert.Throws<ArgumentException>(() => PolychoricCorrelation.Compute(data));
+        var ex = Assert.Throws<DataConditionException>(() => PolychoricCorrelation.Compute(data));
         Assert.Contains("'a'", ex.Message);
         Assert.True(double.IsNaN(PolychoricCorrelation.FromTable(new[,] { { 5, 7 }, { 0, 0 } })));
     }

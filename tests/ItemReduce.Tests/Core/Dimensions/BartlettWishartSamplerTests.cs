@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.LinearAlgebra;
 using ItemReduce.Core.Randomness;
@@ -64,6 +65,6 @@ public class BartlettWishartSamplerTests
             for (int j = 0; j < 6; j++) { Assert.Equal(r[i, j], r[j, i]); Assert.InRange(r[i, j], -1, 1); }
         }
         Assert.True(SymmetricEigensolver.Eigenvalues(r)[^1] > 0);
-        Assert.Throws<ArgumentException>(() => BartlettWishartSampler.SampleCorrelation(6, 5, new RandomStream(1)));
+        Assert.Throws<DataConditionException>(() => BartlettWishartSampler.SampleCorrelation(6, 5, new RandomStream(1)));
     }
 }

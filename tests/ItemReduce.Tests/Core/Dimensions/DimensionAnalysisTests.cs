@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
@@ -131,9 +132,9 @@ public class DimensionAnalysisTests
     {
         var data = Planted(1, 4, 100, 2);
         Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data, new DimensionOptions { FactorsRule = RetentionRule.Fixed }));
-        var ex = Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data, new DimensionOptions { FixedFactors = 5 }));
+        var ex = Assert.Throws<DataConditionException>(() => DimensionAnalysis.Run(data, new DimensionOptions { FixedFactors = 5 }));
         Assert.Contains("[1, 4]", ex.Message);
         Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 0 }));
-        Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data.SelectRespondents([0, 1, 2, 3, 4]), new DimensionOptions()));
+        Assert.Throws<DataConditionException>(() => DimensionAnalysis.Run(data.SelectRespondents([0, 1, 2, 3, 4]), new DimensionOptions()));
     }
 }

@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.LinearAlgebra;
 using ItemReduce.Core.Randomness;
@@ -152,6 +153,6 @@ public class ParallelAnalysisTests
         var ex = Assert.Throws<ArgumentException>(() => ParallelAnalysis.NormalReference(100, 5, new ParallelAnalysisOptions { Replicates = 5 }));
         Assert.Contains("[10, 100000]", ex.Message);
         Assert.Throws<ArgumentException>(() => ParallelAnalysis.NormalReference(100, 5, new ParallelAnalysisOptions { Percentile = 100 }));
-        Assert.Throws<ArgumentException>(() => ParallelAnalysis.NormalReference(5, 5, new ParallelAnalysisOptions()));
+        Assert.Throws<DataConditionException>(() => ParallelAnalysis.NormalReference(5, 5, new ParallelAnalysisOptions()));
     }
 }

@@ -1,7 +1,8 @@
-using ItemReduce.Tests.Support;
+using ItemReduce.Core;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Simulation;
+using ItemReduce.Tests.Support;
 using MathNet.Numerics.LinearAlgebra;
 
 namespace ItemReduce.Tests.Core.Factoring;
@@ -146,7 +147,7 @@ public class ExtractionTests
     {
         // det = 1·(1 − .36) − .9·(.9 − .54) + .9·(.54 − .9) = −0.008 < 0 (hand computation).
         var r = new double[,] { { 1, .9, .9 }, { .9, 1, .6 }, { .9, .6, 1 } };
-        var ex = Assert.Throws<ArgumentException>(() => FactorAnalysis.Fit(r, 500, 1, new FactoringOptions { Extraction = FactorExtraction.MaximumLikelihood }));
+        var ex = Assert.Throws<DataConditionException>(() => FactorAnalysis.Fit(r, 500, 1, new FactoringOptions { Extraction = FactorExtraction.MaximumLikelihood }));
         Assert.Contains("positive definite", ex.Message);
         Assert.NotEmpty(FactorAnalysis.Fit(r, 500, 1).HeywoodItems); // minres still answers, flagged
     }
@@ -162,11 +163,11 @@ public class ExtractionTests
     [Fact]
     public void Invalid_input_is_rejected_with_the_value()
     {
-        var ex = Assert.Throws<ArgumentException>(() => FactorAnalysis.Fit(R2, 3000, 8));
+        var ex = Assert.Throws<DataConditionException>(() => FactorAnalysis.Fit(R2, 3000, 8));
         Assert.Contains("factors = 8", ex.Message);
         var bad = (double[,])R2.Clone();
         bad[0, 1] = double.NaN;
-        Assert.Throws<ArgumentException>(() => FactorAnalysis.Fit(bad, 3000, 2));
+        Assert.Throws<DataConditionException>(() => FactorAnalysis.Fit(bad, 3000, 2));
     }
 
     [Fact]

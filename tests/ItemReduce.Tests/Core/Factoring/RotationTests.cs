@@ -1,5 +1,5 @@
-using ItemReduce.Tests.Support;
 using ItemReduce.Core.Factoring;
+using ItemReduce.Tests.Support;
 using MathNet.Numerics.LinearAlgebra;
 
 namespace ItemReduce.Tests.Core.Factoring;

@@ -1,4 +1,3 @@
-using ItemReduce.Core.Data;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Simulation;
 
@@ -49,5 +48,19 @@ public class SurveyPipelineTests
         Assert.Contains("remain after screening", e.Message);
         Assert.Equal(AnalysisStoppedException.TooFewAfterScreening, e.Code);
         Assert.DoesNotContain("--", e.Message); // Core does not know option names; the command line adds the advice
+    }
+
+    [Fact]
+    public void A_stage_the_data_rule_out_stops_with_the_plain_reason()
+    {
+        // 8 respondents for 10 items (dimensions only, no screening): the dimension analysis needs at least p + 2 usable respondents.
+        var prepared = Prepared(8, 6);
+        var e = Assert.Throws<AnalysisStoppedException>(() => SurveyPipeline.Run(prepared,
+            new PipelineSettings { Scope = PipelineScope.Dimensions, Dimensions = new() { Replicates = 20 } }));
+        Assert.Equal("dimensions", e.Stage);
+        Assert.IsType<ItemReduce.Core.DataConditionException>(e.InnerException);
+        Assert.EndsWith(e.InnerException!.Message, e.Message); // the reason as Core wrote it, nothing cut or added
+        Assert.Contains("Too few respondents for 10 items", e.Message);
+        Assert.DoesNotContain("(Parameter", e.Message);
     }
 }

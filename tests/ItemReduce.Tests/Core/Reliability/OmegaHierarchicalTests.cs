@@ -1,6 +1,6 @@
-using ItemReduce.Tests.Support;
+using ItemReduce.Core;
 using ItemReduce.Core.Reliability;
-using ItemReduce.Tests.Core.Factoring;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Reliability;
 
@@ -83,7 +83,7 @@ public class OmegaHierarchicalTests
     [Fact]
     public void Fewer_than_three_factors_is_rejected()
     {
-        var ex = Assert.Throws<ArgumentException>(() => OmegaHierarchical.Compute(new double[5, 2], new double[2, 2], new double[5, 5]));
+        var ex = Assert.Throws<DataConditionException>(() => OmegaHierarchical.Compute(new double[5, 2], new double[2, 2], new double[5, 5]));
         Assert.Contains("at least 3", ex.Message);
     }
 

@@ -1,7 +1,7 @@
-using ItemReduce.Tests.Support;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Reliability;
 using ItemReduce.Tests.Core.Factoring;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Reliability;
 

@@ -1,6 +1,6 @@
-using ItemReduce.Tests.Support;
 using System.Globalization;
 using ItemReduce.Core.Screening;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Screening;
 

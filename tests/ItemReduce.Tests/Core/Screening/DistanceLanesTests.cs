@@ -1,5 +1,5 @@
-using ItemReduce.Tests.Support;
 using ItemReduce.Core.Screening;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Screening;
 

@@ -1,7 +1,6 @@
-using ItemReduce.Tests.Support;
-using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
 using ItemReduce.Simulation;
+using ItemReduce.Tests.Support;
 using Xunit.Abstractions;
 
 namespace ItemReduce.Tests.Core.Screening;

@@ -1,6 +1,6 @@
-using ItemReduce.Tests.Support;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
+using ItemReduce.Tests.Support;
 
 namespace ItemReduce.Tests.Core.Screening;
 

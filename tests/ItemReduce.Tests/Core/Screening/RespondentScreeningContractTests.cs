@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Screening;
 using ItemReduce.Simulation;
@@ -123,7 +124,7 @@ public class RespondentScreeningContractTests
         Assert.False(double.IsNaN(r.Respondents[0].D2));
         Assert.False(r.Robust.Available);
         Assert.Contains(r.Warnings, w => w.Message.Contains("fewer than 2 respondents answering both"));
-        Assert.Throws<ArgumentException>(() => RespondentScreening.Run(MahalanobisDistanceTests.Matrix([[1.0, 2]], 2), new ScreeningOptions()));
+        Assert.Throws<DataConditionException>(() => RespondentScreening.Run(MahalanobisDistanceTests.Matrix([[1.0, 2]], 2), new ScreeningOptions()));
     }
 
     [Theory]

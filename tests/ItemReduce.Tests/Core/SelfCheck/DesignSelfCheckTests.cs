@@ -1,4 +1,3 @@
-using ItemReduce.Core.Data;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.SelfCheck;
 using ItemReduce.Core.ShortForm;

@@ -1,3 +1,4 @@
+using ItemReduce.Core;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.ShortForm;
 using ItemReduce.Simulation;
@@ -197,6 +198,6 @@ public class ShortFormBuilderTests
         var (data, _) = Survey(n: 200);
         var ex = Assert.Throws<ArgumentException>(() => ShortFormBuilder.Build(data, 3, new ShortFormOptions { HoldoutFraction = 0.95 }));
         Assert.Contains("0.95", ex.Message);
-        Assert.Throws<ArgumentException>(() => ShortFormBuilder.Build(data, 24));
+        Assert.Throws<DataConditionException>(() => ShortFormBuilder.Build(data, 24));
     }
 }

@@ -1,13 +1,12 @@
+using ItemReduce.Application.Jobs;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
-using ItemReduce.Core.Screening;
-using ItemReduce.Core.ShortForm;
-using ItemReduce.IO.Jobs;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>What the terminal shows.</summary>
 /// <param name="Quiet">No progress and no warnings.</param>

@@ -1,7 +1,7 @@
 using System.Diagnostics;
 using System.Globalization;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>Progress messages for long steps, handed to a sink chosen by the command line: plain lines on stderr
 /// (<see cref="ProgressLog(TextWriter?)"/>, each carrying the seconds elapsed since the log was created, so a user can

@@ -1,7 +1,8 @@
 using System.Globalization;
 using System.Text.Json;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>One key of a plan file, with its 1-based line and its value in the forms a setting may take.</summary>
 /// <param name="Key">The key (a setting name).</param>

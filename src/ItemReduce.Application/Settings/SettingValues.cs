@@ -1,6 +1,6 @@
 using System.Globalization;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>A value given for a setting, typed (see <see cref="SettingKind"/>), with where it came from.</summary>
 /// <param name="Setting">The setting.</param>
@@ -10,7 +10,7 @@ namespace ItemReduce.IO.Settings;
 public sealed record GivenSetting(Setting Setting, object Value, string Source, bool FromPlan);
 
 /// <summary>A value that does not fit its setting; the message says what is allowed.</summary>
-public sealed class SettingValueException(string allowed) : Exception(allowed)
+internal sealed class SettingValueException(string allowed) : Exception(allowed)
 {
     /// <summary>Allowed values in plain words.</summary>
     public string Allowed { get; } = allowed;

@@ -1,11 +1,11 @@
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>
 /// Full citations of the published methods the appendix may cite (APA style). The same citations
 /// appear in the summary comments of the types implementing each method. Citations were written from
 /// memory by the developers; page ranges should be checked before a manuscript quotes them.
 /// </summary>
-public static class MethodReferences
+internal static class MethodReferences
 {
     public const string Wilson1927 = "Wilson, E. B. (1927). Probable inference, the law of succession, and statistical inference. Journal of the American Statistical Association, 22(158), 209–212.";
     public const string OlssonDrasgowDorans1982 = "Olsson, U., Drasgow, F., & Dorans, N. J. (1982). The polyserial correlation coefficient. Psychometrika, 47(3), 337–347.";
@@ -70,7 +70,7 @@ public static class MethodReferences
 /// cited works: a test ties every citation in the code to an entry here and the README's reference list to both
 /// classes. Written from memory by the developers.
 /// </summary>
-public static class ComputingReferences
+internal static class ComputingReferences
 {
     public const string Anderson2003 = "Anderson, T. W. (2003). An introduction to multivariate statistical analysis (3rd ed.). Wiley.";
     public const string Benoit1924 = "Benoît, Commandant (1924). Note sur une méthode de résolution des équations normales provenant de l'application de la méthode des moindres carrés à un système d'équations linéaires en nombre inférieur à celui des inconnues (Procédé du Commandant Cholesky). Bulletin Géodésique, 2, 67–77.";

@@ -1,12 +1,13 @@
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Dimensions;
-using ItemReduce.Core.Randomness;
 using ItemReduce.Core.Factoring;
+using ItemReduce.Core.Randomness;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.SelfCheck;
 using ItemReduce.Core.ShortForm;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>
 /// Every setting of every command, declared once. Defaults and ranges of analysis settings are read from the Core

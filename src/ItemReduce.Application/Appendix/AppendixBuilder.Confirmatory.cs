@@ -6,10 +6,10 @@ using ItemReduce.IO.Outputs;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
 
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>Section 7 (confirmatory factor analysis) and the item descriptives table.</summary>
-public static partial class AppendixBuilder
+internal static partial class AppendixBuilder
 {
     /// <summary>Longest item wording shown next to the loadings before it is shortened with an ellipsis.</summary>
     public const int WordingLength = 60;

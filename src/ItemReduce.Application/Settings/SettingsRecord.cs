@@ -1,13 +1,14 @@
 using System.Text.Json.Nodes;
-using ItemReduce.IO.Jobs;
+using ItemReduce.Application.Jobs;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>One row of the settings record: a setting the command uses, its value in effect and where it came from.</summary>
 /// <param name="Setting">The setting.</param>
 /// <param name="Value">Typed value in effect (paths reduced to file names); null when not set.</param>
 /// <param name="Source">"default", "command line" or "plan".</param>
-public sealed record SettingRow(Setting Setting, object? Value, string Source)
+internal sealed record SettingRow(Setting Setting, object? Value, string Source)
 {
     /// <summary>The value for people: command-line form, or the default in words when not set.</summary>
     public string Text => Value switch
@@ -22,7 +23,7 @@ public sealed record SettingRow(Setting Setting, object? Value, string Source)
 
 /// <summary>The settings of a run as recorded in summary.json and the appendix: every recorded setting the command
 /// uses, in catalog order, with its value in effect.</summary>
-public static class SettingsRecord
+internal static class SettingsRecord
 {
     /// <summary>Rows of <paramref name="job"/>.</summary>
     public static IReadOnlyList<SettingRow> Rows(JobSettings job)

@@ -1,16 +1,15 @@
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.SelfCheck;
-using ItemReduce.Core.ShortForm;
 using ItemReduce.IO.Outputs;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
 
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>Section 8: the design-matched self-check ("How stable are these decisions?").</summary>
-public static partial class AppendixBuilder
+internal static partial class AppendixBuilder
 {
     /// <summary>Heading of the self-check section.</summary>
     public const string SelfCheckHeading = "8. How stable are these decisions?";

@@ -1,6 +1,7 @@
 using ItemReduce.Core.Pipeline;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>Inputs read and prepared, with their fingerprints.</summary>
 public sealed record LoadedSurvey(ResponseIntake Intake, PreparedData Prepared, string ResponsesSha256, string CodebookSha256);

@@ -2,7 +2,7 @@ using System.Globalization;
 using ItemReduce.Core;
 using ItemReduce.Core.Pipeline;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>All warnings of a run in one order (data, pipeline, screening, dimensions, short form, confirmatory, self-check), for the terminal,
 /// summary.json and the appendix alike.</summary>

@@ -1,7 +1,8 @@
+using ItemReduce.Application.Settings;
 using ItemReduce.Core.Pipeline;
-using ItemReduce.IO.Settings;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>
 /// Every setting of a job, built from the declared settings (<see cref="SettingsCatalog"/>) by

@@ -1,8 +1,7 @@
 using System.Globalization;
 using System.Text;
-using ItemReduce.Core.Pipeline;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>Plain-text data summary printed by <c>itemreduce check</c>.</summary>
 public static class DataCheckReport

@@ -1,25 +1,25 @@
 using System.Globalization;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
 using ItemReduce.Core.Correlation;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
-using ItemReduce.IO.Jobs;
 using ItemReduce.IO.Outputs;
-using ItemReduce.IO.Settings;
 using ItemReduce.Report.Charts;
 using ItemReduce.Report.Model;
 using static ItemReduce.Report.Formatting.NumberFormat;
 
-namespace ItemReduce.IO.Appendix;
+namespace ItemReduce.Application.Appendix;
 
 /// <summary>
 /// Turns a run's results into the methods appendix document (sections, numbered tables and figures,
 /// cautions and references). Wording is ours; numbers follow common reporting conventions (two or three
 /// decimals, no leading zero for values bounded by 1).
 /// </summary>
-public static partial class AppendixBuilder
+internal static partial class AppendixBuilder
 {
     /// <summary>Loadings with absolute value below this are left blank in the loading table.</summary>
     public const double BlankBelow = 0.30;

@@ -1,18 +1,19 @@
 using System.Text.Json.Nodes;
+using ItemReduce.Application.Jobs;
+using ItemReduce.Application.Settings;
 using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
 using ItemReduce.Core.Screening;
 using ItemReduce.Core.ShortForm;
-using ItemReduce.IO.Jobs;
-using ItemReduce.IO.Settings;
+using ItemReduce.IO.Outputs;
 using static ItemReduce.IO.JsonOut;
 
-namespace ItemReduce.IO.Outputs;
+namespace ItemReduce.Application.Summary;
 
 /// <summary>Builds <c>summary.json</c>: every count, decision and rule of the run, in a fixed key order.</summary>
-public static class SummaryJson
+internal static class SummaryJson
 {
     public static JsonObject Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
     {

@@ -1,6 +1,7 @@
 using System.Globalization;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Settings;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>Commands a setting applies to.</summary>
 [Flags]

@@ -1,7 +1,9 @@
+using ItemReduce.Application.Summary;
 using ItemReduce.Core.Pipeline;
+using ItemReduce.IO;
 using ItemReduce.IO.Outputs;
 
-namespace ItemReduce.IO.Jobs;
+namespace ItemReduce.Application.Jobs;
 
 /// <summary>What a finished job produced: the pipeline result, the summary.json model, the results folder (full path)
 /// and the names of the files written there.</summary>

@@ -1,8 +1,9 @@
 using System.Globalization;
 using System.Text;
 using System.Text.Json.Nodes;
+using ItemReduce.IO;
 
-namespace ItemReduce.IO.Outputs;
+namespace ItemReduce.Application.Summary;
 
 /// <summary>One block of the end-of-command summary: a title, an optional table (header and rows of text cells) and
 /// lines of text after it.</summary>

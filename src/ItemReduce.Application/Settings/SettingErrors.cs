@@ -1,8 +1,9 @@
-namespace ItemReduce.IO.Settings;
+using ItemReduce.IO;
+namespace ItemReduce.Application.Settings;
 
 /// <summary>Every message about a setting's value is built here: where it was given (option, or plan file, line and
 /// key), the value, and what is allowed, in plain words.</summary>
-public static class SettingErrors
+internal static class SettingErrors
 {
     /// <summary>Where a setting was given on the command line.</summary>
     public static string CommandLine(Setting s) => s.Option;
