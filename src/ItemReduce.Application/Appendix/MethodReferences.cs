@@ -88,7 +88,8 @@ internal static class ComputingReferences
     public const string HyndmanFan1996 = "Hyndman, R. J., & Fan, Y. (1996). Sample quantiles in statistical packages. The American Statistician, 50(4), 361–365.";
     public const string Kaiser1970 = "Kaiser, H. F. (1970). A second generation little jiffy. Psychometrika, 35(4), 401–415.";
     public const string LawleyMaxwell1971 = "Lawley, D. N., & Maxwell, A. E. (1971). Factor analysis as a statistical method (2nd ed.). Butterworths.";
-    public const string Lanczos1950 = "Lanczos, C. (1950). An iteration method for the solution of the eigenvalue problem of linear differential and integral operators. Journal of Research of the National Bureau of Standards, 45(4), 255–282.";
+    public const string Lanczos1950 = "Lanczos, C. (1950). An iteration method for the solution of the eigenvalue problem of linear " +
+        "differential and integral operators. Journal of Research of the National Bureau of Standards, 45(4), 255–282.";
     public const string Lemire2019 = "Lemire, D. (2019). Fast random integer generation in an interval. ACM Transactions on Modeling and Computer Simulation, 29(1), Article 3.";
     public const string MartinReinschWilkinson1968 = "Martin, R. S., Reinsch, C., & Wilkinson, J. H. (1968). Householder's tridiagonalization of a symmetric matrix. Numerische Mathematik, 11(3), 181–195.";
     public const string OdellFeiveson1966 = "Odell, P. L., & Feiveson, A. H. (1966). A numerical procedure to generate a sample covariance matrix. Journal of the American Statistical Association, 61(313), 199–203.";

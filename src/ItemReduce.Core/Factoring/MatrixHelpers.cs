@@ -37,7 +37,8 @@ internal static class MatrixHelpers
 
     /// <summary>True when R is positive definite with every Cholesky factor diagonal element above 1e-12 (unit diagonal).</summary>
     public static bool IsPositiveDefinite(Matrix<double> r, out double logDeterminant) =>
-        LinearAlgebra.CholeskyDecomposition.TryLogDeterminant(r.ToArray(), Dimensions.SquaredMultipleCorrelation.SingularPivotTolerance, out logDeterminant);
+        LinearAlgebra.CholeskyDecomposition.TryLogDeterminant(
+            r.ToArray(), Dimensions.SquaredMultipleCorrelation.SingularPivotTolerance, out logDeterminant);
 
     /// <summary>Row sums of squares (communalities of orthogonal loadings).</summary>
     public static double[] RowSumSquares(Matrix<double> l)
