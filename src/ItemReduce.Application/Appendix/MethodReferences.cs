@@ -89,12 +89,15 @@ internal static class ComputingReferences
     public const string HyndmanFan1996 = "Hyndman, R. J., & Fan, Y. (1996). Sample quantiles in statistical packages. The American Statistician, 50(4), 361–365.";
     public const string Kaiser1970 = "Kaiser, H. F. (1970). A second generation little jiffy. Psychometrika, 35(4), 401–415.";
     public const string LawleyMaxwell1971 = "Lawley, D. N., & Maxwell, A. E. (1971). Factor analysis as a statistical method (2nd ed.). Butterworths.";
+    public const string Lanczos1950 = "Lanczos, C. (1950). An iteration method for the solution of the eigenvalue problem of linear " +
+        "differential and integral operators. Journal of Research of the National Bureau of Standards, 45(4), 255–282.";
     public const string MulaKurzLemire2018 = "Muła, W., Kurz, N., & Lemire, D. (2018). Faster population counts using AVX2 instructions. The Computer Journal, 61(1), 111–120.";
     public const string Pearson1900 = "Pearson, K. (1900). Mathematical contributions to the theory of evolution. VII. On the correlation of characters not quantitatively measurable. Philosophical Transactions of the Royal Society of London A, 195, 1–47.";
     public const string Lemire2019 = "Lemire, D. (2019). Fast random integer generation in an interval. ACM Transactions on Modeling and Computer Simulation, 29(1), Article 3.";
     public const string MartinReinschWilkinson1968 = "Martin, R. S., Reinsch, C., & Wilkinson, J. H. (1968). Householder's tridiagonalization of a symmetric matrix. Numerische Mathematik, 11(3), 181–195.";
     public const string NocedalWright2006 = "Nocedal, J., & Wright, S. J. (2006). Numerical optimization (2nd ed.). Springer.";
     public const string OdellFeiveson1966 = "Odell, P. L., & Feiveson, A. H. (1966). A numerical procedure to generate a sample covariance matrix. Journal of the American Statistical Association, 61(313), 199–203.";
+    public const string Parlett1998 = "Parlett, B. N. (1998). The symmetric eigenvalue problem (Classics in Applied Mathematics 20). SIAM.";
     public const string Plackett1954 = "Plackett, R. L. (1954). A reduction formula for normal multivariate integrals. Biometrika, 41(3/4), 351–360.";
     public const string Smith1976 = "Smith, B. T., Boyle, J. M., Dongarra, J. J., Garbow, B. S., Ikebe, Y., Klema, V. C., & Moler, C. B. (1976). Matrix eigensystem routines — EISPACK guide (2nd ed.). Springer.";
     public const string SteeleLeaFlood2014 = "Steele, G. L., Lea, D., & Flood, C. H. (2014). Fast splittable pseudorandom number generators. ACM SIGPLAN Notices, 49(10), 453–472 (OOPSLA 2014).";

@@ -20,6 +20,33 @@ internal static class SquaredMultipleCorrelation
         return FromRowMajor(MatrixChecks.ToRowMajor(r), p);
     }
 
+    /// <summary>Relative pivot tolerance of <see cref="StartingCommunalities"/>: R counts as singular when a Cholesky
+    /// pivot is not above 1e-24 · R_jj (the factor's diagonal not above 1e-12 for a correlation matrix).</summary>
+    internal const double SingularPivotTolerance = 1e-24;
+
+    /// <summary>Starting communalities of the factor extractions: the SMCs clamped to [0, 1]; when R is singular
+    /// (see <see cref="SingularPivotTolerance"/>), each item's largest absolute correlation with another item
+    /// (common practice, no source).</summary>
+    internal static double[] StartingCommunalities(double[,] r)
+    {
+        int p = r.GetLength(0);
+        var scratch = MatrixChecks.ToRowMajor(r);
+        try
+        {
+            CholeskyDecomposition.FactorInPlace(scratch, p, SingularPivotTolerance);
+            var smc = CholeskyDecomposition.InverseDiagonalFromFactor(scratch, p);
+            for (int j = 0; j < p; j++) smc[j] = Math.Clamp(1.0 - 1.0 / smc[j], 0.0, 1.0);
+            return smc;
+        }
+        catch (MatrixNotPositiveDefiniteException)
+        {
+            var largest = new double[p];
+            for (int j = 0; j < p; j++)
+                for (int l = 0; l < p; l++) if (l != j) largest[j] = Math.Max(largest[j], Math.Abs(r[j, l]));
+            return largest;
+        }
+    }
+
     /// <summary>The reduced matrix: R with SMC_j on the diagonal (copy).</summary>
     public static double[,] ReducedMatrix(double[,] r)
     {

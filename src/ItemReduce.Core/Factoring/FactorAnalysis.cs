@@ -26,7 +26,7 @@ internal static class FactorAnalysis
         var o = options ?? new FactoringOptions();
         Validate(correlation, n, factors, o);
         var r = MatrixHelpers.ToMatrix(correlation);
-        if (o.Extraction == FactorExtraction.MaximumLikelihood && MatrixHelpers.TryCholesky(r) is null)
+        if (o.Extraction == FactorExtraction.MaximumLikelihood && !MatrixHelpers.IsPositiveDefinite(r, out _))
             throw new DataConditionException("Maximum likelihood needs a positive definite correlation matrix; this one is not " +
                                         "(pairwise deletion, linearly dependent or duplicated items?). Use minres or principal axis.", nameof(correlation));
         var extraction = Extract(r, factors, o);

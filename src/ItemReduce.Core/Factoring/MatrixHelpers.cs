@@ -22,42 +22,23 @@ internal static class MatrixHelpers
     /// <see cref="SymmetricEigenDescending"/>).</summary>
     public static double[] SymmetricEigenvaluesDescending(Matrix<double> a) => LinearAlgebra.SymmetricEigensolver.Eigenvalues(a.ToArray());
 
-    /// <summary>Squared multiple correlations 1 − 1/(R⁻¹)ⱼⱼ, the classic starting communalities
-    /// (common practice, no source). Falls back to the largest absolute off-diagonal correlation of each row
-    /// when R is singular.</summary>
-    public static double[] SquaredMultipleCorrelations(Matrix<double> r)
+    /// <summary>The leading k eigenpairs of a symmetric matrix (values descending, vectors as the columns of a p × k
+    /// matrix, same sign convention), by the project's one symmetric eigensolver
+    /// (<see cref="LinearAlgebra.SymmetricEigensolver.Leading"/>: Lanczos with full reorthogonalisation).</summary>
+    public static (double[] Values, Matrix<double> Vectors) LeadingEigen(Matrix<double> a, int k)
     {
-        int p = r.RowCount;
-        var smc = new double[p];
-        var chol = TryCholesky(r);
-        if (chol is not null)
-        {
-            var inv = chol.Solve(Matrix<double>.Build.DenseIdentity(p));
-            for (int j = 0; j < p; j++) smc[j] = Math.Clamp(1.0 - 1.0 / inv[j, j], 0.0, 1.0);
-            return smc;
-        }
-        for (int j = 0; j < p; j++)
-        {
-            double m = 0;
-            for (int l = 0; l < p; l++) if (l != j) m = Math.Max(m, Math.Abs(r[j, l]));
-            smc[j] = m;
-        }
-        return smc;
+        int p = a.RowCount;
+        var (values, rows) = LinearAlgebra.SymmetricEigensolver.Leading(a.ToRowMajorArray(), p, k);
+        return (values, Matrix<double>.Build.Dense(p, k, (i, c) => rows[c * p + i]));
     }
 
-    public static MathNet.Numerics.LinearAlgebra.Factorization.Cholesky<double>? TryCholesky(Matrix<double> a)
-    {
-        try
-        {
-            var c = a.Cholesky();
-            for (int i = 0; i < a.RowCount; i++) if (!(c.Factor[i, i] > 1e-12)) return null;
-            return c;
-        }
-        catch (ArgumentException)
-        {
-            return null;
-        }
-    }
+    /// <summary>Starting communalities (<see cref="Dimensions.SquaredMultipleCorrelation.StartingCommunalities"/>).</summary>
+    public static double[] SquaredMultipleCorrelations(Matrix<double> r) => Dimensions.SquaredMultipleCorrelation.StartingCommunalities(r.ToArray());
+
+    /// <summary>True when R is positive definite with every Cholesky factor diagonal element above 1e-12 (unit diagonal).</summary>
+    public static bool IsPositiveDefinite(Matrix<double> r, out double logDeterminant) =>
+        LinearAlgebra.CholeskyDecomposition.TryLogDeterminant(
+            r.ToArray(), Dimensions.SquaredMultipleCorrelation.SingularPivotTolerance, out logDeterminant);
 
     /// <summary>Row sums of squares (communalities of orthogonal loadings).</summary>
     public static double[] RowSumSquares(Matrix<double> l)

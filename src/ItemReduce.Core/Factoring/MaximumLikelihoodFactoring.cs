@@ -81,12 +81,10 @@ internal static class MaximumLikelihoodFactoring
         double rmsea = Math.Sqrt(Math.Max(chi - df, 0.0) / (df * (n - 1)));
 
         // Independence model: Σ̂ = diag(R); F₀ = −ln|R| for a correlation matrix.
-        var chol = MatrixHelpers.TryCholesky(r);
         double tli = double.NaN;
-        if (chol is not null)
+        if (MatrixHelpers.IsPositiveDefinite(r, out double logDet))
         {
-            double logDet = 0;
-            for (int i = 0; i < p; i++) logDet += 2 * Math.Log(chol.Factor[i, i]) - Math.Log(r[i, i]);
+            for (int i = 0; i < p; i++) logDet -= Math.Log(r[i, i]);
             double chi0 = (n - 1 - (2.0 * p + 5.0) / 6.0) * -logDet;
             double df0 = p * (p - 1) / 2.0;
             double ratio0 = chi0 / df0;

@@ -23,7 +23,7 @@ internal static class PrincipalAxisFactoring
             it++;
             var reduced = r.Clone();
             for (int j = 0; j < p; j++) reduced[j, j] = h2[j];
-            var (e, v) = MatrixHelpers.SymmetricEigenDescending(reduced);
+            var (e, v) = MatrixHelpers.LeadingEigen(reduced, k);
             loadings = MatrixHelpers.PrincipalLoadings(e, v, k);
             var next = MatrixHelpers.RowSumSquares(loadings);
             double change = 0;

@@ -5,7 +5,9 @@ namespace ItemReduce.Core.LinearAlgebra;
 /// the inverse, the diagonal of the inverse and the log-determinant (Cholesky's method as published by
 /// Benoît, 1924, "Note sur une méthode de résolution des équations normales…", Bulletin Géodésique 2, 67–77;
 /// algorithm as in Golub &amp; Van Loan, 2013, Matrix Computations, 4th ed., Alg. 4.2.1).
-/// A pivot ≤ 0 (not positive definite to working precision) throws <see cref="MatrixNotPositiveDefiniteException"/>.
+/// A pivot ≤ 0 (not positive definite to working precision) throws <see cref="MatrixNotPositiveDefiniteException"/>;
+/// callers that must also reject numerically singular matrices pass an explicit relative pivot tolerance τ: pivot i
+/// must exceed τ · A_ii (its original diagonal element).
 /// </summary>
 public static class CholeskyDecomposition
 {
@@ -31,11 +33,36 @@ public static class CholeskyDecomposition
         return 2 * s;
     }
 
+    /// <summary>True when the symmetric matrix <paramref name="a"/> has a Cholesky factor whose every pivot exceeds
+    /// <paramref name="relativePivotTolerance"/> times its diagonal element (0 = positive definite to working precision);
+    /// <paramref name="logDeterminant"/> is then ln det A, else NaN. Input not modified.</summary>
+    public static bool TryLogDeterminant(double[,] a, double relativePivotTolerance, out double logDeterminant)
+    {
+        MatrixChecks.SymmetricFinite(a, nameof(a));
+        int n = a.GetLength(0);
+        var l = MatrixChecks.ToRowMajor(a);
+        logDeterminant = double.NaN;
+        try
+        {
+            FactorInPlace(l, n, relativePivotTolerance);
+        }
+        catch (MatrixNotPositiveDefiniteException)
+        {
+            return false;
+        }
+        double s = 0;
+        for (int i = 0; i < n; i++) s += Math.Log(l[i * n + i]);
+        logDeterminant = 2 * s;
+        return true;
+    }
+
     /// <summary>
     /// Overwrites the lower triangle of the row-major n × n matrix <paramref name="a"/> with L (row i of L
-    /// in columns 0..i; the strict upper triangle is zeroed). Unchecked kernel.
+    /// in columns 0..i; the strict upper triangle is zeroed). Unchecked kernel. A pivot that is not above
+    /// <paramref name="relativePivotTolerance"/> · A_ii (default 0: not positive) throws
+    /// <see cref="MatrixNotPositiveDefiniteException"/>.
     /// </summary>
-    internal static void FactorInPlace(double[] a, int n)
+    internal static void FactorInPlace(double[] a, int n, double relativePivotTolerance = 0)
     {
         for (int i = 0; i < n; i++)
         {
@@ -45,7 +72,7 @@ public static class CholeskyDecomposition
                 double s = li[j] - VectorKernels.Dot(li[..j], a.AsSpan(j * n, j));
                 if (i == j)
                 {
-                    if (!(s > 0))
+                    if (!(s > 0) || (relativePivotTolerance > 0 && !(s > relativePivotTolerance * li[i])))
                         throw new MatrixNotPositiveDefiniteException(
                             $"Matrix is not positive definite: Cholesky pivot {i + 1} of {n} is {s}.");
                     li[i] = Math.Sqrt(s);
