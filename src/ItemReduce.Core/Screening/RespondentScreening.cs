@@ -69,7 +69,11 @@ public static class RespondentScreening
         var classical = new MahalanobisDistance(mean, cov);
         var synonyms = new PsychometricSynonyms(AsAnsweredCorrelation(cov, data), p);
 
-        var (robust, robustDistance, scores, inEstimate, runLimits) = robustFit.GetAwaiter().GetResult();
+        var (robust, robustDistance, scores, inEstimate, runLimits, randomIndex) = robustFit.GetAwaiter().GetResult();
+        double randomCutoff = randomIndex?.Cutoff ?? double.NaN;
+        // The index raises a flag only with at least SmallSampleRatio respondents per item (below that the polychoric
+        // correlations are too noisy for the fitted model to stand in for attentive answering; the index is still reported).
+        bool randomFlags = randomIndex is not null && robust.RowsUsed >= SmallSampleRatio * p;
         warnings.AddRange(robustWarnings);
 
         // 3. Cutoffs, df = items answered.
@@ -111,7 +115,7 @@ public static class RespondentScreening
         const int blockRows = MahalanobisDistance.BlockRows;
         Parallel.For(0, (n + blockRows - 1) / blockRows,
             () => (Scratch: new MahalanobisDistance.Scratch(p), Rows: new double[blockRows * p], Raw: new double[blockRows * p], Answered: new int[blockRows],
-                Scores: new double[blockRows * p]),
+                Scores: new double[blockRows * p], Index: randomIndex is null ? null : new RandomAnsweringIndex.Scratch(p)),
             [MethodImpl(MethodImplOptions.AggressiveOptimization)] (b, _, local) =>
             {
                 int first = b * blockRows, count = Math.Min(blockRows, n - first);
@@ -129,8 +133,9 @@ public static class RespondentScreening
                 for (int r = 0; r < count; r++)
                 {
                     int i = first + r;
+                    rows.RandomAnswering[i] = randomIndex is null ? double.NaN : randomIndex.Index.Compute(block.Slice(r * p, p), local.Index!);
                     ScreenOne(i, rows, block.Slice(r * p, p), rawBlock.Slice(r * p, p), d2[i], robustD2[i], answered[i], cutoffByDf, robustCutoffByDf,
-                        lawRows, calibration, evenOdd, runLimit, alternatingLimit, useRobust, options, mean, synonyms);
+                        lawRows, calibration, evenOdd, runLimit, alternatingLimit, useRobust, options, mean, synonyms, randomFlags ? randomCutoff : double.NaN);
                 }
                 return local;
             }, _ => { });
@@ -156,14 +161,14 @@ public static class RespondentScreening
         if (randomRecall is not null) rule += " " + randomRecall;
         var halfPeak = CentreShareByItems.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample,
-            runLimit, alternatingLimit);
+            runLimit, alternatingLimit, randomCutoff, randomFlags);
     }
 
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ScreenOne(int i, ScreeningRowStore rows, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
         double d2, double robustD2, int answered, double[] cutoffByDf, double[] robustCutoffByDf, int lawRows, double calibration, EvenOddConsistency evenOdd, int runLimit, int alternatingLimit,
-        bool useRobust, ScreeningOptions o, double[] itemMeans, PsychometricSynonyms synonyms)
+        bool useRobust, ScreeningOptions o, double[] itemMeans, PsychometricSynonyms synonyms, double randomCutoff)
     {
         int p = x.Length;
         double cutoff = cutoffByDf[answered];
@@ -184,6 +189,7 @@ public static class RespondentScreening
         if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons |= HalvesBit;
         if (missing > o.MissingShareLimit) reasons |= UnansweredBit;
         if (alternating >= alternatingLimit) reasons |= AlternatingBit;
+        if (rows.RandomAnswering[i] > randomCutoff) reasons |= RandomLikeBit;
         rows.AlternatingRun[i] = alternating;
         rows.PersonTotal[i] = PersonTotalCorrelation.Compute(x, itemMeans);
         rows.Synonyms[i] = syn;
@@ -231,6 +237,7 @@ public static class RespondentScreening
     private const string MeasuredClassical = "In our validation study the classical distance with its chi-square cutoff flagged up to 6.3 % of attentive respondents per design on skewed items (median over all designs 0.8 %; nominal 0.1 %); the robust rule is the default.";
 
     private static readonly int AlternatingBit = ScreeningRowStore.Bit(ScreeningReasons.AlternatingAnswers);
+    private static readonly int RandomLikeBit = ScreeningRowStore.Bit(ScreeningReasons.RandomLikeAnswers);
 
     /// <summary>Inter-item correlations of the answers as given: those of the analysed covariance, with the sign
     /// flipped for pairs in which exactly one item was reverse-scored.</summary>
@@ -253,7 +260,8 @@ public static class RespondentScreening
     /// subsample (every (n / cap)-th respondent: no random choice, so the result does not depend on the seed).
     /// The distance object is null when robust distances are unavailable.
     /// </summary>
-    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate, RunLimitCalibration.Limits? RunLimits) RobustFit(
+    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate, RunLimitCalibration.Limits? RunLimits,
+        RandomAnsweringIndex.Fitted? RandomIndex) RobustFit(
         ResponseMatrix data, ScreeningOptions o, WarningList warnings, Action<string>? progress, bool runsOnAnswersAsGiven, int runFloor)
     {
         int n = data.RespondentCount, p = data.ItemCount;
@@ -274,7 +282,7 @@ public static class RespondentScreening
         }
         int minimum = 2 * (p + 1);
         if (answering.Count < minimum)
-            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null, null);
+            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null, null, null);
 
         var rowsUsed = answering;
         bool subsampled = false;
@@ -299,18 +307,19 @@ public static class RespondentScreening
         }
         catch (InvalidOperationException e)
         {
-            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null, null);
+            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null, null, null);
         }
         if (!fit.Converged) warnings.Add("er-not-converged", "The robust EM (ER) estimate reached its iteration cap before settling; robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         var inEstimate = new bool[n];
         for (int r = 0; r < m; r++) inEstimate[rowsUsed[r]] = fit.KeptRows[r];
         if (!dist.FullFactorAvailable)
-            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null, null);
+            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null, null, null);
         // Cutoff factor for ordinal answers, from the polychoric correlations of (at most CalibrationRows of) the
         // respondents kept by the fit.
         double calibration = 1;
         RunLimitCalibration.Limits? runLimits = null;
+        RandomAnsweringIndex.Fitted? randomIndex = null;
         string calibrationNote = " No ordinal calibration (some item has more than " + DiscretenessCalibration.MaxCategories + " distinct answers).";
         if (DiscretenessCalibration.Applies(scores))
         {
@@ -329,7 +338,13 @@ public static class RespondentScreening
                     var item = data.Items[j];
                     asGiven[j] = scores.Categories(j).Values.Select(v => runsOnAnswersAsGiven && item.Reverse ? item.Min + item.Max - v : v).ToArray();
                 }
+                // The random-answering index is calibrated on the same simulated respondents, given the survey's missing-answer patterns.
                 runLimits = RunLimitCalibration.Choose(latent, scores, asGiven, o.CutoffP, runFloor, runFloor);
+                if (p <= RandomAnsweringIndex.MaxItems)
+                {
+                    progress?.Invoke("screening: random-answering index");
+                    randomIndex = RandomAnsweringIndex.Fit(data, answering, Enumerable.Range(0, p).Select(j => ScaleCategories(data.Items[j])).ToArray(), o.CutoffP);
+                }
                 calibrationNote = string.Create(CultureInfo.InvariantCulture, $" Cutoffs multiplied by {calibration:0.###}, the ordinal-answer calibration factor.");
             }
             else
@@ -348,8 +363,14 @@ public static class RespondentScreening
             : $"Robust EM (ER) estimate on the items' normal scores, fitted to all {m} respondents who answered any item; {fit.Kept} kept in the final step.";
         note += calibrationNote;
         return (new RobustEstimatorDetails(true, complete, subsampled, m, fit.Kept, calibration, fit.TruncationFactor,
-            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate, runLimits);
+            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate, runLimits, randomIndex);
     }
+
+    /// <summary>Answer categories of an item's scale (Max − Min + 1) when its ends are whole numbers, otherwise 0 (the
+    /// categories observed are used).</summary>
+    private static int ScaleCategories(ItemDefinition item) =>
+        item.Min == Math.Floor(item.Min) && item.Max == Math.Floor(item.Max) && item.Max - item.Min < 1000 ? (int)(item.Max - item.Min) + 1 : 0;
+
 
     /// <summary>How the two run limits were chosen, and which run rule is off.</summary>
     private static string RunLimitText(RunLimitCalibration.Limits? limits, int runLimit, int alternatingLimit, int p, double cutoffP)
