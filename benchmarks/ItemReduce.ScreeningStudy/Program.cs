@@ -31,8 +31,9 @@ switch (mode)
             int.Parse(args[5], inv), double.Parse(args[6], inv), int.Parse(args[7], inv)));
         break;
     case "index-careless":
+    case "index-careless-12":
         // Slice for the random-answering index: careless respondents at 5 % and 10 % with 20 respondents per item.
-        foreach (int p in new[] { 48, 24, 36 })
+        foreach (int p in mode == "index-careless" ? new[] { 48, 24, 36 } : new[] { 12 })
             foreach (bool skew in new[] { true, false })
                 foreach (double share in new[] { 0.05, 0.10 })
                 {

@@ -157,7 +157,10 @@ public static class RespondentScreening
         string? randomRecall = RandomResponderRecall.Statement(p, options.CutoffP);
         if (randomRecall is not null && !useRobust) randomRecall += " These figures are for the default robust distance; this run used the classical one.";
         if (randomRecall is not null) warnings.Add("random-answering-partly-detectable", randomRecall);
-        string rule = Describe(options, useRobust, runLimit, alternatingLimit, runLimits, robust.RowsUsed, p, evenOdd, calibration);
+        if (randomIndex is null && robust.Available && DiscretenessCalibration.Applies(scores) && p > RandomAnsweringIndex.MaxItems)
+            warnings.Add("random-index-not-computed", string.Create(CultureInfo.InvariantCulture,
+                $"The random-answering index was not computed: it is limited to {RandomAnsweringIndex.MaxItems} items (its cost grows with the cube of the items answered); this survey has {p}."));
+        string rule = Describe(options, useRobust, runLimit, alternatingLimit, runLimits, robust.RowsUsed, p, evenOdd, calibration, randomIndex, randomFlags);
         if (randomRecall is not null) rule += " " + randomRecall;
         var halfPeak = CentreShareByItems.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample,
@@ -230,6 +233,12 @@ public static class RespondentScreening
                 : MeasuredLarge
             : MeasuredClassical;
     }
+
+    /// <summary>What the validation study measured for the random-answering rule (default cutoff only).</summary>
+    private static string MeasuredRandomIndex(ScreeningOptions o) => o.CutoffP != 0.001 ? "" : MeasuredRandom;
+
+    // Filled in from benchmarks/results/screening-study-index-*-2026-12-02.md (default options).
+    private const string MeasuredRandom = "TODO";
 
     // Filled in from benchmarks/results/screening-study-2026-12-02.md (default options).
     private const string MeasuredLarge = "In our validation study (ordinal 4- to 7-point items from a factor model, symmetric or skewed, 0–10 % of answers missing, 20 to 100 respondents per item) the distance flagged between 0.02 % and 0.28 % of attentive respondents per design (median 0.12 %; nominal 0.1 %), and all rules together between 0 % and 0.29 % (median 0.12 %).";
@@ -394,6 +403,7 @@ public static class RespondentScreening
 
     private static string Meaning(string code) => code switch
     {
+        ScreeningReasons.RandomLikeAnswers => "answers more likely under uniform random answering than attentive respondents of the fitted model allow",
         ScreeningReasons.RobustDistance => "robust distance beyond the chi-square cutoff for the items answered",
         ScreeningReasons.ClassicalDistance => "classical distance beyond the chi-square cutoff for the items answered",
         ScreeningReasons.RepeatedAnswerRun => "long run of the same answer on consecutive items",
@@ -405,7 +415,7 @@ public static class RespondentScreening
     };
 
     private static string Describe(ScreeningOptions o, bool robust, int runLimit, int alternatingLimit, RunLimitCalibration.Limits? runLimits, int n, int p,
-        EvenOddConsistency evenOdd, double calibration)
+        EvenOddConsistency evenOdd, double calibration, RandomAnsweringIndex.Fitted? randomIndex, bool randomFlags)
     {
         var c = CultureInfo.InvariantCulture;
         int rule = 0;
@@ -437,6 +447,19 @@ public static class RespondentScreening
         parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit, Next()));
         if (alternatingLimit <= p)
             parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; a single skipped item does not end the row).", alternatingLimit, Next()));
+        if (randomIndex is not null)
+        {
+            string index = string.Format(c, "the random-answering index (the log likelihood ratio of uniform random answering over each item's answer categories against this survey's fitted model: " +
+                "each item's answers taken as a latent normal variable cut at the normal quantiles of its answer shares, the latent variables correlated by their polychoric correlations, " +
+                "and the probability of a respondent's answers approximated by the Mendell–Elston method; unanswered items are left out of both likelihoods; the model is fitted {0} times, " +
+                "each time without the respondents beyond the previous cutoff) exceeds {1:0.##}, the value exceeded by {2} of {3:N0} attentive respondents simulated from the fitted model " +
+                "with this survey's missing-answer patterns (the cutoff aims at half the distance rule's probability, {4}).",
+                RandomAnsweringIndex.Rounds, randomIndex.Cutoff, randomIndex.SimulatedRate.ToString("0.###%", c), randomIndex.Draws, RandomAnsweringIndex.ShareOfCutoff * o.CutoffP);
+            parts.Add(randomFlags
+                ? string.Format(c, "{0} The answers look like uniform random answering: {1}", Next(), index) + " " + MeasuredRandomIndex(o)
+                : string.Format(c, "The random-answering index is reported but raises no flag with fewer than {0} respondents per item (the fitted model is then too uncertain); " +
+                    "it would flag a respondent when {1}", SmallSampleRatio, index));
+        }
         parts.Add(RunLimitText(runLimits, runLimit, alternatingLimit, p, o.CutoffP));
         parts.Add(MeasuredRate(o, robust, n, p));
         parts.Add("Even with no careless respondents, about " + (100 * o.CutoffP).ToString("0.###", c) + " % of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +
