@@ -238,7 +238,7 @@ public static class RespondentScreening
     private static string MeasuredRandomIndex(ScreeningOptions o) => o.CutoffP != 0.001 ? "" : MeasuredRandom;
 
     // Filled in from benchmarks/results/screening-study-index-*-2026-12-02.md (default options).
-    private const string MeasuredRandom = "In our validation slices (24 and 36 five-point items, symmetric or skewed, 0 or 10 % of answers missing, 20 respondents per item, attentive respondents only) this rule flagged between 0 % and 0.07 % of attentive respondents per design (target 0.05 %) and all rules together between 0 % and 0.19 % (nominal limit 0.2 %); with 5 respondents per item it would have flagged 0.07–0.12 %, which is why it raises no flag there.";
+    private const string MeasuredRandom = "In our validation slices (24 and 36 five-point items, symmetric or skewed, 0 or 10 % of answers missing, and 48 skewed items with 5 % missing; 20 respondents per item, attentive respondents only) this rule flagged between 0 % and 0.07 % of attentive respondents per design (target 0.05 %) and all rules together between 0 % and 0.19 % (nominal limit 0.2 %); with 5 respondents per item it would have flagged 0.02–0.12 %, which is why it raises no flag there.";
 
     // Filled in from benchmarks/results/screening-study-2026-12-02.md (default options).
     private const string MeasuredLarge = "In our validation study (ordinal 4- to 7-point items from a factor model, symmetric or skewed, 0–10 % of answers missing, 20 to 100 respondents per item) the distance flagged between 0.02 % and 0.28 % of attentive respondents per design (median 0.12 %; nominal 0.1 %), and all rules together between 0 % and 0.29 % (median 0.12 %).";
