@@ -30,6 +30,30 @@ switch (mode)
         conditions.Add(new(int.Parse(args[1], inv), int.Parse(args[2], inv), args[3] == "skew", double.Parse(args[4], inv),
             int.Parse(args[5], inv), double.Parse(args[6], inv), int.Parse(args[7], inv)));
         break;
+    case "index-careless":
+    case "index-careless-12":
+        // Slice for the random-answering index: careless respondents at 5 % and 10 % with 20 respondents per item.
+        foreach (int p in mode == "index-careless" ? new[] { 48, 24, 36 } : new[] { 12 })
+            foreach (bool skew in new[] { true, false })
+                foreach (double share in new[] { 0.05, 0.10 })
+                {
+                    int n = 20 * p;
+                    conditions.Add(new(p, 5, skew, 0.05, n, share, Math.Max(2, (int)Math.Ceiling(200 / (share * n)))));
+                }
+        break;
+    case "index-attentive":
+        // Slice for the random-answering index: attentive respondents only (20 and 5 respondents per item, 0 and 10 % missing).
+        foreach (int ratio in new[] { 20, 5 })
+            foreach (int p in new[] { 24, 36 })
+                foreach (bool skew in new[] { true, false })
+                    foreach (double miss in new[] { 0.10, 0.0 })
+                    {
+                        if (ratio == 5 && miss == 0.0) continue;
+                        int n = ratio * p;
+                        conditions.Add(new(p, 5, skew, miss, n, 0.0, Reps(n)));
+                    }
+        conditions.Add(new(48, 5, true, 0.05, 960, 0.0, Reps(960)));
+        break;
     case "quick":
         conditions.Add(new(24, 5, false, 0.0, 200, 0.0, 20));
         conditions.Add(new(30, 7, false, 0.05, 600, 0.03, 6));
@@ -71,7 +95,7 @@ switch (mode)
 }
 
 var options = new ScreeningOptions();
-var reasons = ScreeningReasons.All.Append(ScreeningStudy.ClassicalChiSquare).ToList();
+var reasons = ScreeningReasons.All.Append(ScreeningStudy.ClassicalChiSquare).Append(ScreeningStudy.RandomIndexUnflagged).ToList();
 var watch = Stopwatch.StartNew();
 var outcomes = new List<ScreeningStudy.Outcome>();
 var oracles = new Dictionary<(int, int, bool, double), ScreeningOracle.Result>();
@@ -88,7 +112,8 @@ for (int i = 0; i < conditions.Count; i++)
     }
     outcomes.Add(o);
     string recall = string.Join(" ", ScreeningStudy.Kinds.Select(k => string.Create(inv, $"{ScreeningStudy.KindName(k)} {100 * o.Recall(k):0.#}")));
-    string byReason = string.Join(" ", reasons.Select(r => string.Create(inv, $"{r}={100 * o.FalseFlagRate(r):0.000}")));
+    string byReason = string.Join(" ", reasons.Select(r => string.Create(inv, $"{r}={100 * o.FalseFlagRate(r):0.000}")))
+        + string.Create(inv, $" | random recall by random-like-answers {100 * o.Recall(CarelessKind.UniformRandom, ScreeningReasons.RandomLikeAnswers):0.0}, by distance {100 * o.Recall(CarelessKind.UniformRandom, ScreeningReasons.RobustDistance):0.0}");
     if (args.Length > 1 && mode != "case") File.WriteAllText(args[1], Header(outcomes.Count) + ScreeningStudy.Table(outcomes, reasons) + OracleSection());
     Console.Error.WriteLine(string.Create(inv, $"[{watch.Elapsed.TotalSeconds,6:0}s] {c.Label}: false {100 * o.FalseFlagRate():0.000}% ({byReason}) {recall} rule ") +
         string.Join("/", o.DistanceRule.Select(kv => $"{kv.Key}:{kv.Value}")));

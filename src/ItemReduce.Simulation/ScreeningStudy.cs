@@ -69,6 +69,10 @@ public static class ScreeningStudy
     /// use).</summary>
     public const string ClassicalChiSquare = "(classical d2 > chi2)";
 
+    /// <summary>Pseudo reason counted for comparison only: the random-answering index beyond its cutoff where it raises no
+    /// flag (fewer than 10 respondents per item).</summary>
+    public const string RandomIndexUnflagged = "(random-answer index > cutoff, no flag)";
+
     /// <summary>The careless kinds planted, in order.</summary>
     public static IReadOnlyList<CarelessKind> Kinds { get; } =
         [CarelessKind.UniformRandom, CarelessKind.StraightLine, CarelessKind.WideAlternation, CarelessKind.NarrowAlternation, CarelessKind.MostlyUnanswered];
@@ -142,6 +146,7 @@ public static class ScreeningStudy
             {
                 var row = result.Respondents[i];
                 IEnumerable<string> reasons = row.PValue < options.CutoffP ? row.Reasons.Append(ClassicalChiSquare) : row.Reasons;
+                if (!result.RandomAnsweringFlags && row.RandomAnswering > result.RandomAnsweringCutoff) reasons = reasons.Append(RandomIndexUnflagged);
                 if (truth[i] == CarelessKind.None)
                 {
                     outcome.Attentive++;

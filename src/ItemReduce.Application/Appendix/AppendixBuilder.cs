@@ -198,6 +198,12 @@ internal static partial class AppendixBuilder
             refs.Add(MethodReferences.Wilks1963);
             if (s.Robust.Available && s.Robust.ConsistencyFactor != 1) refs.Add(MethodReferences.Olsson1979);
         }
+        if (double.IsFinite(s.RandomAnsweringCutoff))
+        {
+            refs.Add(MethodReferences.Olsson1979);
+            refs.Add(MethodReferences.MendellElston1974);
+            refs.Add(MethodReferences.TrinhGenz2015);
+        }
         refs.Add(MethodReferences.Curran2016);
         refs.Add(MethodReferences.Johnson2005);
         refs.Add(MethodReferences.Dunn2018);

@@ -57,6 +57,8 @@ internal static class MethodReferences
     public const string LittleSmith1987 = "Little, R. J. A., & Smith, P. J. (1987). Editing and imputation for quantitative survey data. Journal of the American Statistical Association, 82(397), 58–68.";
     public const string DempsterLairdRubin1977 = "Dempster, A. P., Laird, N. M., & Rubin, D. B. (1977). Maximum likelihood from incomplete data via the EM algorithm. Journal of the Royal Statistical Society B, 39(1), 1–38.";
     public const string Beasley2009 = "Beasley, T. M., Erickson, S., & Allison, D. B. (2009). Rank-based inverse normal transformations are increasingly used, but are they merited? Behavior Genetics, 39(5), 580–595.";
+    public const string MendellElston1974 = "Mendell, N. R., & Elston, R. C. (1974). Multifactorial qualitative traits: Genetic analysis and prediction of recurrence risks. Biometrics, 30(1), 41–57.";
+    public const string TrinhGenz2015 = "Trinh, G., & Genz, A. (2015). Bivariate conditioning approximations for multivariate normal probabilities. Statistics and Computing, 25(5), 989–996.";
     public const string Wilks1963 = "Wilks, S. S. (1963). Multivariate statistical outliers. Sankhyā A, 25(4), 407–426.";
     public const string Curran2016 = "Curran, P. G. (2016). Methods for the detection of carelessly invalid responses in survey data. Journal of Experimental Social Psychology, 66, 4–19.";
     public const string Velicer1976 = "Velicer, W. F. (1976). Determining the number of components from the matrix of partial correlations. Psychometrika, 41(3), 321–327.";

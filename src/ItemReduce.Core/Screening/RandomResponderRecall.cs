@@ -3,9 +3,10 @@ using System.Globalization;
 namespace ItemReduce.Core.Screening;
 
 /// <summary>
-/// How many uniform-random responders the screening caught in our validation study
-/// (benchmarks/results/screening-study-2026-12-02.md, section "Random responders: the screening against the best
-/// possible test"), by number of items, next to the most powerful test possible (the likelihood ratio with the true
+/// How many uniform-random responders the screening (all rules, with the random-answering index) caught in the study
+/// slices run for the index (benchmarks/results/screening-study-index-careless-2026-12-02.md and
+/// screening-study-index-careless12-2026-12-02.md, section "Random responders: the screening against the best
+/// possible test"; about 200 planted careless respondents per cell, so a recall has a standard error of 4–7 points), by number of items, next to the most powerful test possible (the likelihood ratio with the true
 /// model, Neyman–Pearson). Design of those cells: five-point items from a factor model (subscales of six, loadings
 /// .5–.8, factor correlations .3), 5 % of answers missing at random, 20 respondents per item, 5 % or 10 % careless
 /// respondents, cutoff p = 0.001. Used for the on-screen warning and the rule text: random answering is only partly
@@ -21,10 +22,10 @@ internal static class RandomResponderRecall
     /// <summary>Studied bands, ascending in items.</summary>
     internal static IReadOnlyList<Band> Bands { get; } =
     [
-        new(12, 23.5, 31.8, 8.8, 14.1, 34.6, 21.2),
-        new(24, 65.6, 68.2, 30.6, 41.1, 70.4, 52.9),
-        new(36, 82.2, 87.5, 47.8, 49.0, 88.4, 75.8),
-        new(48, 95.0, 95.6, 67.0, 73.3, 96.4, 90.3),
+        new(12, 31.4, 35.6, 13.3, 13.7, 36.3, 20.7),
+        new(24, 53.3, 64.0, 40.0, 46.0, 70.3, 52.9),
+        new(36, 83.3, 88.9, 53.3, 56.3, 88.7, 75.8),
+        new(48, 91.7, 92.0, 70.0, 80.0, 96.3, 87.7),
     ];
 
     /// <summary>Recall target of the careless-response screening (%), from the requirements of the tool.</summary>

@@ -66,7 +66,11 @@ public static class RespondentScreening
         var classical = new MahalanobisDistance(mean, cov);
         var synonyms = new PsychometricSynonyms(AsAnsweredCorrelation(cov, data), p);
 
-        var (robust, robustDistance, scores, inEstimate, runLimits) = robustFit.GetAwaiter().GetResult();
+        var (robust, robustDistance, scores, inEstimate, runLimits, randomIndex) = robustFit.GetAwaiter().GetResult();
+        double randomCutoff = randomIndex?.Cutoff ?? double.NaN;
+        // The index raises a flag only with at least SmallSampleRatio respondents per item (below that the polychoric
+        // correlations are too noisy for the fitted model to stand in for attentive answering; the index is still reported).
+        bool randomFlags = randomIndex is not null && robust.RowsUsed >= SmallSampleRatio * p;
         warnings.AddRange(robustWarnings);
 
         // 3. Cutoffs, df = items answered.
@@ -108,7 +112,7 @@ public static class RespondentScreening
         const int blockRows = MahalanobisDistance.BlockRows;
         Parallel.For(0, (n + blockRows - 1) / blockRows,
             () => (Scratch: new MahalanobisDistance.Scratch(p), Rows: new double[blockRows * p], Raw: new double[blockRows * p], Answered: new int[blockRows],
-                Scores: new double[blockRows * p]),
+                Scores: new double[blockRows * p], Index: randomIndex is null ? null : new RandomAnsweringIndex.Scratch(p)),
             [MethodImpl(MethodImplOptions.AggressiveOptimization)] (b, _, local) =>
             {
                 int first = b * blockRows, count = Math.Min(blockRows, n - first);
@@ -126,8 +130,9 @@ public static class RespondentScreening
                 for (int r = 0; r < count; r++)
                 {
                     int i = first + r;
+                    rows.RandomAnswering[i] = randomIndex is null ? double.NaN : randomIndex.Index.Compute(block.Slice(r * p, p), local.Index!);
                     ScreenOne(i, rows, block.Slice(r * p, p), rawBlock.Slice(r * p, p), d2[i], robustD2[i], answered[i], cutoffByDf, robustCutoffByDf,
-                        lawRows, calibration, evenOdd, runLimit, alternatingLimit, useRobust, options, mean, synonyms);
+                        lawRows, calibration, evenOdd, runLimit, alternatingLimit, useRobust, options, mean, synonyms, randomFlags ? randomCutoff : double.NaN);
                 }
                 return local;
             }, _ => { });
@@ -149,18 +154,21 @@ public static class RespondentScreening
         string? randomRecall = RandomResponderRecall.Statement(p, options.CutoffP);
         if (randomRecall is not null && !useRobust) randomRecall += " These figures are for the default robust distance; this run used the classical one.";
         if (randomRecall is not null) warnings.Add("random-answering-partly-detectable", randomRecall);
-        string rule = Describe(options, useRobust, runLimit, alternatingLimit, runLimits, robust.RowsUsed, p, evenOdd, calibration);
+        if (randomIndex is null && robust.Available && DiscretenessCalibration.Applies(scores) && p > RandomAnsweringIndex.MaxItems)
+            warnings.Add("random-index-not-computed", string.Create(CultureInfo.InvariantCulture,
+                $"The random-answering index was not computed: it is limited to {RandomAnsweringIndex.MaxItems} items (its cost grows with the cube of the items answered); this survey has {p}."));
+        string rule = Describe(options, useRobust, runLimit, alternatingLimit, runLimits, robust.RowsUsed, p, evenOdd, calibration, randomIndex, randomFlags);
         if (randomRecall is not null) rule += " " + randomRecall;
         var halfPeak = CentreShareByItems.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample,
-            runLimit, alternatingLimit);
+            runLimit, alternatingLimit, randomCutoff, randomFlags);
     }
 
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void ScreenOne(int i, ScreeningRowStore rows, ReadOnlySpan<double> x, ReadOnlySpan<double> rawRow,
         double d2, double robustD2, int answered, double[] cutoffByDf, double[] robustCutoffByDf, int lawRows, double calibration, EvenOddConsistency evenOdd, int runLimit, int alternatingLimit,
-        bool useRobust, ScreeningOptions o, double[] itemMeans, PsychometricSynonyms synonyms)
+        bool useRobust, ScreeningOptions o, double[] itemMeans, PsychometricSynonyms synonyms, double randomCutoff)
     {
         int p = x.Length;
         double cutoff = cutoffByDf[answered];
@@ -181,6 +189,7 @@ public static class RespondentScreening
         if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons |= HalvesBit;
         if (missing > o.MissingShareLimit) reasons |= UnansweredBit;
         if (alternating >= alternatingLimit) reasons |= AlternatingBit;
+        if (rows.RandomAnswering[i] > randomCutoff) reasons |= RandomLikeBit;
         rows.AlternatingRun[i] = alternating;
         rows.PersonTotal[i] = PersonTotalCorrelation.Compute(x, itemMeans);
         rows.Synonyms[i] = syn;
@@ -222,12 +231,19 @@ public static class RespondentScreening
             : MeasuredClassical;
     }
 
+    /// <summary>What the validation study measured for the random-answering rule (default cutoff only).</summary>
+    private static string MeasuredRandomIndex(ScreeningOptions o) => o.CutoffP != 0.001 ? "" : MeasuredRandom;
+
+    // Filled in from benchmarks/results/screening-study-index-*-2026-12-02.md (default options).
+    private const string MeasuredRandom = "In our validation slices (24 and 36 five-point items, symmetric or skewed, 0 or 10 % of answers missing, and 48 skewed items with 5 % missing; 20 respondents per item, attentive respondents only) this rule flagged between 0 % and 0.07 % of attentive respondents per design (target 0.05 %) and all rules together between 0 % and 0.19 % (nominal limit 0.2 %); with 5 respondents per item it would have flagged 0.02–0.12 %, which is why it raises no flag there.";
+
     // Filled in from benchmarks/results/screening-study-2026-12-02.md (default options).
     private const string MeasuredLarge = "In our validation study (ordinal 4- to 7-point items from a factor model, symmetric or skewed, 0–10 % of answers missing, 20 to 100 respondents per item) the distance flagged between 0.02 % and 0.28 % of attentive respondents per design (median 0.12 %; nominal 0.1 %), and all rules together between 0 % and 0.29 % (median 0.12 %).";
     private const string MeasuredSmall = "In our validation study with 5 respondents per item (same kinds of items) the distance flagged between 0.04 % and 0.33 % of attentive respondents per design (median 0.12 %; nominal 0.1 %), and all rules together between 0.04 % and 0.33 % (median 0.13 %).";
     private const string MeasuredClassical = "In our validation study the classical distance with its chi-square cutoff flagged up to 6.3 % of attentive respondents per design on skewed items (median over all designs 0.8 %; nominal 0.1 %); the robust rule is the default.";
 
     private static readonly int AlternatingBit = ScreeningRowStore.Bit(ScreeningReasons.AlternatingAnswers);
+    private static readonly int RandomLikeBit = ScreeningRowStore.Bit(ScreeningReasons.RandomLikeAnswers);
 
     /// <summary>Inter-item correlations of the answers as given: those of the analysed covariance, with the sign
     /// flipped for pairs in which exactly one item was reverse-scored.</summary>
@@ -250,7 +266,8 @@ public static class RespondentScreening
     /// subsample (every (n / cap)-th respondent: no random choice, so the result does not depend on the seed).
     /// The distance object is null when robust distances are unavailable.
     /// </summary>
-    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate, RunLimitCalibration.Limits? RunLimits) RobustFit(
+    private static (RobustEstimatorDetails Details, MahalanobisDistance? Distance, NormalScores Scores, bool[]? InEstimate, RunLimitCalibration.Limits? RunLimits,
+        RandomAnsweringIndex.Fitted? RandomIndex) RobustFit(
         ResponseMatrix data, ScreeningOptions o, WarningList warnings, Action<string>? progress, bool runsOnAnswersAsGiven, int runFloor)
     {
         int n = data.RespondentCount, p = data.ItemCount;
@@ -271,7 +288,7 @@ public static class RespondentScreening
         }
         int minimum = 2 * (p + 1);
         if (answering.Count < minimum)
-            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null, null);
+            return (Unavailable($"Robust distances need at least {minimum} respondents (2 × (items + 1)); only {answering.Count} answered any item."), null, scores, null, null, null);
 
         var rowsUsed = answering;
         bool subsampled = false;
@@ -296,18 +313,19 @@ public static class RespondentScreening
         }
         catch (InvalidOperationException e)
         {
-            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null, null);
+            return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null, null, null);
         }
         if (!fit.Converged) warnings.Add("er-not-converged", "The robust EM (ER) estimate reached its iteration cap before settling; robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         var inEstimate = new bool[n];
         for (int r = 0; r < m; r++) inEstimate[rowsUsed[r]] = fit.KeptRows[r];
         if (!dist.FullFactorAvailable)
-            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null, null);
+            return (Unavailable("The robust scatter matrix is singular; robust distances are not available.", m, subsampled), null, scores, null, null, null);
         // Cutoff factor for ordinal answers, from the polychoric correlations of (at most CalibrationRows of) the
         // respondents kept by the fit.
         double calibration = 1;
         RunLimitCalibration.Limits? runLimits = null;
+        RandomAnsweringIndex.Fitted? randomIndex = null;
         string calibrationNote = " No ordinal calibration (some item has more than " + DiscretenessCalibration.MaxCategories + " distinct answers).";
         if (DiscretenessCalibration.Applies(scores))
         {
@@ -326,7 +344,13 @@ public static class RespondentScreening
                     var item = data.Items[j];
                     asGiven[j] = scores.Categories(j).Values.Select(v => runsOnAnswersAsGiven && item.Reverse ? item.Min + item.Max - v : v).ToArray();
                 }
+                // The random-answering index is calibrated on the same simulated respondents, given the survey's missing-answer patterns.
                 runLimits = RunLimitCalibration.Choose(latent, scores, asGiven, o.CutoffP, runFloor, runFloor);
+                if (p <= RandomAnsweringIndex.MaxItems)
+                {
+                    progress?.Invoke("screening: random-answering index");
+                    randomIndex = RandomAnsweringIndex.Fit(data, answering, Enumerable.Range(0, p).Select(j => ScaleCategories(data.Items[j])).ToArray(), o.CutoffP);
+                }
                 calibrationNote = string.Create(CultureInfo.InvariantCulture, $" Cutoffs multiplied by {calibration:0.###}, the ordinal-answer calibration factor.");
             }
             else
@@ -345,8 +369,14 @@ public static class RespondentScreening
             : $"Robust EM (ER) estimate on the items' normal scores, fitted to all {m} respondents who answered any item; {fit.Kept} kept in the final step.";
         note += calibrationNote;
         return (new RobustEstimatorDetails(true, complete, subsampled, m, fit.Kept, calibration, fit.TruncationFactor,
-            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate, runLimits);
+            fit.Kept, false, 1, m, 0, fit.Converged, fit.Location, fit.Scatter, note, "er", fit.StagedCollapsed, fit.StartIterations + fit.Iterations), dist, scores, inEstimate, runLimits, randomIndex);
     }
+
+    /// <summary>Answer categories of an item's scale (Max − Min + 1) when its ends are whole numbers, otherwise 0 (the
+    /// categories observed are used).</summary>
+    private static int ScaleCategories(ItemDefinition item) =>
+        item.Min == Math.Floor(item.Min) && item.Max == Math.Floor(item.Max) && item.Max - item.Min < 1000 ? (int)(item.Max - item.Min) + 1 : 0;
+
 
     /// <summary>How the two run limits were chosen, and which run rule is off.</summary>
     private static string RunLimitText(RunLimitCalibration.Limits? limits, int runLimit, int alternatingLimit, int p, double cutoffP)
@@ -370,6 +400,7 @@ public static class RespondentScreening
 
     private static string Meaning(string code) => code switch
     {
+        ScreeningReasons.RandomLikeAnswers => "answers more likely under uniform random answering than attentive respondents of the fitted model allow",
         ScreeningReasons.RobustDistance => "robust distance beyond the chi-square cutoff for the items answered",
         ScreeningReasons.ClassicalDistance => "classical distance beyond the chi-square cutoff for the items answered",
         ScreeningReasons.RepeatedAnswerRun => "long run of the same answer on consecutive items",
@@ -381,7 +412,7 @@ public static class RespondentScreening
     };
 
     private static string Describe(ScreeningOptions o, bool robust, int runLimit, int alternatingLimit, RunLimitCalibration.Limits? runLimits, int n, int p,
-        EvenOddConsistency evenOdd, double calibration)
+        EvenOddConsistency evenOdd, double calibration, RandomAnsweringIndex.Fitted? randomIndex, bool randomFlags)
     {
         var c = CultureInfo.InvariantCulture;
         int rule = 0;
@@ -413,6 +444,19 @@ public static class RespondentScreening
         parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit, Next()));
         if (alternatingLimit <= p)
             parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; a single skipped item does not end the row).", alternatingLimit, Next()));
+        if (randomIndex is not null)
+        {
+            string index = string.Format(c, "the random-answering index (the log likelihood ratio of uniform random answering over each item's answer categories against this survey's fitted model: " +
+                "each item's answers taken as a latent normal variable cut at the normal quantiles of its answer shares, the latent variables correlated by their polychoric correlations, " +
+                "and the probability of a respondent's answers approximated by the Mendell–Elston method; unanswered items are left out of both likelihoods; the model is fitted {0} times, " +
+                "each time without the respondents beyond the previous cutoff) exceeds {1:0.##}, the value exceeded by {2} of {3:N0} attentive respondents simulated from the fitted model " +
+                "with this survey's missing-answer patterns (the cutoff aims at half the distance rule's probability, {4}).",
+                RandomAnsweringIndex.Rounds, randomIndex.Cutoff, randomIndex.SimulatedRate.ToString("0.###%", c), randomIndex.Draws, RandomAnsweringIndex.ShareOfCutoff * o.CutoffP);
+            parts.Add(randomFlags
+                ? string.Format(c, "{0} The answers look like uniform random answering: {1}", Next(), index) + " " + MeasuredRandomIndex(o)
+                : string.Format(c, "The random-answering index is reported but raises no flag with fewer than {0} respondents per item (the fitted model is then too uncertain); " +
+                    "it would flag a respondent when {1}", SmallSampleRatio, index));
+        }
         parts.Add(RunLimitText(runLimits, runLimit, alternatingLimit, p, o.CutoffP));
         parts.Add(MeasuredRate(o, robust, n, p));
         parts.Add("Even with no careless respondents, about " + (100 * o.CutoffP).ToString("0.###", c) + " % of attentive respondents exceed the distance cutoff by chance, and unusual but honest answer patterns are possible. " +

@@ -21,7 +21,7 @@ internal static class RunLimitCalibration
     internal const ulong Seed = 0x5255_4E4C_494D;
 
     /// <summary>Share of the distance cutoff α each run rule may add at most (our choice: the two together add at most
-    /// α / 2, so that with the distance rule at α all rules stay within 2 α).</summary>
+    /// α / 2, so that with the distance rule at α and the random-answering rule at α / 2 all rules stay within 2 α).</summary>
     internal const double ShareOfCutoff = 0.25;
 
     /// <summary>Limit that no run reaches: the rule is off.</summary>

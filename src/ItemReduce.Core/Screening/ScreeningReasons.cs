@@ -24,7 +24,11 @@ public static class ScreeningReasons
     /// <summary>Long run of answers alternating between two values (alternating-run index).</summary>
     public const string AlternatingAnswers = "alternating-run";
 
+    /// <summary>Answers more likely under uniform random answering than the fitted model allows an attentive respondent
+    /// (<see cref="RandomAnsweringIndex"/> beyond its simulated cutoff).</summary>
+    public const string RandomLikeAnswers = "random-like-answers";
+
     /// <summary>All codes in reporting order (new codes are appended).</summary>
     public static IReadOnlyList<string> All { get; } =
-        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered, AlternatingAnswers];
+        [RobustDistance, ClassicalDistance, RepeatedAnswerRun, FlatProfile, HalvesDisagree, MostlyUnanswered, AlternatingAnswers, RandomLikeAnswers];
 }

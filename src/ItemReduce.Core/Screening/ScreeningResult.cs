@@ -23,6 +23,8 @@ namespace ItemReduce.Core.Screening;
 /// <param name="PersonTotal">Person–total correlation (<see cref="PersonTotalCorrelation"/>); NaN when not computable.</param>
 /// <param name="Synonyms">Psychometric-synonyms coefficient (<see cref="PsychometricSynonyms"/>); NaN when not computable.</param>
 /// <param name="Antonyms">Psychometric-antonyms coefficient; NaN when not computable.</param>
+/// <param name="RandomAnswering">Log likelihood ratio of uniform random answering against the fitted model
+/// (<see cref="RandomAnsweringIndex"/>); NaN when not computed.</param>
 public sealed record RespondentScreeningRow(
     string RespondentId,
     int ItemsAnswered,
@@ -40,7 +42,8 @@ public sealed record RespondentScreeningRow(
     int AlternatingRun = 0,
     double PersonTotal = double.NaN,
     double Synonyms = double.NaN,
-    double Antonyms = double.NaN);
+    double Antonyms = double.NaN,
+    double RandomAnswering = double.NaN);
 
 /// <summary>How many respondents carry one reason code.</summary>
 public sealed record ScreeningReasonCount(string Code, string Meaning, int Count);
@@ -105,6 +108,11 @@ public sealed record RobustEstimatorDetails(
 /// <param name="RepeatedRunLimit">Run length from which the repeated-answer rule flags (items + 1 = rule off); see
 /// <see cref="RunLimitCalibration"/>.</param>
 /// <param name="AlternatingRunLimit">Run length from which the alternating-run rule flags (items + 1 = rule off).</param>
+/// <param name="RandomAnsweringCutoff">Value of the random-answering index (<see cref="RandomAnsweringIndex"/>) beyond which
+/// a simulated attentive respondent lies with probability α / 2; NaN when the index was not computed.</param>
+/// <param name="RandomAnsweringFlags">True when the index beyond <paramref name="RandomAnsweringCutoff"/> raises the flag
+/// <see cref="ScreeningReasons.RandomLikeAnswers"/> (not with fewer than <see cref="RespondentScreening.SmallSampleRatio"/>
+/// respondents per item).</param>
 public sealed record ScreeningResult(
     IReadOnlyList<RespondentScreeningRow> Respondents,
     IReadOnlyList<ScreeningReasonCount> ReasonCounts,
@@ -118,7 +126,9 @@ public sealed record ScreeningResult(
     ScreeningOptions Options,
     bool SmallSampleFallback = false,
     int RepeatedRunLimit = 0,
-    int AlternatingRunLimit = 0)
+    int AlternatingRunLimit = 0,
+    double RandomAnsweringCutoff = double.NaN,
+    bool RandomAnsweringFlags = false)
 {
     /// <summary>Indices of the respondents who answered at least one item and, unless <paramref name="keepFlagged"/>,
     /// carry no flag: the respondents the later stages analyse.</summary>

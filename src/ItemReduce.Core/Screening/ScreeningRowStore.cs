@@ -43,6 +43,7 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
         PersonTotal = new double[n];
         Synonyms = new double[n];
         Antonyms = new double[n];
+        RandomAnswering = new double[n];
     }
 
     public double[] PValue { get; }
@@ -54,6 +55,7 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
     public double[] PersonTotal { get; }
     public double[] Synonyms { get; }
     public double[] Antonyms { get; }
+    public double[] RandomAnswering { get; }
 
     /// <summary>Bit k set when reason <see cref="ScreeningReasons.All"/>[k] applies.</summary>
     public byte[] ReasonMask { get; }
@@ -76,7 +78,7 @@ internal sealed class ScreeningRowStore : IReadOnlyList<RespondentScreeningRow>
             int mask = ReasonMask[index];
             return new RespondentScreeningRow(_ids[index], a, _d2[index], _robustD2[index], _cutoffByDf[a], PValue[index],
                 RobustPValue[index], LongString[index], Irv[index], EvenOdd[index], (_items - a) / (double)_items,
-                mask != 0, ReasonLists[mask], AlternatingRun[index], PersonTotal[index], Synonyms[index], Antonyms[index]);
+                mask != 0, ReasonLists[mask], AlternatingRun[index], PersonTotal[index], Synonyms[index], Antonyms[index], RandomAnswering[index]);
         }
     }
 

@@ -13,7 +13,7 @@ public static class ScreeningTables
     /// <summary>
     /// <c>respondent-flags.csv</c>: one row per respondent in input order: respondent, items_answered, d2,
     /// robust_d2, cutoff, p_value, long_string, irv, missing_share, flagged, reasons (then robust_p_value, even_odd,
-    /// alternating_run, person_total, synonyms, antonyms, and sample when <paramref name="samples"/> is given).
+    /// alternating_run, person_total, synonyms, antonyms, random_answer_llr, and sample when <paramref name="samples"/> is given).
     /// </summary>
     public static string RespondentFlags(ScreeningResult r, IReadOnlyList<string>? samples = null)
     {
@@ -36,7 +36,7 @@ public static class ScreeningTables
         ArgumentNullException.ThrowIfNull(sink);
         var header = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
             "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms",
-            .. samples is null ? Array.Empty<string>() : ["sample"]]);
+            "random_answer_llr", .. samples is null ? Array.Empty<string>() : ["sample"]]);
         var sampleCells = samples?.Distinct().ToDictionary(x => x, x => Utf8NoBom.GetBytes("," + Text(x)));
         sink.Write(Utf8NoBom.GetBytes(header.ToString()));
         // Rows are formatted straight into reused UTF-8 buffers with the same cell rules as SafeCsvWriter (Text, Integer,
@@ -62,7 +62,8 @@ public static class ScreeningTables
                     line.Text(Text(x.RespondentId)).Sep().Integer(x.ItemsAnswered).Sep().Rounded(x.D2).Sep().Rounded(x.RobustD2).Sep()
                         .Rounded(x.Cutoff).Sep().Number(x.PValue).Sep().Integer(x.LongString).Sep().Rounded(x.Irv).Sep().Rounded(x.MissingShare).Sep()
                         .Bytes(x.Flagged ? True : False).Sep().Bytes(reasons).Sep().Number(x.RobustPValue).Sep().Rounded(x.EvenOdd)
-                        .Sep().Integer(x.AlternatingRun).Sep().Rounded(x.PersonTotal).Sep().Rounded(x.Synonyms).Sep().Rounded(x.Antonyms);
+                        .Sep().Integer(x.AlternatingRun).Sep().Rounded(x.PersonTotal).Sep().Rounded(x.Synonyms).Sep().Rounded(x.Antonyms)
+                        .Sep().Rounded(x.RandomAnswering);
                     if (samples is not null) line.Bytes(sampleCells![samples[i]]);
                     line.Bytes("\n"u8);
                 }

@@ -27,12 +27,12 @@ public class ScaleOutputTests
         var r = Screen();
         // The table as it was produced before streaming: every row appended to one in-memory writer.
         var w = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
-            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms"]);
+            "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms", "random_answer_llr"]);
         foreach (var x in r.Respondents)
             w.AppendRow([Text(x.RespondentId), Integer(x.ItemsAnswered), Number(x.D2, 6), Number(x.RobustD2, 6),
                 Number(x.Cutoff, 6), Number(x.PValue), Integer(x.LongString), Number(x.Irv, 6), Number(x.MissingShare, 6),
                 Bool(x.Flagged), Text(string.Join(';', x.Reasons)), Number(x.RobustPValue), Number(x.EvenOdd, 6),
-                Integer(x.AlternatingRun), Number(x.PersonTotal, 6), Number(x.Synonyms, 6), Number(x.Antonyms, 6)]);
+                Integer(x.AlternatingRun), Number(x.PersonTotal, 6), Number(x.Synonyms, 6), Number(x.Antonyms, 6), Number(x.RandomAnswering, 6)]);
         byte[] expected = new UTF8Encoding(false).GetBytes(w.ToString());
 
         string dir = Path.Combine(Path.GetTempPath(), "ir-stream-" + Guid.NewGuid().ToString("N"));

@@ -7,17 +7,20 @@ namespace ItemReduce.Tests.Core.Screening;
 /// <summary>The random-responder recall the tool quotes against the committed validation-study table.</summary>
 public class RandomResponderRecallTests
 {
-    private const string Study = "benchmarks/results/screening-study-2026-12-02.md";
+    private static readonly string[] Study = ["benchmarks/results/screening-study-index-careless-2026-12-02.md", "benchmarks/results/screening-study-index-careless12-2026-12-02.md"];
 
     [Fact]
     public void Quoted_figures_are_the_ones_in_the_committed_study_table()
     {
         // Source: the section "Random responders: the screening against the best possible test" of the committed
-        // study results; cells with five-point items, 5 % missing and 20 respondents per item.
-        var lines = File.ReadAllLines(Path.Combine(PresentationTests.Root(), Study));
-        int start = Array.FindIndex(lines, l => l.StartsWith("## Random responders", StringComparison.Ordinal));
-        Assert.True(start >= 0, "oracle section missing from " + Study);
-        var cells = lines.Skip(start).Where(l => l.StartsWith("| ", StringComparison.Ordinal) && char.IsDigit(l[2]))
+        // study slices for the random-answering index; cells with five-point items, 5 % missing and 20 respondents per item.
+        var cells = Study.SelectMany(file =>
+        {
+            var lines = File.ReadAllLines(Path.Combine(PresentationTests.Root(), file));
+            int start = Array.FindIndex(lines, l => l.StartsWith("## Random responders", StringComparison.Ordinal));
+            Assert.True(start >= 0, "oracle section missing from " + file);
+            return lines.Skip(start);
+        }).Where(l => l.StartsWith("| ", StringComparison.Ordinal) && char.IsDigit(l[2]))
             .Select(l => l.Split('|', StringSplitOptions.TrimEntries)).ToList();
         static double Num(string s) => double.Parse(s.Split(' ')[0], CultureInfo.InvariantCulture);
         foreach (var band in RandomResponderRecall.Bands)
