@@ -77,7 +77,8 @@ internal sealed class RandomAnsweringIndex
 
     /// <summary>Fits the index to the <paramref name="answering"/> respondents of <paramref name="data"/> (see the
     /// summary); null when a polychoric correlation matrix cannot be made positive definite.</summary>
-    /// <param name="data">Analysed responses (ordinal, every item with 2 to <see cref="DiscretenessCalibration.MaxCategories"/> answers seen).</param>
+    /// <param name="data">Analysed responses (ordinal, every item with 2 to <see cref="DiscretenessCalibration.MaxCategories"/> answers
+    /// seen).</param>
     /// <param name="answering">Respondents who answered at least one item.</param>
     /// <param name="categories">Scale categories per item (0 = use the categories seen).</param>
     /// <param name="alpha">Distance cutoff α; the index's cutoff is set at <see cref="ShareOfCutoff"/> × α.</param>
@@ -96,7 +97,8 @@ internal sealed class RandomAnsweringIndex
             var smoothed = seen.Select((all, j) => all.Keys.ToDictionary(v => v, v => 2 * counts[j].GetValueOrDefault(v) + 1)).ToList();
             var scores = NormalScores.FromCounts(smoothed);
             var sample = used.Count > RespondentScreening.CalibrationRows
-                ? Enumerable.Range(0, RespondentScreening.CalibrationRows).Select(t => used[(int)((long)t * used.Count / RespondentScreening.CalibrationRows)]).ToList()
+                ? Enumerable.Range(0, RespondentScreening.CalibrationRows)
+                    .Select(t => used[(int)((long)t * used.Count / RespondentScreening.CalibrationRows)]).ToList()
                 : used;
             var latent = DiscretenessCalibration.LatentCorrelation(data, sample);
             if (latent is null) return fitted;

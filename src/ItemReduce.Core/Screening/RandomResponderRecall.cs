@@ -6,7 +6,8 @@ namespace ItemReduce.Core.Screening;
 /// How many uniform-random responders the screening (all rules, with the random-answering index) caught in the study
 /// slices run for the index (benchmarks/results/screening-study-index-careless-2026-12-02.md and
 /// screening-study-index-careless12-2026-12-02.md, section "Random responders: the screening against the best
-/// possible test"; about 200 planted careless respondents per cell, so a recall has a standard error of 4–7 points), by number of items, next to the most powerful test possible (the likelihood ratio with the true
+/// possible test"; about 200 planted careless respondents per cell, so a recall has a standard error of 4–7 points), by number of items, next to the
+/// most powerful test possible (the likelihood ratio with the true
 /// model, Neyman–Pearson). Design of those cells: five-point items from a factor model (subscales of six, loadings
 /// .5–.8, factor correlations .3), 5 % of answers missing at random, 20 respondents per item, 5 % or 10 % careless
 /// respondents, cutoff p = 0.001. Used for the on-screen warning and the rule text: random answering is only partly

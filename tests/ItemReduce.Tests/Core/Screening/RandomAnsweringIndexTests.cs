@@ -86,7 +86,9 @@ public class RandomAnsweringIndexTests(ITestOutputHelper output)
         long planted = o.Planted[CarelessKind.UniformRandom];
         double byIndex = o.Recall(CarelessKind.UniformRandom, ScreeningReasons.RandomLikeAnswers);
         long attentive = o.AttentiveByReason.GetValueOrDefault(ScreeningReasons.RandomLikeAnswers);
-        output.WriteLine($"random {planted}: index {byIndex:P0}, distance {o.Recall(CarelessKind.UniformRandom, ScreeningReasons.RobustDistance):P0}, any {o.Recall(CarelessKind.UniformRandom):P0}; attentive {o.Attentive}, by index {attentive}");
+        double byDistance = o.Recall(CarelessKind.UniformRandom, ScreeningReasons.RobustDistance);
+        double byAny = o.Recall(CarelessKind.UniformRandom);
+        output.WriteLine($"random {planted}: index {byIndex:P0}, distance {byDistance:P0}, any {byAny:P0}; attentive {o.Attentive}, by index {attentive}");
         Assert.Equal(30, planted);
         Assert.True(byIndex * planted >= 10, $"index flagged {byIndex:P0} of {planted}");
         Assert.True(attentive <= 4, $"{attentive} of {o.Attentive} attentive respondents flagged by the index");
