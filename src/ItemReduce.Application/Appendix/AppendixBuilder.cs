@@ -299,10 +299,10 @@ internal static partial class AppendixBuilder
                 [new("k", ColumnAlignment.Right), new("Mean RMSR of eigenvalues", ColumnAlignment.Right), new("p (k better than k − 1)", ColumnAlignment.Right)],
                 Enumerable.Range(0, cd.MeanRmsr.Length).Select(c => Row(Integer(c + 1), Fixed(cd.MeanRmsr[c], 4), c == 0 ? "—" : cd.PValues[c] < 0.001 ? "< .001" : Fixed(cd.PValues[c], 3))).ToList(),
                 "RMSR: root mean squared difference between the eigenvalues of samples from the k-factor population and the observed eigenvalues. The fit curve is also in eigenvalues.csv (comparison_rmsr, comparison_p_value).");
-        string why = d.RuleUsed == RetentionRule.ParallelReduced
+        string why = d.RuleUsed == FactorsRule.ParallelReduced
             ? " Reduced-matrix parallel analysis is the default because, in the project's seeded simulation study of ten published rules (benchmarks/results/dimensions-study-2026-12-02.md), it found the planted number of factors most often of them overall and never suggested more than one factor for one-factor data; a combined rule fitted afterwards found it slightly more often overall (" + Inv($"{RetentionStudyAccuracy.CombinedOverall * 100:0.#}%") + ") but less often in some conditions and at 1,000 respondents, so it is offered as a choice, not the default; the other rules are shown for comparison. " + RetentionStudyAccuracy.Sentence(d.EffectiveRespondents) +
               " Accuracy was lowest with three items per factor, strongly correlated factors (r = .5) and 200 respondents."
-            : d.RuleUsed == RetentionRule.Combined
+            : d.RuleUsed == FactorsRule.Combined
                 ? " The combined rule was chosen in the settings; it is not the default because, in the project's simulation study (benchmarks/results/dimensions-study-2026-12-02.md), it improved the overall hit rate only modestly and was weaker than reduced-matrix parallel analysis in a few conditions. " +
                   RetentionStudyAccuracy.CombinedSentence(d.EffectiveRespondents) + " It was fitted to Pearson correlations with the normal reference; with other settings its accuracy is untested."
                 : "";

@@ -126,19 +126,19 @@ public static class SettingsCatalog
         new()
         {
             Name = "run-share", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "P", Default = Screening.LongStringShare, Min = 0, Max = 1, MinExclusive = true, Example = "0.7",
+            Group = ScreeningGroup, ValueName = "P", Default = Screening.RunShare, Min = 0, Max = 1, MinExclusive = true, Example = "0.7",
             Help = $"Flag a run of identical consecutive answers covering at least this share of the items (the run must also be at least {Screening.LongStringMinimum} items long). With ordinal items the limit is raised where attentive respondents simulated from the survey's fitted model reach it too often (the rule text gives the limit used).",
         },
         new()
         {
             Name = "flat-sd", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "SD", Default = Screening.FlatVariabilityLimit, Min = 0, Example = "0.3",
+            Group = ScreeningGroup, ValueName = "SD", Default = Screening.FlatSd, Min = 0, Example = "0.3",
             Help = "Flag respondents whose own answers have a standard deviation below this value (0 turns the rule off).",
         },
         new()
         {
             Name = "missing-limit", Kind = SettingKind.Number, Commands = Commands.Screen | Commands.Run, Concerns = Concerns.Screening,
-            Group = ScreeningGroup, ValueName = "P", Default = Screening.MissingShareLimit, Min = 0, Max = ScreeningOptions.MaxMissingShareLimit, MaxExclusive = true, Example = "0.3",
+            Group = ScreeningGroup, ValueName = "P", Default = Screening.MissingLimit, Min = 0, Max = ScreeningOptions.MaxMissingShareLimit, MaxExclusive = true, Example = "0.3",
             Help = "Flag respondents who left more than this share of items unanswered.",
         },
         new()
@@ -215,14 +215,14 @@ public static class SettingsCatalog
         new()
         {
             Name = "items-per-factor", Kind = SettingKind.Integer, Commands = Commands.Shorten | Commands.Run, Concerns = Concerns.ShortForm,
-            Group = ShortFormGroup, ValueName = "N", Default = (ulong)ShortForm.ItemsPerScale, Min = ShortFormOptions.MinItemsPerScale,
-            Max = ShortFormOptions.MaxItemsPerScale, Example = "3", Help = "Short-form length of each scale without a target of its own.",
+            Group = ShortFormGroup, ValueName = "N", Default = (ulong)ShortForm.ItemsPerFactor, Min = ShortFormOptions.MinItemsPerFactor,
+            Max = ShortFormOptions.MaxItemsPerFactor, Example = "3", Help = "Short-form length of each scale without a target of its own.",
         },
         new()
         {
             Name = "scale-targets", Kind = SettingKind.Targets, Commands = Commands.Shorten | Commands.Run, Concerns = Concerns.ShortForm,
-            Group = ShortFormGroup, ValueName = "LIST", DefaultText = "none", Min = ShortFormOptions.MinItemsPerScale,
-            Max = ShortFormOptions.MaxItemsPerScale, Example = "S1=2",
+            Group = ShortFormGroup, ValueName = "LIST", DefaultText = "none", Min = ShortFormOptions.MinItemsPerFactor,
+            Max = ShortFormOptions.MaxItemsPerFactor, Example = "S1=2",
             Help = "Short-form lengths of named codebook subscales, e.g. comfort=3,crew=5 (others use items-per-factor).",
         },
         new()
@@ -264,16 +264,16 @@ public static class SettingsCatalog
     public static string CommandName(Commands c) => c.ToString().ToLowerInvariant();
 
     /// <summary>Option value of a retention rule.</summary>
-    public static string RuleName(RetentionRule rule) => rule switch
+    public static string RuleName(FactorsRule rule) => rule switch
     {
-        RetentionRule.Parallel => "parallel",
-        RetentionRule.ParallelReduced => "parallel-reduced",
-        RetentionRule.Map => "map",
-        RetentionRule.Kaiser => "kaiser",
-        RetentionRule.EmpiricalKaiser => "empirical-kaiser",
-        RetentionRule.ComparisonData => "comparison-data",
-        RetentionRule.Hull => "hull",
-        RetentionRule.Combined => "combined",
+        FactorsRule.Parallel => "parallel",
+        FactorsRule.ParallelReduced => "parallel-reduced",
+        FactorsRule.Map => "map",
+        FactorsRule.Kaiser => "kaiser",
+        FactorsRule.EmpiricalKaiser => "empirical-kaiser",
+        FactorsRule.ComparisonData => "comparison-data",
+        FactorsRule.Hull => "hull",
+        FactorsRule.Combined => "combined",
         _ => "fixed",
     };
 

@@ -35,9 +35,9 @@ public static class SettingsMapping
         {
             CutoffP = v.Number("cutoff-p"),
             UseRobust = v.Text("distance") == "robust",
-            LongStringShare = v.Number("run-share"),
-            FlatVariabilityLimit = v.Number("flat-sd"),
-            MissingShareLimit = v.Number("missing-limit"),
+            RunShare = v.Number("run-share"),
+            FlatSd = v.Number("flat-sd"),
+            MissingLimit = v.Number("missing-limit"),
         };
         var dimensions = defaults.Dimensions with
         {
@@ -51,13 +51,13 @@ public static class SettingsMapping
             },
             FactorsRule = v.Text("factors-rule") switch
             {
-                "parallel" => RetentionRule.Parallel,
-                "map" => RetentionRule.Map,
-                "kaiser" => RetentionRule.Kaiser,
-                "empirical-kaiser" => RetentionRule.EmpiricalKaiser,
-                "comparison-data" => RetentionRule.ComparisonData,
-                "combined" => RetentionRule.Combined,
-                _ => RetentionRule.ParallelReduced,
+                "parallel" => FactorsRule.Parallel,
+                "map" => FactorsRule.Map,
+                "kaiser" => FactorsRule.Kaiser,
+                "empirical-kaiser" => FactorsRule.EmpiricalKaiser,
+                "comparison-data" => FactorsRule.ComparisonData,
+                "combined" => FactorsRule.Combined,
+                _ => FactorsRule.ParallelReduced,
             },
             FixedFactors = v.Integer("factors") is ulong k ? (int)k : null,
             MaxDegreeOfParallelism = v.Integer("threads") is ulong t ? (int)t : -1,
@@ -80,7 +80,7 @@ public static class SettingsMapping
                     _ => FactorRotation.Oblimin,
                 },
             },
-            ItemsPerScale = (int)v.Integer("items-per-factor")!.Value,
+            ItemsPerFactor = (int)v.Integer("items-per-factor")!.Value,
             ScaleTargets = v["scale-targets"] is IReadOnlyList<KeyValuePair<string, int>> targets
                 ? targets.ToDictionary(kv => kv.Key, kv => kv.Value, StringComparer.Ordinal) : null,
             HoldoutFraction = v.Number("holdout"),

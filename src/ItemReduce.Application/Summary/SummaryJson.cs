@@ -176,7 +176,7 @@ internal static class SummaryJson
         return o;
     }
 
-    internal static string RuleName(RetentionRule rule) => Settings.SettingsCatalog.RuleName(rule);
+    internal static string RuleName(FactorsRule rule) => Settings.SettingsCatalog.RuleName(rule);
 
     private static void AddShortForm(JsonObject root, PipelineResult r, ShortFormResult sf)
     {

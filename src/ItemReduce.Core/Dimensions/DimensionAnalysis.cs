@@ -116,13 +116,13 @@ public static class DimensionAnalysis
     private static void Validate(ResponseMatrix data, DimensionOptions o)
     {
         if (data.ItemCount < 2) throw new DataConditionException($"At least 2 items are needed, got {data.ItemCount}.", nameof(data));
-        if (o.FactorsRule == RetentionRule.Fixed || !Enum.IsDefined(o.FactorsRule))
+        if (o.FactorsRule == FactorsRule.Fixed || !Enum.IsDefined(o.FactorsRule))
             throw new ArgumentException($"FactorsRule must be ParallelReduced, Parallel, Map, Kaiser, EmpiricalKaiser, ComparisonData, Hull or Combined, got {o.FactorsRule}; use FixedFactors to fix the count.", nameof(o));
-        if (o.FactorsRule == RetentionRule.ParallelReduced && !o.IncludeReducedMatrix)
+        if (o.FactorsRule == FactorsRule.ParallelReduced && !o.IncludeReducedMatrix)
             throw new ArgumentException("FactorsRule ParallelReduced needs IncludeReducedMatrix = true.", nameof(o));
-        if (o.FactorsRule == RetentionRule.Combined && !o.IncludeReducedMatrix)
+        if (o.FactorsRule == FactorsRule.Combined && !o.IncludeReducedMatrix)
             throw new ArgumentException("FactorsRule Combined needs IncludeReducedMatrix = true.", nameof(o));
-        if (o.FactorsRule is RetentionRule.ComparisonData or RetentionRule.Hull or RetentionRule.Combined && data.ItemCount < 3)
+        if (o.FactorsRule is FactorsRule.ComparisonData or FactorsRule.Hull or FactorsRule.Combined && data.ItemCount < 3)
             throw new DataConditionException($"Comparison data, the Hull method and the combined rule need at least 3 items, got {data.ItemCount}.", nameof(o));
         if (o.FixedFactors is int k && (k < 1 || k > data.ItemCount))
             throw new DataConditionException($"FixedFactors must lie in [1, {data.ItemCount}] (the number of items), got {k}.", nameof(o));
@@ -190,11 +190,11 @@ public static class DimensionAnalysis
         return ParallelAnalysis.NormalReference(nEff, data.ItemCount, po);
     }
 
-    private static (int Retained, RetentionRule Rule, string Reason) Decide(DimensionOptions o, RuleCounts c, ParallelAnalysisReference reference)
+    private static (int Retained, FactorsRule Rule, string Reason) Decide(DimensionOptions o, RuleCounts c, ParallelAnalysisReference reference)
     {
         var ci = CultureInfo.InvariantCulture;
         if (o.FixedFactors is int k)
-            return (k, RetentionRule.Fixed, string.Create(ci, $"The number of dimensions was set to {k} in the settings; the rules below are shown for comparison."));
+            return (k, FactorsRule.Fixed, string.Create(ci, $"The number of dimensions was set to {k} in the settings; the rules below are shown for comparison."));
         string source = reference.Kind switch
         {
             ReferenceKind.Permutation => "copies of the data with each item shuffled separately",
@@ -203,21 +203,21 @@ public static class DimensionAnalysis
         };
         return o.FactorsRule switch
         {
-            RetentionRule.Map => (c.Map, RetentionRule.Map, string.Create(ci,
+            FactorsRule.Map => (c.Map, FactorsRule.Map, string.Create(ci,
                 $"{Count(c.Map)} kept because the average squared partial correlation between items is lowest once {c.Map} component{(c.Map == 1 ? " is" : "s are")} removed (minimum average partial test).")),
-            RetentionRule.ParallelReduced when c.ParallelReduced is int pr => (pr, RetentionRule.ParallelReduced, string.Create(ci,
+            FactorsRule.ParallelReduced when c.ParallelReduced is int pr => (pr, FactorsRule.ParallelReduced, string.Create(ci,
                 $"{Count(pr)} kept because {(pr == 1 ? "the first eigenvalue" : $"the first {pr} eigenvalues")} of the reduced correlation matrix (squared multiple correlations on the diagonal, the common-factor version of parallel analysis) {(pr == 1 ? "is" : "are")} larger than the {Ordinal(reference.PercentileLevel)} percentile of the same eigenvalues in {reference.Replicates} {source}.")),
-            RetentionRule.EmpiricalKaiser => (c.EmpiricalKaiser, RetentionRule.EmpiricalKaiser, string.Create(ci,
+            FactorsRule.EmpiricalKaiser => (c.EmpiricalKaiser, FactorsRule.EmpiricalKaiser, string.Create(ci,
                 $"{Count(c.EmpiricalKaiser)} kept because {(c.EmpiricalKaiser == 1 ? "the first eigenvalue is" : $"the first {c.EmpiricalKaiser} eigenvalues are")} above the reference that random data of this size would reach after the larger ones (empirical Kaiser criterion).")),
-            RetentionRule.ComparisonData when c.ComparisonData is int cd => (cd, RetentionRule.ComparisonData, string.Create(ci,
+            FactorsRule.ComparisonData when c.ComparisonData is int cd => (cd, FactorsRule.ComparisonData, string.Create(ci,
                 $"{Count(cd)} kept because simulated data with {cd + 1} factor{(cd + 1 == 1 ? "" : "s")} did not reproduce the observed eigenvalues significantly better than data with {cd} (comparison data).")),
-            RetentionRule.Hull when c.Hull is int h => (h, RetentionRule.Hull, string.Create(ci,
+            FactorsRule.Hull when c.Hull is int h => (h, FactorsRule.Hull, string.Create(ci,
                 $"{Count(h)} kept because the fit of the {h}-factor solution gains most against its added complexity among the solutions on the convex hull of fit versus free parameters (Hull method).")),
-            RetentionRule.Combined when c.Combined is int cb && c.ParallelReduced is int start => (cb, RetentionRule.Combined, string.Create(ci,
+            FactorsRule.Combined when c.Combined is int cb && c.ParallelReduced is int start => (cb, FactorsRule.Combined, string.Create(ci,
                 $"{Count(cb)} kept by the combined rule: a model fitted to invented surveys of known structure read what the single rules found here (reduced-matrix parallel analysis {start}, principal-component parallel analysis {c.Parallel}, comparison data {(c.ComparisonData is int cdc ? cdc.ToString(ci) : "not run")}, empirical Kaiser criterion {c.EmpiricalKaiser}) and how far the eigenvalues stand out from random data, and {(cb == start ? "kept the reduced-matrix count" : $"moved the reduced-matrix count of {start} to {cb}")}.")),
-            RetentionRule.Kaiser => (c.Kaiser, RetentionRule.Kaiser, string.Create(ci,
+            FactorsRule.Kaiser => (c.Kaiser, FactorsRule.Kaiser, string.Create(ci,
                 $"{Count(c.Kaiser)} kept because {c.Kaiser} eigenvalue{(c.Kaiser == 1 ? " is" : "s are")} above 1; this rule tends to keep too many.")),
-            _ => (c.Parallel, RetentionRule.Parallel, string.Create(ci,
+            _ => (c.Parallel, FactorsRule.Parallel, string.Create(ci,
                 $"{Count(c.Parallel)} kept because {(c.Parallel == 1 ? "the first eigenvalue is" : $"the first {c.Parallel} eigenvalues are")} larger than the {Ordinal(reference.PercentileLevel)} percentile of {reference.Replicates} {source} (parallel analysis).")),
         };
     }

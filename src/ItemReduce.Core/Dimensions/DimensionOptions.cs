@@ -3,7 +3,7 @@ using ItemReduce.Core.Correlation;
 namespace ItemReduce.Core.Dimensions;
 
 /// <summary>Rule that decides how many dimensions to retain.</summary>
-public enum RetentionRule
+public enum FactorsRule
 {
     /// <summary>Parallel analysis on the full correlation matrix (principal components), 95th-percentile reference.</summary>
     Parallel,
@@ -48,9 +48,9 @@ public sealed record DimensionOptions
     /// <c>PipelineSettings.Seed</c>).</summary>
     public ulong Seed { get; init; } = Randomness.RandomStream.DefaultSeed;
 
-    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="RetentionRule.ParallelReduced"/>.
-    /// <see cref="RetentionRule.Fixed"/> is not allowed here (use <see cref="FixedFactors"/>).</summary>
-    public RetentionRule FactorsRule { get; init; } = RetentionRule.ParallelReduced;
+    /// <summary>Rule that sets <see cref="DimensionResult.Retained"/>; default <see cref="FactorsRule.ParallelReduced"/>.
+    /// <see cref="FactorsRule.Fixed"/> is not allowed here (use <see cref="FixedFactors"/>).</summary>
+    public FactorsRule FactorsRule { get; init; } = FactorsRule.ParallelReduced;
 
     /// <summary>When set, retain exactly this many dimensions (1..p) whatever the rules say; default null.</summary>
     public int? FixedFactors { get; init; }

@@ -99,7 +99,7 @@ public sealed record DimensionResult
     public required int Retained { get; init; }
 
     /// <summary>Rule that set <see cref="Retained"/>.</summary>
-    public required RetentionRule RuleUsed { get; init; }
+    public required FactorsRule RuleUsed { get; init; }
 
     /// <summary>One plain-language sentence explaining <see cref="Retained"/>.</summary>
     public required string Reason { get; init; }

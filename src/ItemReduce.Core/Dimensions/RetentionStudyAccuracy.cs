@@ -3,7 +3,7 @@ using System.Globalization;
 namespace ItemReduce.Core.Dimensions;
 
 /// <summary>
-/// Measured accuracy of the default rule (<see cref="RetentionRule.ParallelReduced"/>) in the project's simulation
+/// Measured accuracy of the default rule (<see cref="FactorsRule.ParallelReduced"/>) in the project's simulation
 /// study (benchmarks/ItemReduce.DimensionStudy, results in benchmarks/results/dimensions-study-2026-12-02.md): 2,808
 /// invented surveys, 1–6 factors, 3–10 four- to seven-point items per factor, symmetric and skewed answers, factor
 /// correlations 0–.5, some cross-loadings, 936 surveys at each of n = 200, 500 and 1,000; 1,000 replicates. These are

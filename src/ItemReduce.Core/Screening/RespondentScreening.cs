@@ -49,7 +49,7 @@ public static class RespondentScreening
         // 1. Robust location and scatter (ER estimate on normal scores), fitted on another thread while the classical
         //    moments are accumulated (the two do not depend on each other).
         var robustWarnings = new WarningList("screening");
-        int runFloor = Math.Max(options.LongStringMinimum, (int)Math.Ceiling(options.LongStringShare * p));
+        int runFloor = Math.Max(options.LongStringMinimum, (int)Math.Ceiling(options.RunShare * p));
         var robustFit = Task.Run(() => RobustFit(data, options, robustWarnings, progress, asAnswered is not null, runFloor));
 
         // 2. Classical distances: item means, pairwise-complete covariance (n − 1), repaired if not PD.
@@ -185,9 +185,9 @@ public static class RespondentScreening
         if (useRobust && robustD2 > robustCutoffByDf[answered]) reasons |= RobustBit;
         if (!useRobust && d2 > cutoff) reasons |= ClassicalBit;
         if (longString >= runLimit) reasons |= RunBit;
-        if (irv < o.FlatVariabilityLimit) reasons |= FlatBit;
+        if (irv < o.FlatSd) reasons |= FlatBit;
         if (eo < o.EvenOddMinimum && eoSubscales >= o.EvenOddFlagSubscales) reasons |= HalvesBit;
-        if (missing > o.MissingShareLimit) reasons |= UnansweredBit;
+        if (missing > o.MissingLimit) reasons |= UnansweredBit;
         if (alternating >= alternatingLimit) reasons |= AlternatingBit;
         if (rows.RandomAnswering[i] > randomCutoff) reasons |= RandomLikeBit;
         rows.AlternatingRun[i] = alternating;
@@ -433,15 +433,15 @@ public static class RespondentScreening
         };
         if (runLimit <= p)
             parts.Add(string.Format(c, "{2} The same answer is given to at least {0} consecutive items (of {1}).", runLimit, p, Next()));
-        if (o.FlatVariabilityLimit > 0)
-            parts.Add(string.Format(c, "{1} The standard deviation of the respondent's own answers is below {0}.", o.FlatVariabilityLimit, Next()));
+        if (o.FlatSd > 0)
+            parts.Add(string.Format(c, "{1} The standard deviation of the respondent's own answers is below {0}.", o.FlatSd, Next()));
         if (evenOdd.SplittableSubscales >= o.EvenOddFlagSubscales)
             parts.Add(string.Format(c, "{2} The Spearman–Brown corrected correlation between the odd- and even-numbered halves of the subscales is below {0}, " +
                 "judged only when it rests on at least {1} subscales.", o.EvenOddMinimum, o.EvenOddFlagSubscales, Next()));
         else if (evenOdd.Applicable)
             parts.Add(string.Format(c, "Even-odd consistency is reported but raises no flag: with {0} subscales it is too noisy (at least {1} are required).",
                 evenOdd.SplittableSubscales, o.EvenOddFlagSubscales));
-        parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingShareLimit, Next()));
+        parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingLimit, Next()));
         if (alternatingLimit <= p)
             parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; a single skipped item does not end the row).", alternatingLimit, Next()));
         if (randomIndex is not null)

@@ -9,7 +9,7 @@ public sealed record ScreeningOptions
     /// <summary>Upper end (excluded) of <see cref="CutoffP"/>; the lower end 0 is excluded too.</summary>
     public const double MaxCutoffP = 0.5;
 
-    /// <summary>Upper end (excluded) of <see cref="MissingShareLimit"/>; the lower end 0 is included.</summary>
+    /// <summary>Upper end (excluded) of <see cref="MissingLimit"/>; the lower end 0 is included.</summary>
     public const double MaxMissingShareLimit = 1;
 
     /// <summary>
@@ -37,7 +37,7 @@ public sealed record ScreeningOptions
     /// max(<see cref="LongStringMinimum"/>, ⌈share × items⌉) long is flagged. Default 0.5 (our choice: half the
     /// questionnaire answered with one response option; common practice, no source). Range (0, 1].
     /// </summary>
-    public double LongStringShare { get; init; } = 0.5;
+    public double RunShare { get; init; } = 0.5;
 
     /// <summary>Smallest run length ever flagged, so short questionnaires are not over-flagged. Default 8 (our choice). Range ≥ 2.</summary>
     public int LongStringMinimum { get; init; } = 8;
@@ -47,7 +47,7 @@ public sealed record ScreeningOptions
     /// choice for 5- to 7-point scales: one answer off an otherwise constant 20-item profile gives IRV ≈ 0.22;
     /// common practice is to inspect the low tail, no source). 0 disables the rule. Range ≥ 0.
     /// </summary>
-    public double FlatVariabilityLimit { get; init; } = 0.2;
+    public double FlatSd { get; init; } = 0.2;
 
     /// <summary>
     /// Even-odd consistency below this value is flagged. Default −0.5 (our choice): the halves of the same scales
@@ -70,7 +70,7 @@ public sealed record ScreeningOptions
     public int EvenOddFlagSubscales { get; init; } = 10;
 
     /// <summary>Share of items missing above which a respondent is flagged. Default 0.5 (common practice, no source). Range [0, 1).</summary>
-    public double MissingShareLimit { get; init; } = 0.5;
+    public double MissingLimit { get; init; } = 0.5;
 
     /// <summary>Throws <see cref="ArgumentException"/> naming the first option out of range.</summary>
     public void Validate()
@@ -81,12 +81,12 @@ public sealed record ScreeningOptions
         }
         Check(CutoffP > 0 && CutoffP < MaxCutoffP, nameof(CutoffP), CutoffP, "(0, 0.5)");
         Check(RobustMaxRows >= 100, nameof(RobustMaxRows), RobustMaxRows, "≥ 100");
-        Check(LongStringShare > 0 && LongStringShare <= 1, nameof(LongStringShare), LongStringShare, "(0, 1]");
+        Check(RunShare > 0 && RunShare <= 1, nameof(RunShare), RunShare, "(0, 1]");
         Check(LongStringMinimum >= 2, nameof(LongStringMinimum), LongStringMinimum, "≥ 2");
-        Check(FlatVariabilityLimit >= 0 && !double.IsInfinity(FlatVariabilityLimit), nameof(FlatVariabilityLimit), FlatVariabilityLimit, "≥ 0, finite");
+        Check(FlatSd >= 0 && !double.IsInfinity(FlatSd), nameof(FlatSd), FlatSd, "≥ 0, finite");
         Check(EvenOddMinimum >= -1 && EvenOddMinimum <= 1, nameof(EvenOddMinimum), EvenOddMinimum, "[−1, 1]");
         Check(EvenOddMinSubscales >= 3, nameof(EvenOddMinSubscales), EvenOddMinSubscales, "≥ 3");
         Check(EvenOddFlagSubscales >= EvenOddMinSubscales, nameof(EvenOddFlagSubscales), EvenOddFlagSubscales, $"≥ EvenOddMinSubscales ({EvenOddMinSubscales})");
-        Check(MissingShareLimit >= 0 && MissingShareLimit < MaxMissingShareLimit, nameof(MissingShareLimit), MissingShareLimit, "[0, 1)");
+        Check(MissingLimit >= 0 && MissingLimit < MaxMissingShareLimit, nameof(MissingLimit), MissingLimit, "[0, 1)");
     }
 }

@@ -95,7 +95,7 @@ public static class ShortFormBuilder
         var scaleResults = new List<ShortFormScale>();
         foreach (var sc in scales)
         {
-            int target = o.ScaleTargets is { } t && t.TryGetValue(sc.Name, out int tt) ? tt : o.ItemsPerScale;
+            int target = o.ScaleTargets is { } t && t.TryGetValue(sc.Name, out int tt) ? tt : o.ItemsPerFactor;
             var (chosen, forced) = ItemSelection.Choose(sc.Items.Select(j => flags[j]).ToList(), reverse, target, o.KeepReverseKeyedBalance);
             chosenAll.UnionWith(chosen);
             forcedAll.UnionWith(forced);
@@ -245,8 +245,8 @@ public static class ShortFormBuilder
         ArgumentNullException.ThrowIfNull(o);
         int p = data.ItemCount;
         if (factors < 1 || factors >= p) throw new DataConditionException($"factors = {factors}; allowed range is 1..{p - 1} for {p} items.", nameof(factors));
-        const int minLen = ShortFormOptions.MinItemsPerScale, maxLen = ShortFormOptions.MaxItemsPerScale;
-        if (o.ItemsPerScale is < minLen or > maxLen) throw new ArgumentException($"ItemsPerScale = {o.ItemsPerScale}; allowed {minLen}..{maxLen}.", nameof(o));
+        const int minLen = ShortFormOptions.MinItemsPerFactor, maxLen = ShortFormOptions.MaxItemsPerFactor;
+        if (o.ItemsPerFactor is < minLen or > maxLen) throw new ArgumentException($"ItemsPerFactor = {o.ItemsPerFactor}; allowed {minLen}..{maxLen}.", nameof(o));
         if (o.ScaleTargets is { } t)
             foreach (var (name, n) in t)
                 if (n is < minLen or > maxLen) throw new ArgumentException($"Target for scale '{name}' = {n}; allowed {minLen}..{maxLen}.", nameof(o));

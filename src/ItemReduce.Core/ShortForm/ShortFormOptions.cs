@@ -37,11 +37,11 @@ public sealed record ShortFormOptions
     /// is filled in from the data's items by the builder.</summary>
     public FactoringOptions Factoring { get; init; } = new();
 
-    /// <summary>Default of <see cref="ItemsPerScale"/>.</summary>
-    public const int DefaultItemsPerScale = 4;
+    /// <summary>Default of <see cref="ItemsPerFactor"/>.</summary>
+    public const int DefaultItemsPerFactor = 4;
 
-    /// <summary>Allowed range of <see cref="ItemsPerScale"/> and of each <see cref="ScaleTargets"/> value.</summary>
-    public const int MinItemsPerScale = 2, MaxItemsPerScale = 100;
+    /// <summary>Allowed range of <see cref="ItemsPerFactor"/> and of each <see cref="ScaleTargets"/> value.</summary>
+    public const int MinItemsPerFactor = 2, MaxItemsPerFactor = 100;
 
     /// <summary>Largest allowed <see cref="HoldoutFraction"/>.</summary>
     public const double MaxHoldoutFraction = 0.9;
@@ -50,12 +50,12 @@ public sealed record ShortFormOptions
     /// <c>PipelineSettings.Correlation</c>, shared with the dimensions stage); default Pearson, pairwise.</summary>
     public CorrelationOptions Correlation { get; init; } = new();
 
-    /// <summary>Items kept per scale when no per-scale target is given. Default <see cref="DefaultItemsPerScale"/>;
-    /// allowed <see cref="MinItemsPerScale"/>..<see cref="MaxItemsPerScale"/>.</summary>
-    public int ItemsPerScale { get; init; } = DefaultItemsPerScale;
+    /// <summary>Items kept per scale when no per-scale target is given. Default <see cref="DefaultItemsPerFactor"/>;
+    /// allowed <see cref="MinItemsPerFactor"/>..<see cref="MaxItemsPerFactor"/>.</summary>
+    public int ItemsPerFactor { get; init; } = DefaultItemsPerFactor;
 
-    /// <summary>Optional target length per scale name (overrides <see cref="ItemsPerScale"/>); each
-    /// <see cref="MinItemsPerScale"/>..<see cref="MaxItemsPerScale"/>.</summary>
+    /// <summary>Optional target length per scale name (overrides <see cref="ItemsPerFactor"/>); each
+    /// <see cref="MinItemsPerFactor"/>..<see cref="MaxItemsPerFactor"/>.</summary>
     public IReadOnlyDictionary<string, int>? ScaleTargets { get; init; }
 
     /// <summary>Judgement thresholds.</summary>

@@ -71,8 +71,8 @@ public class SettingsModelTests
             Assert.True(s.InRange(Convert.ToDouble(s.Default, System.Globalization.CultureInfo.InvariantCulture)), s.Name);
         // The limits Core enforces (ParallelAnalysisOptions, ShortFormOptions) are the declared ones.
         Assert.Equal(ItemReduce.Core.Dimensions.ParallelAnalysisOptions.MaxReplicates, SettingsCatalog.Get("replicates").Max);
-        Assert.Equal(ItemReduce.Core.ShortForm.ShortFormOptions.MaxItemsPerScale, SettingsCatalog.Get("items-per-factor").Max);
-        Assert.Equal(ItemReduce.Core.ShortForm.ShortFormOptions.MinItemsPerScale, SettingsCatalog.Get("scale-targets").Min);
+        Assert.Equal(ItemReduce.Core.ShortForm.ShortFormOptions.MaxItemsPerFactor, SettingsCatalog.Get("items-per-factor").Max);
+        Assert.Equal(ItemReduce.Core.ShortForm.ShortFormOptions.MinItemsPerFactor, SettingsCatalog.Get("scale-targets").Min);
     }
 
     [Theory]
@@ -93,9 +93,9 @@ public class SettingsModelTests
             o = name switch
             {
                 "cutoff-p" => o with { CutoffP = v },
-                "run-share" => o with { LongStringShare = v },
-                "flat-sd" => o with { FlatVariabilityLimit = v },
-                _ => o with { MissingShareLimit = v },
+                "run-share" => o with { RunShare = v },
+                "flat-sd" => o with { FlatSd = v },
+                _ => o with { MissingLimit = v },
             };
             var e = Record.Exception(o.Validate);
             Assert.True(declared == (e is null), $"{name} = {v}: declared {(declared ? "allowed" : "not allowed")}, Core {(e is null ? "accepts" : "rejects")}");
@@ -172,7 +172,7 @@ public class SettingsModelTests
     {
         var (job, survey, r) = RunFixture(("factors-rule", "combined"), ("replicates", "30"));
         var d = r.Dimensions!;
-        Assert.Equal(ItemReduce.Core.Dimensions.RetentionRule.Combined, d.RuleUsed);
+        Assert.Equal(ItemReduce.Core.Dimensions.FactorsRule.Combined, d.RuleUsed);
         Assert.Equal(d.ByRule.Combined, d.Retained);
         var doc = AppendixBuilder.Build(job, survey, r);
         string text = string.Join("\n", doc.Blocks.OfType<ParagraphBlock>().Select(p => p.Text));

@@ -79,10 +79,10 @@ public class CombinedRetentionTests
         // rule recovers; common practice, no source).
         var spec = FactorModelSpec.Simple(3, 6, 0.7, 0.2, categories: 5);
         var data = FactorModelSimulator.Generate(spec, new FactorModelSimulator.Settings(500, 11)).Responses;
-        var one = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, FactorsRule = RetentionRule.Combined, MaxDegreeOfParallelism = 1 });
-        var many = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, FactorsRule = RetentionRule.Combined, MaxDegreeOfParallelism = 3 });
+        var one = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, FactorsRule = FactorsRule.Combined, MaxDegreeOfParallelism = 1 });
+        var many = DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 100, FactorsRule = FactorsRule.Combined, MaxDegreeOfParallelism = 3 });
         Assert.Equal(3, one.Retained);
-        Assert.Equal(RetentionRule.Combined, one.RuleUsed);
+        Assert.Equal(FactorsRule.Combined, one.RuleUsed);
         Assert.Equal(one.Combined!.Probabilities, many.Combined!.Probabilities);
         Assert.Equal(one.Combined.Features, many.Combined.Features);
         Assert.Contains("combined rule", one.Reason, StringComparison.Ordinal);

@@ -30,7 +30,7 @@ public class DimensionAnalysisTests
         Assert.Equal(k, res.ByRule.Parallel);
         Assert.Equal(k, res.ByRule.ParallelReduced);
         Assert.Equal(k, res.Retained);
-        Assert.Equal(RetentionRule.ParallelReduced, res.RuleUsed);
+        Assert.Equal(FactorsRule.ParallelReduced, res.RuleUsed);
         Assert.Equal(k, res.ByRule.Map);
         Assert.Equal(k, res.ByRule.EmpiricalKaiser);
         Assert.Equal(k, res.ByRule.ComparisonData);
@@ -81,7 +81,7 @@ public class DimensionAnalysisTests
         var rows = res.Components;
         Assert.Equal([1, 2, 3, 4], rows.Select(r => r.Component));
         Assert.Equal(res.Retained, rows.Count(r => r.Retained));
-        Assert.Equal(RetentionRule.ParallelReduced, res.RuleUsed);
+        Assert.Equal(FactorsRule.ParallelReduced, res.RuleUsed);
         Assert.True(Enumerable.Range(0, res.Retained).All(c => res.ReducedEigenvalues[c] > res.ReducedReferencePercentile[c]));
         Assert.Equal(res.Retained, res.ByRule.ParallelReduced);
         Assert.Contains(res.Warnings, w => w.Message == KaiserCriterion.Caution);
@@ -95,7 +95,7 @@ public class DimensionAnalysisTests
         // Property: a fixed count wins over the rules, which are still reported (planted truth k = 2).
         var res = DimensionAnalysis.Run(Planted(2, 5, 300, 5), new DimensionOptions { Replicates = 50, FixedFactors = 3 });
         Assert.Equal(3, res.Retained);
-        Assert.Equal(RetentionRule.Fixed, res.RuleUsed);
+        Assert.Equal(FactorsRule.Fixed, res.RuleUsed);
         Assert.Contains("set to 3", res.Reason);
         Assert.Equal(2, res.ByRule.Parallel);
     }
@@ -131,7 +131,7 @@ public class DimensionAnalysisTests
     public void Invalid_settings_are_rejected()
     {
         var data = Planted(1, 4, 100, 2);
-        Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data, new DimensionOptions { FactorsRule = RetentionRule.Fixed }));
+        Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data, new DimensionOptions { FactorsRule = FactorsRule.Fixed }));
         var ex = Assert.Throws<DataConditionException>(() => DimensionAnalysis.Run(data, new DimensionOptions { FixedFactors = 5 }));
         Assert.Contains("[1, 4]", ex.Message);
         Assert.Throws<ArgumentException>(() => DimensionAnalysis.Run(data, new DimensionOptions { Replicates = 0 }));

@@ -60,7 +60,7 @@ public class CongruenceRecoveryTests
     {
         var spec = FactorModelSpec.Simple(4, 6, 0.65, 0.25);
         var survey = FactorModelSimulator.Generate(spec, new FactorModelSimulator.Settings(1500, 77));
-        var result = ShortFormBuilder.Build(ItemReduce.Core.Data.ReverseScoring.Apply(survey.Responses), 4, new ShortFormOptions { ItemsPerScale = 3 });
+        var result = ShortFormBuilder.Build(ItemReduce.Core.Data.ReverseScoring.Apply(survey.Responses), 4, new ShortFormOptions { ItemsPerFactor = 3 });
         Assert.Equal(4, result.Scales.Count);
         Assert.All(result.Scales, sc => Assert.Equal(3, sc.SelectedItems.Count));
         // Every scale's items come from its own planted factor.

@@ -160,7 +160,7 @@ public class ListwiseCovarianceBatchTests
         var row = new double[raw.ItemCount];
         for (int i = 0; i < raw.RespondentCount; i++) { raw.CopyRow(i, row); b.Add(raw.RespondentIds[i], row); }
         var data = ReverseScoring.Apply(b.Build());
-        var result = ShortFormBuilder.Build(data, 2, new ShortFormOptions { HoldoutFraction = 0.4, Seed = 5, ItemsPerScale = 3 });
+        var result = ShortFormBuilder.Build(data, 2, new ShortFormOptions { HoldoutFraction = 0.4, Seed = 5, ItemsPerFactor = 3 });
         var holdout = data.SelectRespondents(result.HoldoutRows);
         var selection = data.SelectRespondents(Enumerable.Range(0, data.RespondentCount).Except(result.HoldoutRows).ToList());
         var names = data.Items.Select(i => i.Name).ToList();

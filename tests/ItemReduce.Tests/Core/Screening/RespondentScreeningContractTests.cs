@@ -130,18 +130,18 @@ public class RespondentScreeningContractTests
     [Theory]
     [InlineData(nameof(ScreeningOptions.CutoffP))]
     [InlineData(nameof(ScreeningOptions.RobustMaxRows))]
-    [InlineData(nameof(ScreeningOptions.LongStringShare))]
+    [InlineData(nameof(ScreeningOptions.RunShare))]
     [InlineData(nameof(ScreeningOptions.EvenOddFlagSubscales))]
-    [InlineData(nameof(ScreeningOptions.MissingShareLimit))]
+    [InlineData(nameof(ScreeningOptions.MissingLimit))]
     public void Out_of_range_options_are_rejected_with_their_name(string option)
     {
         var o = option switch
         {
             nameof(ScreeningOptions.CutoffP) => new ScreeningOptions { CutoffP = 0.7 },
             nameof(ScreeningOptions.RobustMaxRows) => new ScreeningOptions { RobustMaxRows = 5 },
-            nameof(ScreeningOptions.LongStringShare) => new ScreeningOptions { LongStringShare = 0 },
+            nameof(ScreeningOptions.RunShare) => new ScreeningOptions { RunShare = 0 },
             nameof(ScreeningOptions.EvenOddFlagSubscales) => new ScreeningOptions { EvenOddFlagSubscales = 3, EvenOddMinSubscales = 5 },
-            _ => new ScreeningOptions { MissingShareLimit = 1 },
+            _ => new ScreeningOptions { MissingLimit = 1 },
         };
         var data = ReverseScoring.Apply(Survey(50, 0, 7).Responses);
         var e = Assert.Throws<ArgumentException>(() => RespondentScreening.Run(data, o));

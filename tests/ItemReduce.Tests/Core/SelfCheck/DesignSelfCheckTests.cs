@@ -30,7 +30,7 @@ public class DesignSelfCheckTests
         {
             Seed = 9,
             Dimensions = new() { Replicates = 60, MaxDegreeOfParallelism = threads },
-            ShortForm = new() { ItemsPerScale = 3 },
+            ShortForm = new() { ItemsPerFactor = 3 },
             SelfCheck = new() { Surveys = surveys },
         };
         return (PreparedData.From(s.Responses), settings);

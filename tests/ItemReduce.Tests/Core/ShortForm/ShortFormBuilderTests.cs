@@ -169,7 +169,7 @@ public class ShortFormBuilderTests
         var result = ShortFormBuilder.Build(data, 3, new ShortFormOptions
         {
             Factoring = new() { Extraction = ItemReduce.Core.Factoring.FactorExtraction.MaximumLikelihood },
-            ItemsPerScale = 3,
+            ItemsPerFactor = 3,
         });
         Assert.Equal(["F1", "F2", "F3"], result.Scales.Select(s => s.Scale).Order());
         Assert.All(result.Scales, s => Assert.Equal(3, s.SelectedItems.Count));
