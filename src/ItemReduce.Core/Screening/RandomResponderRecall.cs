@@ -45,10 +45,18 @@ internal static class RandomResponderRecall
         string cutoff = cutoffP == 0.001 ? "" : string.Format(c, " (this run used cutoff p = {0}; the study used 0.001)", cutoffP);
         return string.Format(c,
             "Random answering is only partly detectable from the answers themselves. In our validation study with {0} five-point items " +
-            "(20 respondents per item, 5 % of answers missing, cutoff p = 0.001) the screening flagged {1:0}–{2:0} % of planted uniform-random responders with symmetric " +
-            "answer distributions and {3:0}–{4:0} % with skewed ones{7}; the most powerful test possible, which knows the true model, would flag about {5:0} % and {6:0} %. " +
+            "(20 respondents per item, 5 % of answers missing, cutoff p = 0.001) the screening flagged {1} % of planted uniform-random responders with symmetric " +
+            "answer distributions and {2} % with skewed ones{5}; the most powerful test possible, which knows the true model, would flag about {3:0} % and {4:0} %. " +
             "An unflagged respondent is therefore not shown to have answered attentively: use attention-check items or other evidence (such as completion times) " +
             "to find random answering, and treat the flags as prompts for human review.",
-            b.Items, b.SymmetricLow, b.SymmetricHigh, b.SkewedLow, b.SkewedHigh, b.BestSymmetric, b.BestSkewed, cutoff);
+            b.Items, Range(b.SymmetricLow, b.SymmetricHigh), Range(b.SkewedLow, b.SkewedHigh), b.BestSymmetric, b.BestSkewed, cutoff);
+    }
+
+    /// <summary>"92" when both ends round to the same whole percent, else "70–80".</summary>
+    private static string Range(double low, double high)
+    {
+        var c = CultureInfo.InvariantCulture;
+        string a = low.ToString("0", c), b = high.ToString("0", c);
+        return a == b ? a : a + "–" + b;
     }
 }

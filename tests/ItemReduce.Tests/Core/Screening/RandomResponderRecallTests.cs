@@ -50,5 +50,8 @@ public class RandomResponderRecallTests
         Assert.Contains("attention-check items", text);
         Assert.Contains("human review", text);
         Assert.Contains("this run used cutoff p = 0.01", RandomResponderRecall.Statement(24, 0.01)!);
+        foreach (var band in RandomResponderRecall.Bands) // a range whose ends round alike is one number ("92 %", not "92–92 %")
+            if (RandomResponderRecall.Statement(band.Items, 0.001) is { } s)
+                Assert.DoesNotMatch(@"\b(\d+)–\1 %", s);
     }
 }
