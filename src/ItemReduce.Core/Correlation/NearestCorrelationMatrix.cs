@@ -33,36 +33,36 @@ public static class NearestCorrelationMatrix
     public const int MaxIterations = 2000;
 
     /// <summary>
-    /// Returns <paramref name="r"/> unchanged when its smallest eigenvalue is ≥ <paramref name="eigenvalueFloor"/>,
+    /// Returns <paramref name="correlation"/> unchanged when its smallest eigenvalue is ≥ <paramref name="eigenvalueFloor"/>,
     /// otherwise the nearest correlation matrix whose eigenvalues are ≥ the floor.
     /// </summary>
-    /// <param name="r">Symmetric p × p matrix with unit diagonal (finite entries).</param>
+    /// <param name="correlation">Symmetric p × p matrix with unit diagonal (finite entries).</param>
     /// <param name="eigenvalueFloor">δ in (0, 0.5]; default <see cref="DefaultEigenvalueFloor"/>.</param>
     /// <param name="tolerance">Stop when ‖Y − X‖_F / ‖Y‖_F ≤ tolerance; in (0, 1e-2].</param>
     /// <exception cref="NonConvergenceException">No convergence within <see cref="MaxIterations"/>.</exception>
-    public static NearestCorrelationResult Find(double[,] r, double eigenvalueFloor = DefaultEigenvalueFloor, double tolerance = 1e-9)
+    public static NearestCorrelationResult Find(double[,] correlation, double eigenvalueFloor = DefaultEigenvalueFloor, double tolerance = 1e-9)
     {
-        MatrixChecks.SymmetricFinite(r, nameof(r));
+        MatrixChecks.SymmetricFinite(correlation, nameof(correlation));
         if (!(eigenvalueFloor > 0 && eigenvalueFloor <= 0.5))
             throw new ArgumentException($"eigenvalueFloor must lie in (0, 0.5], got {eigenvalueFloor}.", nameof(eigenvalueFloor));
         if (!(tolerance > 0 && tolerance <= 1e-2))
             throw new ArgumentException($"tolerance must lie in (0, 0.01], got {tolerance}.", nameof(tolerance));
-        int p = r.GetLength(0);
+        int p = correlation.GetLength(0);
         for (int j = 0; j < p; j++)
-            if (Math.Abs(r[j, j] - 1) > 1e-10)
-                throw new ArgumentException($"Diagonal element {j + 1} is {r[j, j]}, expected 1.", nameof(r));
+            if (Math.Abs(correlation[j, j] - 1) > 1e-10)
+                throw new ArgumentException($"Diagonal element {j + 1} is {correlation[j, j]}, expected 1.", nameof(correlation));
 
-        double minBefore = SymmetricEigensolver.Eigenvalues(r)[^1];
+        double minBefore = SymmetricEigensolver.Eigenvalues(correlation)[^1];
         if (minBefore >= eigenvalueFloor)
-            return new NearestCorrelationResult(r, false, minBefore, minBefore, 0, 0, 0);
+            return new NearestCorrelationResult(correlation, false, minBefore, minBefore, 0, 0, 0);
 
-        var (y, iterations) = AlternatingProjections(r, eigenvalueFloor, tolerance);
+        var (y, iterations) = AlternatingProjections(correlation, eigenvalueFloor, tolerance);
         var x = CleanUp(y, eigenvalueFloor);
         double maxAbs = 0, frob = 0;
         for (int i = 0; i < p; i++)
             for (int j = 0; j < p; j++)
             {
-                double d = x[i, j] - r[i, j];
+                double d = x[i, j] - correlation[i, j];
                 maxAbs = Math.Max(maxAbs, Math.Abs(d));
                 frob += d * d;
             }

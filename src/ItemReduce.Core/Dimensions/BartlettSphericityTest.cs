@@ -18,16 +18,17 @@ public sealed record BartlettSphericityResult(double ChiSquare, int DegreesOfFre
 /// </summary>
 internal static class BartlettSphericityTest
 {
-    /// <summary>Statistic, df and p-value for correlation matrix <paramref name="r"/> from <paramref name="respondents"/> respondents.</summary>
-    public static BartlettSphericityResult Compute(double[,] r, int respondents)
+    /// <summary>Statistic, df and p-value for correlation matrix <paramref name="correlation"/> from
+    /// <paramref name="respondents"/> respondents.</summary>
+    public static BartlettSphericityResult Compute(double[,] correlation, int respondents)
     {
-        MatrixChecks.SymmetricFinite(r, nameof(r));
-        int p = r.GetLength(0);
-        if (p < 2) throw new DataConditionException($"The sphericity test needs at least 2 items, got {p}.", nameof(r));
+        MatrixChecks.SymmetricFinite(correlation, nameof(correlation));
+        int p = correlation.GetLength(0);
+        if (p < 2) throw new DataConditionException($"The sphericity test needs at least 2 items, got {p}.", nameof(correlation));
         double factor = respondents - 1 - (2.0 * p + 5) / 6;
         if (!(factor > 0))
             throw new DataConditionException($"The sphericity test needs n − 1 − (2p + 5)/6 > 0; got n = {respondents}, p = {p}.", nameof(respondents));
-        double chi = -factor * CholeskyDecomposition.LogDeterminant(r);
+        double chi = -factor * CholeskyDecomposition.LogDeterminant(correlation);
         int df = p * (p - 1) / 2;
         double pValue = SpecialFunctions.GammaUpperRegularized(df / 2.0, chi / 2);
         return new BartlettSphericityResult(chi, df, pValue);

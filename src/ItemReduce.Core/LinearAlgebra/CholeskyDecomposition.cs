@@ -11,36 +11,36 @@ namespace ItemReduce.Core.LinearAlgebra;
 /// </summary>
 public static class CholeskyDecomposition
 {
-    /// <summary>Inverse of the symmetric positive-definite matrix <paramref name="a"/> (input unchanged).</summary>
-    public static double[,] Inverse(double[,] a)
+    /// <summary>Inverse of the symmetric positive-definite matrix <paramref name="matrix"/> (input unchanged).</summary>
+    public static double[,] Inverse(double[,] matrix)
     {
-        MatrixChecks.SymmetricFinite(a, nameof(a));
-        int n = a.GetLength(0);
-        var l = MatrixChecks.ToRowMajor(a);
+        MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
+        int n = matrix.GetLength(0);
+        var l = MatrixChecks.ToRowMajor(matrix);
         FactorInPlace(l, n);
         return MatrixChecks.FromRowMajor(InverseFromFactor(l, n), n);
     }
 
-    /// <summary>ln det A of the symmetric positive-definite matrix <paramref name="a"/> = 2 Σ ln L_ii.</summary>
-    public static double LogDeterminant(double[,] a)
+    /// <summary>ln det A of the symmetric positive-definite matrix <paramref name="matrix"/> = 2 Σ ln L_ii.</summary>
+    public static double LogDeterminant(double[,] matrix)
     {
-        MatrixChecks.SymmetricFinite(a, nameof(a));
-        int n = a.GetLength(0);
-        var l = MatrixChecks.ToRowMajor(a);
+        MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
+        int n = matrix.GetLength(0);
+        var l = MatrixChecks.ToRowMajor(matrix);
         FactorInPlace(l, n);
         double s = 0;
         for (int i = 0; i < n; i++) s += Math.Log(l[i * n + i]);
         return 2 * s;
     }
 
-    /// <summary>True when the symmetric matrix <paramref name="a"/> has a Cholesky factor whose every pivot exceeds
+    /// <summary>True when the symmetric matrix <paramref name="matrix"/> has a Cholesky factor whose every pivot exceeds
     /// <paramref name="relativePivotTolerance"/> times its diagonal element (0 = positive definite to working precision);
     /// <paramref name="logDeterminant"/> is then ln det A, else NaN. Input not modified.</summary>
-    public static bool TryLogDeterminant(double[,] a, double relativePivotTolerance, out double logDeterminant)
+    public static bool TryLogDeterminant(double[,] matrix, double relativePivotTolerance, out double logDeterminant)
     {
-        MatrixChecks.SymmetricFinite(a, nameof(a));
-        int n = a.GetLength(0);
-        var l = MatrixChecks.ToRowMajor(a);
+        MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
+        int n = matrix.GetLength(0);
+        var l = MatrixChecks.ToRowMajor(matrix);
         logDeterminant = double.NaN;
         try
         {

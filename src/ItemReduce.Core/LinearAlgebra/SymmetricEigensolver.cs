@@ -34,24 +34,24 @@ public static class SymmetricEigensolver
     /// <summary>QL sweeps allowed per eigenvalue before giving up (EISPACK uses 30; we allow 60).</summary>
     public const int MaxIterationsPerEigenvalue = 60;
 
-    /// <summary>Eigenvalues of the symmetric matrix <paramref name="a"/> (p × p), descending.
+    /// <summary>Eigenvalues of the symmetric matrix <paramref name="matrix"/> (p × p), descending.
     /// The input is not modified.</summary>
     /// <exception cref="ArgumentException">Not square, not symmetric, or non-finite.</exception>
     /// <exception cref="NonConvergenceException">The QL iteration exceeded its cap.</exception>
-    public static double[] Eigenvalues(double[,] a)
+    public static double[] Eigenvalues(double[,] matrix)
     {
-        MatrixChecks.SymmetricFinite(a, nameof(a));
-        int n = a.GetLength(0);
-        return EigenvaluesInPlace(MatrixChecks.ToRowMajor(a), n, new double[n], new double[n], new double[2 * n]);
+        MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
+        int n = matrix.GetLength(0);
+        return EigenvaluesInPlace(MatrixChecks.ToRowMajor(matrix), n, new double[n], new double[n], new double[2 * n]);
     }
 
-    /// <summary>Eigenvalues and eigenvectors of <paramref name="a"/>: values descending, vectors as the
+    /// <summary>Eigenvalues and eigenvectors of <paramref name="matrix"/>: values descending, vectors as the
     /// columns of a p × p matrix (unit length, largest-magnitude element positive). Input not modified.</summary>
-    public static (double[] Values, double[,] Vectors) Decompose(double[,] a)
+    public static (double[] Values, double[,] Vectors) Decompose(double[,] matrix)
     {
-        MatrixChecks.SymmetricFinite(a, nameof(a));
-        int n = a.GetLength(0);
-        var w = MatrixChecks.ToRowMajor(a);
+        MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
+        int n = matrix.GetLength(0);
+        var w = MatrixChecks.ToRowMajor(matrix);
         var d = new double[n];
         var e = new double[n];
         var h = new double[n];
@@ -61,17 +61,17 @@ public static class SymmetricEigensolver
         return SortDescending(d, zt, n);
     }
 
-    /// <summary>The <paramref name="k"/> algebraically largest eigenvalues of <paramref name="a"/> (descending) and their
+    /// <summary>The <paramref name="k"/> algebraically largest eigenvalues of <paramref name="matrix"/> (descending) and their
     /// eigenvectors (columns of a p × k matrix; unit length, largest-magnitude element positive) by the Lanczos process
     /// with full reorthogonalisation (<see cref="LanczosIteration"/>): each residual ‖A v − λ v‖ is at most
     /// 1e-12 ‖A‖_F. Input not modified.</summary>
     /// <exception cref="ArgumentException">Not square, not symmetric, non-finite, or k outside [1, p].</exception>
-    public static (double[] Values, double[,] Vectors) LeadingDecompose(double[,] a, int k)
+    public static (double[] Values, double[,] Vectors) LeadingDecompose(double[,] matrix, int k)
     {
-        MatrixChecks.SymmetricFinite(a, nameof(a));
-        int n = a.GetLength(0);
+        MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
+        int n = matrix.GetLength(0);
         if (k < 1 || k > n) throw new ArgumentException($"k must lie in [1, {n}], got {k}.", nameof(k));
-        var (values, rows) = Leading(MatrixChecks.ToRowMajor(a), n, k);
+        var (values, rows) = Leading(MatrixChecks.ToRowMajor(matrix), n, k);
         var vectors = new double[n, k];
         for (int c = 0; c < k; c++)
             for (int i = 0; i < n; i++) vectors[i, c] = rows[c * n + i];
