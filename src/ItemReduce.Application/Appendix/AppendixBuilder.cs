@@ -27,29 +27,30 @@ internal static partial class AppendixBuilder
     /// <summary>Title of the table of settings in section 1.</summary>
     public const string SettingsTableTitle = "Settings of this run";
 
-    public static AppendixDocument Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
+    public static AppendixDocument Build(JobSettings settings, LoadedSurvey survey, PipelineResult result)
     {
         var b = new Builder();
         var refs = new SortedSet<string>(StringComparer.Ordinal);
-        DataSection(b, settings, survey, r, refs);
-        if (r.Screening is { } s) ScreeningSection(b, r, s, refs);
-        if (r.Dimensions is { } d)
+        DataSection(b, settings, survey, result, refs);
+        if (result.Screening is { } s) ScreeningSection(b, result, s, refs);
+        if (result.Dimensions is { } d)
         {
-            FactorabilitySection(b, r, d, refs);
-            DimensionsSection(b, r, d, refs);
+            FactorabilitySection(b, result, d, refs);
+            DimensionsSection(b, result, d, refs);
         }
-        if (r.ShortForm is { } sf)
+        if (result.ShortForm is { } sf)
         {
-            SolutionSection(b, r, sf, refs);
-            ReliabilitySection(b, r, sf, refs);
+            SolutionSection(b, result, sf, refs);
+            ReliabilitySection(b, result, sf, refs);
         }
-        if (r.Confirmatory is { } cfa) ConfirmatorySection(b, r, cfa, refs);
-        if (r.ShortForm is not null) ItemDescriptivesSection(b, r, refs);
-        if (r.SelfCheck is { } check) SelfCheckSection(b, r, check, refs);
-        CautionsSection(b, r);
+        if (result.Confirmatory is { } cfa) ConfirmatorySection(b, result, cfa, refs);
+        if (result.ShortForm is not null) ItemDescriptivesSection(b, result, refs);
+        if (result.SelfCheck is { } check) SelfCheckSection(b, result, check, refs);
+        CautionsSection(b, result);
         b.Heading(1, "References");
         b.Add(new ReferenceListBlock(refs.ToList()));
-        string subtitle = $"{Path.GetFileName(settings.Responses)} · {r.Prepared.Raw.RespondentCount} respondents · {r.Prepared.Raw.ItemCount} items";
+        var raw = result.Prepared.Raw;
+        string subtitle = $"{Path.GetFileName(settings.Responses)} · {raw.RespondentCount} respondents · {raw.ItemCount} items";
         return new AppendixDocument("Methods appendix: respondent screening, dimensionality and short form", subtitle,
             settings.StartedUtc, $"itemreduce {SurveyJob.Version}", b.Blocks)
         {

@@ -8,12 +8,12 @@ namespace ItemReduce.Application.Jobs;
 /// summary.json and the appendix alike.</summary>
 public static class RunWarnings
 {
-    /// <summary>Every warning of <paramref name="r"/>.</summary>
-    public static IReadOnlyList<AnalysisWarning> Of(PipelineResult r)
+    /// <summary>Every warning of <paramref name="result"/>.</summary>
+    public static IReadOnlyList<AnalysisWarning> Of(PipelineResult result)
     {
-        ArgumentNullException.ThrowIfNull(r);
-        return r.Prepared.Warnings.Concat(r.Warnings).Concat(r.Screening?.Warnings ?? []).Concat(r.Dimensions?.Warnings ?? [])
-            .Concat(r.ShortForm?.Warnings ?? []).Concat(r.Confirmatory?.Warnings ?? []).Concat(r.SelfCheck?.Warnings ?? []).ToList();
+        ArgumentNullException.ThrowIfNull(result);
+        return result.Prepared.Warnings.Concat(result.Warnings).Concat(result.Screening?.Warnings ?? []).Concat(result.Dimensions?.Warnings ?? [])
+            .Concat(result.ShortForm?.Warnings ?? []).Concat(result.Confirmatory?.Warnings ?? []).Concat(result.SelfCheck?.Warnings ?? []).ToList();
     }
 }
 
@@ -31,6 +31,6 @@ public static class WarningLines
     }
 
     /// <summary>One line.</summary>
-    public static string Format(AnalysisWarning w, int number, int count) =>
-        string.Create(CultureInfo.InvariantCulture, $"itemreduce: warning {number} of {count} ({w.Stage}, {w.Code}): {w.Message.ReplaceLineEndings(" ")}");
+    public static string Format(AnalysisWarning warning, int number, int count) =>
+        string.Create(CultureInfo.InvariantCulture, $"itemreduce: warning {number} of {count} ({warning.Stage}, {warning.Code}): {warning.Message.ReplaceLineEndings(" ")}");
 }

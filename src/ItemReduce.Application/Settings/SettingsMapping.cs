@@ -21,35 +21,35 @@ public sealed record TerminalSettings(bool Quiet, bool Progress, bool Verbose, b
 /// </summary>
 public static class SettingsMapping
 {
-    /// <summary>The job settings of <paramref name="v"/>; <paramref name="plan"/> is the plan read, if any.</summary>
+    /// <summary>The job settings of <paramref name="values"/>; <paramref name="plan"/> is the plan read, if any.</summary>
     /// <exception cref="SurveyInputException">No responses or codebook given.</exception>
-    public static JobSettings ToJob(SettingValues v, PlanContents? plan = null)
+    public static JobSettings ToJob(SettingValues values, PlanContents? plan = null)
     {
-        ArgumentNullException.ThrowIfNull(v);
-        string responses = v.Text("responses")
+        ArgumentNullException.ThrowIfNull(values);
+        string responses = values.Text("responses")
             ?? throw new SurveyInputException("no responses file given. Fix: add --responses FILE (or \"responses\" in the plan).");
-        string codebook = v.Text("codebook")
+        string codebook = values.Text("codebook")
             ?? throw new SurveyInputException("no codebook given. Fix: add --codebook FILE (or \"codebook\" in the plan).");
         var defaults = new PipelineSettings();
         var screening = defaults.Screening with
         {
-            CutoffP = v.Number("cutoff-p"),
-            UseRobust = v.Text("distance") == "robust",
-            RunShare = v.Number("run-share"),
-            FlatSd = v.Number("flat-sd"),
-            MissingLimit = v.Number("missing-limit"),
+            CutoffP = values.Number("cutoff-p"),
+            UseRobust = values.Text("distance") == "robust",
+            RunShare = values.Number("run-share"),
+            FlatSd = values.Number("flat-sd"),
+            MissingLimit = values.Number("missing-limit"),
         };
         var dimensions = defaults.Dimensions with
         {
-            Replicates = (int)v.Integer("replicates")!.Value,
-            Percentile = v.Number("percentile"),
-            Reference = (v.Text("reference") ?? (v.Text("correlation") == "polychoric" ? "ordinal" : "normal")) switch
+            Replicates = (int)values.Integer("replicates")!.Value,
+            Percentile = values.Number("percentile"),
+            Reference = (values.Text("reference") ?? (values.Text("correlation") == "polychoric" ? "ordinal" : "normal")) switch
             {
                 "permutation" => ReferenceKind.Permutation,
                 "ordinal" => ReferenceKind.Ordinal,
                 _ => ReferenceKind.Normal,
             },
-            FactorsRule = v.Text("factors-rule") switch
+            FactorsRule = values.Text("factors-rule") switch
             {
                 "parallel" => FactorsRule.Parallel,
                 "map" => FactorsRule.Map,
@@ -59,20 +59,20 @@ public static class SettingsMapping
                 "combined" => FactorsRule.Combined,
                 _ => FactorsRule.ParallelReduced,
             },
-            FixedFactors = v.Integer("factors") is ulong k ? (int)k : null,
-            MaxDegreeOfParallelism = v.Integer("threads") is ulong t ? (int)t : -1,
+            FixedFactors = values.Integer("factors") is ulong k ? (int)k : null,
+            MaxDegreeOfParallelism = values.Integer("threads") is ulong t ? (int)t : -1,
         };
         var shortForm = defaults.ShortForm with
         {
             Factoring = defaults.ShortForm.Factoring with
             {
-                Extraction = v.Text("extraction") switch
+                Extraction = values.Text("extraction") switch
                 {
                     "paf" => FactorExtraction.PrincipalAxis,
                     "ml" => FactorExtraction.MaximumLikelihood,
                     _ => FactorExtraction.MinimumResidual,
                 },
-                Rotation = v.Text("rotation") switch
+                Rotation = values.Text("rotation") switch
                 {
                     "promax" => FactorRotation.Promax,
                     "varimax" => FactorRotation.Varimax,
@@ -80,23 +80,23 @@ public static class SettingsMapping
                     _ => FactorRotation.Oblimin,
                 },
             },
-            ItemsPerFactor = (int)v.Integer("items-per-factor")!.Value,
-            ScaleTargets = v["scale-targets"] is IReadOnlyList<KeyValuePair<string, int>> targets
+            ItemsPerFactor = (int)values.Integer("items-per-factor")!.Value,
+            ScaleTargets = values["scale-targets"] is IReadOnlyList<KeyValuePair<string, int>> targets
                 ? targets.ToDictionary(kv => kv.Key, kv => kv.Value, StringComparer.Ordinal) : null,
-            HoldoutFraction = v.Number("holdout"),
+            HoldoutFraction = values.Number("holdout"),
         };
         var pipeline = defaults with
         {
-            Seed = v.Integer("seed")!.Value,
+            Seed = values.Integer("seed")!.Value,
             Correlation = new CorrelationOptions
             {
-                Kind = v.Text("correlation") == "polychoric" ? CorrelationKind.Polychoric : CorrelationKind.Pearson,
-                MissingData = v.Text("missing-data") == "listwise" ? MissingDataHandling.Listwise : MissingDataHandling.Pairwise,
+                Kind = values.Text("correlation") == "polychoric" ? CorrelationKind.Polychoric : CorrelationKind.Pearson,
+                MissingData = values.Text("missing-data") == "listwise" ? MissingDataHandling.Listwise : MissingDataHandling.Pairwise,
             },
             Screening = screening,
-            KeepFlagged = v.Flag("keep-flagged"),
-            Confirmatory = v.Flag("confirmatory"),
-            SelfCheck = defaults.SelfCheck with { Surveys = (int)v.Integer("self-check")!.Value, IsDefault = !v.IsGiven("self-check") },
+            KeepFlagged = values.Flag("keep-flagged"),
+            Confirmatory = values.Flag("confirmatory"),
+            SelfCheck = defaults.SelfCheck with { Surveys = (int)values.Integer("self-check")!.Value, IsDefault = !values.IsGiven("self-check") },
             Dimensions = dimensions,
             ShortForm = shortForm,
         };
@@ -104,20 +104,22 @@ public static class SettingsMapping
         {
             Responses = responses,
             Codebook = codebook,
-            Plan = plan?.Path ?? v.Text("plan"),
+            Plan = plan?.Path ?? values.Text("plan"),
             PlanSha256 = plan?.Sha256,
-            Out = v.Text("out")!,
-            Force = v.Flag("force"),
-            Intake = new IntakeOptions(Delimiter(v.Text("delimiter")), v.IsGiven("missing") ? (IReadOnlyList<string>)v["missing"]! : null, v.Text("id-column"),
-                (int)v.Integer("skip-rows")!.Value),
+            Out = values.Text("out")!,
+            Force = values.Flag("force"),
+            Intake = new IntakeOptions(Delimiter(values.Text("delimiter")),
+                values.IsGiven("missing") ? (IReadOnlyList<string>)values["missing"]! : null, values.Text("id-column"),
+                (int)values.Integer("skip-rows")!.Value),
             Pipeline = pipeline,
-            NoPdf = v.Flag("no-pdf"),
-            Values = v,
+            NoPdf = values.Flag("no-pdf"),
+            Values = values,
         };
     }
 
-    /// <summary>The terminal settings of <paramref name="v"/>.</summary>
-    public static TerminalSettings ToTerminal(SettingValues v) => new(v.Flag("quiet"), v.Flag("progress"), v.Flag("verbose"), v.Flag("json"));
+    /// <summary>The terminal settings of <paramref name="values"/>.</summary>
+    public static TerminalSettings ToTerminal(SettingValues values) =>
+        new(values.Flag("quiet"), values.Flag("progress"), values.Flag("verbose"), values.Flag("json"));
 
     private static char? Delimiter(string? name) => name switch
     {

@@ -15,14 +15,14 @@ namespace ItemReduce.Application.Summary;
 /// <summary>Builds <c>summary.json</c>: every count, decision and rule of the run, in a fixed key order.</summary>
 internal static class SummaryJson
 {
-    public static JsonObject Build(JobSettings settings, LoadedSurvey survey, PipelineResult r)
+    public static JsonObject Build(JobSettings settings, LoadedSurvey survey, PipelineResult result)
     {
-        var prepared = r.Prepared;
+        var prepared = result.Prepared;
         var rows = SettingsRecord.Rows(settings);
         var root = new JsonObject
         {
             ["tool"] = new JsonObject { ["name"] = "itemreduce", ["version"] = SurveyJob.Version },
-            ["scope"] = r.Settings.Scope.ToString().ToLowerInvariant(),
+            ["scope"] = result.Settings.Scope.ToString().ToLowerInvariant(),
             ["inputs"] = new JsonObject
             {
                 ["responses"] = Path.GetFileName(settings.Responses),
@@ -37,19 +37,19 @@ internal static class SummaryJson
             ["options"] = new JsonObject(rows.Select(x => KeyValuePair.Create(x.Setting.Name, SettingsRecord.Json(x.Value)))),
             ["optionsGiven"] = new JsonObject(rows.Where(x => x.Source != "default").Select(x => KeyValuePair.Create(x.Setting.Name, (JsonNode?)x.Source))),
             ["seed"] = settings.Seed,
-            ["respondents"] = Respondents(r),
+            ["respondents"] = Respondents(result),
             ["items"] = new JsonObject
             {
                 ["total"] = prepared.Raw.ItemCount,
-                ["analysed"] = r.Analysed.ItemCount,
+                ["analysed"] = result.Analysed.ItemCount,
                 ["reverseKeyed"] = Strs(prepared.Raw.Items.Where(i => i.Reverse).Select(i => i.Name)),
             },
-            ["excludedItems"] = new JsonArray(prepared.ExcludedItems.Concat(r.ExcludedAfterScreening).Select(Excluded).ToArray()),
+            ["excludedItems"] = new JsonArray(prepared.ExcludedItems.Concat(result.ExcludedAfterScreening).Select(Excluded).ToArray()),
             ["missingShare"] = Num(prepared.RawSummary.MissingShare),
         };
-        if (r.Screening is { } s) root["screening"] = Screening(s);
-        root["factors"] = Factors(r);
-        if (CorrelationTable.Of(r) is { } used)
+        if (result.Screening is { } s) root["screening"] = Screening(s);
+        root["factors"] = Factors(result);
+        if (CorrelationTable.Of(result) is { } used)
         {
             root["correlation"] = new JsonObject
             {
@@ -59,11 +59,11 @@ internal static class SummaryJson
                 ["sampleRespondents"] = used.SampleRespondents,
                 ["stage"] = used.Stage,
                 ["file"] = CorrelationTable.FileName,
-                ["smoothed"] = r.Dimensions?.SmoothingApplied,
-                ["smoothingMaxChange"] = r.Dimensions is { } dd ? Num(dd.Smoothing.MaxAbsoluteChange) : null,
+                ["smoothed"] = result.Dimensions?.SmoothingApplied,
+                ["smoothingMaxChange"] = result.Dimensions is { } dd ? Num(dd.Smoothing.MaxAbsoluteChange) : null,
             };
         }
-        if (r.Dimensions is { } d)
+        if (result.Dimensions is { } d)
         {
             root["effectiveRespondents"] = d.EffectiveRespondents;
             root["eigenvalues"] = Nums(d.Eigenvalues);
@@ -81,13 +81,13 @@ internal static class SummaryJson
                 root["parallelAnalysis"]!["subsampled"] = d.Reference.Subsampled;
             }
             root["kmo"] = Num(d.Kmo);
-            root["msa"] = new JsonObject(r.Analysed.Items.Select((it, j) => KeyValuePair.Create(it.Name, Num(d.Msa[j]))));
+            root["msa"] = new JsonObject(result.Analysed.Items.Select((it, j) => KeyValuePair.Create(it.Name, Num(d.Msa[j]))));
             root["bartlett"] = new JsonObject { ["chi2"] = Num(d.Bartlett.ChiSquare), ["df"] = d.Bartlett.DegreesOfFreedom, ["p"] = Num(d.Bartlett.P) };
         }
-        if (r.ShortForm is { } sf) AddShortForm(root, r, sf);
-        if (r.Confirmatory is { } cfa) root["confirmatory"] = Confirmatory(cfa);
-        if (r.SelfCheck is { } check) root["selfCheck"] = SelfCheckTables.Json(check);
-        root["warnings"] = new JsonArray(RunWarnings.Of(r).Select(w => (JsonNode?)new JsonObject
+        if (result.ShortForm is { } sf) AddShortForm(root, result, sf);
+        if (result.Confirmatory is { } cfa) root["confirmatory"] = Confirmatory(cfa);
+        if (result.SelfCheck is { } check) root["selfCheck"] = SelfCheckTables.Json(check);
+        root["warnings"] = new JsonArray(RunWarnings.Of(result).Select(w => (JsonNode?)new JsonObject
         {
             ["code"] = w.Code,
             ["stage"] = w.Stage,

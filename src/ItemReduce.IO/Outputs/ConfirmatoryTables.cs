@@ -20,11 +20,11 @@ public static class ConfirmatoryTables
     public static string EstimatorName(ConfirmatoryEstimator e) => e == ConfirmatoryEstimator.MaximumLikelihood ? "ML" : "FIML";
 
     /// <summary><c>confirmatory-fit.csv</c>: one row per fitted form and sample.</summary>
-    public static string Fit(ConfirmatoryCheckResult c)
+    public static string Fit(ConfirmatoryCheckResult check)
     {
         var w = new SafeCsvWriter(["form", "sample", "respondents", "estimator", "chi2", "df", "p_value", "cfi", "tli", "rmsea", "rmsea_ci_low",
             "rmsea_ci_high", "srmr", "scaled_chi2", "scaling_factor", "robust_cfi", "robust_tli", "robust_rmsea"]);
-        foreach (var fit in c.Fits)
+        foreach (var fit in check.Fits)
         {
             if (fit.Result is not { } r) continue;
             var f = r.Fit;
@@ -37,10 +37,10 @@ public static class ConfirmatoryTables
     }
 
     /// <summary><c>confirmatory-loadings.csv</c>: loadings (item set) then factor correlations (item empty, factor "A~B").</summary>
-    public static string Loadings(ConfirmatoryCheckResult c)
+    public static string Loadings(ConfirmatoryCheckResult check)
     {
         var w = new SafeCsvWriter(["form", "sample", "item", "factor", "estimate", "se", "standardized"]);
-        foreach (var fit in c.Fits)
+        foreach (var fit in check.Fits)
         {
             if (fit.Result is not { } r) continue;
             foreach (var e in r.Estimates)
@@ -52,10 +52,10 @@ public static class ConfirmatoryTables
 
     /// <summary>Composite reliability of <paramref name="scale"/> from the fit of the given form and reliability sample; NaN when
     /// there is none.</summary>
-    public static double CompositeReliability(ConfirmatoryCheckResult? c, string scale, ScaleForm form, SampleRole role)
+    public static double CompositeReliability(ConfirmatoryCheckResult? check, string scale, ScaleForm form, SampleRole role)
     {
         var sample = role == SampleRole.Holdout ? ConfirmatorySample.Holdout : ConfirmatorySample.Analysis;
-        var r = c?.Fits.FirstOrDefault(f => f.Form == form && f.Sample == sample)?.Result;
+        var r = check?.Fits.FirstOrDefault(f => f.Form == form && f.Sample == sample)?.Result;
         if (r is null) return double.NaN;
         int k = r.Factors.ToList().IndexOf(scale);
         return k < 0 ? double.NaN : r.CompositeReliability[k];

@@ -23,14 +23,14 @@ public static class CorrelationTable
 
     /// <summary>The matrix of the factor solutions when they were fitted, else that of the dimensions stage; null when
     /// neither ran.</summary>
-    public static CorrelationTableData? Of(PipelineResult r)
+    public static CorrelationTableData? Of(PipelineResult result)
     {
-        ArgumentNullException.ThrowIfNull(r);
-        if (r.ShortForm?.Correlation is { } c)
+        ArgumentNullException.ThrowIfNull(result);
+        if (result.ShortForm?.Correlation is { } c)
             return new CorrelationTableData(c.Kind, c.MissingData, c.Matrix, c.Respondents, c.SampleRespondents, "factoring");
-        if (r.Dimensions is { } d)
+        if (result.Dimensions is { } d)
             return new CorrelationTableData(d.CorrelationKind, d.MissingData, d.CorrelationMatrix, d.EffectiveRespondents,
-                r.Analysed.RespondentCount, "dimensions");
+                result.Analysed.RespondentCount, "dimensions");
         return null;
     }
 

@@ -14,20 +14,20 @@ public static class DimensionTables
     /// reference and the comparison-data fit (row c: mean RMSR of a population with c factors and the p-value of
     /// "c factors fit better than c − 1"; empty where that population was not tried).
     /// </summary>
-    public static string Eigenvalues(DimensionResult d)
+    public static string Eigenvalues(DimensionResult dimensions)
     {
         var w = new SafeCsvWriter(["component", "observed", "reference_mean", "reference_percentile", "retained",
             "share_of_variance", "reduced_observed", "reduced_reference_mean", "reduced_reference_percentile",
             "empirical_kaiser_reference", "comparison_rmsr", "comparison_p_value"]);
-        var rows = d.Components;
-        int p = d.Eigenvalues.Length;
-        var share = d.ProportionOfVariance;
+        var rows = dimensions.Components;
+        int p = dimensions.Eigenvalues.Length;
+        var share = dimensions.ProportionOfVariance;
         for (int c = 0; c < p; c++)
         {
-            w.AppendRow([Integer(c + 1), Number(d.Eigenvalues[c], Decimals), Number(d.ReferenceMean[c], Decimals),
-                Number(d.ReferencePercentile[c], Decimals), Bool(c < d.Retained), Number(share[c], Decimals),
-                Number(At(d.ReducedEigenvalues, c), Decimals), Number(At(d.ReducedReferenceMean, c), Decimals),
-                Number(At(d.ReducedReferencePercentile, c), Decimals),
+            w.AppendRow([Integer(c + 1), Number(dimensions.Eigenvalues[c], Decimals), Number(dimensions.ReferenceMean[c], Decimals),
+                Number(dimensions.ReferencePercentile[c], Decimals), Bool(c < dimensions.Retained), Number(share[c], Decimals),
+                Number(At(dimensions.ReducedEigenvalues, c), Decimals), Number(At(dimensions.ReducedReferenceMean, c), Decimals),
+                Number(At(dimensions.ReducedReferencePercentile, c), Decimals),
                 Number(rows[c].EmpiricalKaiserReference, Decimals), Number(rows[c].ComparisonRmsr ?? double.NaN, Decimals),
                 Number(rows[c].ComparisonPValue ?? double.NaN, Decimals)]);
         }
@@ -35,11 +35,11 @@ public static class DimensionTables
     }
 
     /// <summary><c>map.csv</c>: components removed, average squared partial correlation (1976) and average fourth power (2000).</summary>
-    public static string Map(DimensionResult d)
+    public static string Map(DimensionResult dimensions)
     {
         var w = new SafeCsvWriter(["components_removed", "average_squared_partial", "average_fourth_power_partial"]);
-        for (int m = 0; m < d.MapCurve.Length; m++)
-            w.AppendRow([Integer(m), Number(d.MapCurve[m]), Number(At(d.MapRevisedCurve, m))]);
+        for (int m = 0; m < dimensions.MapCurve.Length; m++)
+            w.AppendRow([Integer(m), Number(dimensions.MapCurve[m]), Number(At(dimensions.MapRevisedCurve, m))]);
         return w.ToString();
     }
 

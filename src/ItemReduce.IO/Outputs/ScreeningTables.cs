@@ -15,10 +15,10 @@ public static class ScreeningTables
     /// robust_d2, cutoff, p_value, long_string, irv, missing_share, flagged, reasons (then robust_p_value, even_odd,
     /// alternating_run, person_total, synonyms, antonyms, random_answer_llr, and sample when <paramref name="samples"/> is given).
     /// </summary>
-    public static string RespondentFlags(ScreeningResult r, IReadOnlyList<string>? samples = null)
+    public static string RespondentFlags(ScreeningResult screening, IReadOnlyList<string>? samples = null)
     {
         using var bytes = new MemoryStream();
-        WriteRespondentFlags(r, bytes, samples);
+        WriteRespondentFlags(screening, bytes, samples);
         return Utf8NoBom.GetString(bytes.GetBuffer(), 0, (int)bytes.Length);
     }
 
@@ -26,13 +26,13 @@ public static class ScreeningTables
 
     /// <summary>Streams <c>respondent-flags.csv</c> as UTF-8 (no BOM; same text as <see cref="RespondentFlags"/>) to
     /// <paramref name="sink"/> block by block, so a large panel never becomes one string in memory.</summary>
-    /// <param name="r">Screening result.</param>
+    /// <param name="screening">Screening result.</param>
     /// <param name="sink">Destination.</param>
     /// <param name="samples">Optional: one sample label per respondent (<see cref="Core.Pipeline.RespondentSamples"/>), written as
     /// the last column <c>sample</c>.</param>
-    public static void WriteRespondentFlags(ScreeningResult r, Stream sink, IReadOnlyList<string>? samples = null)
+    public static void WriteRespondentFlags(ScreeningResult screening, Stream sink, IReadOnlyList<string>? samples = null)
     {
-        ArgumentNullException.ThrowIfNull(r);
+        ArgumentNullException.ThrowIfNull(screening);
         ArgumentNullException.ThrowIfNull(sink);
         var header = new SafeCsvWriter(["respondent", "items_answered", "d2", "robust_d2", "cutoff", "p_value", "long_string", "irv",
             "missing_share", "flagged", "reasons", "robust_p_value", "even_odd", "alternating_run", "person_total", "synonyms", "antonyms",
@@ -43,7 +43,7 @@ public static class ScreeningTables
         // Number, Bool), so no per-cell strings are made; reason cells are cached per reason list. Blocks of rows are
         // formatted in parallel and written in input order.
         var reasonCells = new System.Collections.Concurrent.ConcurrentDictionary<IReadOnlyList<string>, byte[]>(ReferenceEqualityComparer.Instance);
-        var rows = r.Respondents;
+        var rows = screening.Respondents;
         int n = rows.Count, blocks = Math.Max(1, Environment.ProcessorCount) * 2;
         var buffers = new RowBuffer[blocks];
         for (int b = 0; b < blocks; b++) buffers[b] = new RowBuffer();
@@ -191,10 +191,10 @@ public static class ScreeningTables
     /// <c>centre-share-by-items.csv</c>: for k items, the share of a standardized normal sample inside the
     /// half-peak-density region and beyond the chi-square cutoff.
     /// </summary>
-    public static string CentreShareByItems(ScreeningResult r)
+    public static string CentreShareByItems(ScreeningResult screening)
     {
         var w = new SafeCsvWriter(["items", "share_inside_half_peak", "share_beyond_cutoff", "cutoff"]);
-        foreach (var h in r.CentreShareByItems)
+        foreach (var h in screening.CentreShareByItems)
             w.AppendRow([Integer(h.Items), Number(h.ShareInsideHalfPeak), Number(h.ShareBeyondCutoff), Number(h.Cutoff, Decimals)]);
         return w.ToString();
     }

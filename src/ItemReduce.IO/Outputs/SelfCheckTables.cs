@@ -32,28 +32,28 @@ public static class SelfCheckTables
     public static string SamplePrefix(SampleRole role) => role == SampleRole.Holdout ? "holdout" : "short_form";
 
     /// <summary>Every quantity, in table order: screening, dimensions, item stability, reliability.</summary>
-    public static IReadOnlyList<SelfCheckRow> Rows(SelfCheckResult c)
+    public static IReadOnlyList<SelfCheckRow> Rows(SelfCheckResult selfCheck)
     {
-        ArgumentNullException.ThrowIfNull(c);
+        ArgumentNullException.ThrowIfNull(selfCheck);
         var rows = new List<SelfCheckRow>();
         SelfCheckRow Rate(string q, RateEstimate r, int surveys)
         {
             var (lo, hi) = r.Interval;
             return new SelfCheckRow(q, r.Rate, lo, hi, surveys, true, double.NaN);
         }
-        if (c.FalseFlags is { } ff) rows.Add(Rate("screening.false_flag_rate", ff, c.Completed));
-        foreach (var r in c.Recall) rows.Add(Rate("screening.recall." + Snake(r.Kind), r.Recall, c.Completed));
-        if (c.DimensionRecovery is { } rec)
+        if (selfCheck.FalseFlags is { } ff) rows.Add(Rate("screening.false_flag_rate", ff, selfCheck.Completed));
+        foreach (var r in selfCheck.Recall) rows.Add(Rate("screening.recall." + Snake(r.Kind), r.Recall, selfCheck.Completed));
+        if (selfCheck.DimensionRecovery is { } rec)
         {
             rows.Add(Rate("dimensions.recovery", rec, (int)rec.Trials));
-            foreach (var kv in c.DimensionPicks)
+            foreach (var kv in selfCheck.DimensionPicks)
                 rows.Add(Rate(FormattableString.Invariant($"dimensions.picked.{kv.Key}"), new RateEstimate(kv.Value, rec.Trials), (int)rec.Trials));
         }
-        foreach (var s in c.Stability) rows.Add(Rate("short_form.kept_again." + s.Item, s.KeptAgain, (int)s.KeptAgain.Trials));
+        foreach (var s in selfCheck.Stability) rows.Add(Rate("short_form.kept_again." + s.Item, s.KeptAgain, (int)s.KeptAgain.Trials));
         foreach (var role in new[] { SampleRole.All, SampleRole.Selection, SampleRole.Holdout })
             foreach (var (name, pick, observed) in new (string, Func<ScaleSpread, Spread>, Func<ScaleSpread, double>)[]
                      { ("alpha", s => s.Alpha, s => s.ObservedAlpha), ("omega", s => s.Omega, s => s.ObservedOmega), ("short_full_r", s => s.ShortFull, s => s.ObservedShortFull) })
-                foreach (var s in c.Scales.Where(s => s.Sample == role))
+                foreach (var s in selfCheck.Scales.Where(s => s.Sample == role))
                 {
                     var d = pick(s);
                     rows.Add(new SelfCheckRow($"{SamplePrefix(role)}.{name}.{s.Scale}", d.Median, d.Low, d.High, d.Count, false, observed(s)));
@@ -62,33 +62,33 @@ public static class SelfCheckTables
     }
 
     /// <summary><c>self-check.csv</c>: quantity, value, interval_low, interval_high, simulated_surveys.</summary>
-    public static string Csv(SelfCheckResult c)
+    public static string Csv(SelfCheckResult selfCheck)
     {
         var w = new SafeCsvWriter(["quantity", "value", "interval_low", "interval_high", "simulated_surveys"]);
-        foreach (var r in Rows(c))
+        foreach (var r in Rows(selfCheck))
             w.AppendRow([Text(r.Quantity), Number(r.Value, Decimals), Number(r.Low, Decimals), Number(r.High, Decimals), Integer(r.Surveys)]);
         return w.ToString();
     }
 
     /// <summary>The <c>selfCheck</c> block of summary.json.</summary>
-    public static JsonObject Json(SelfCheckResult c)
+    public static JsonObject Json(SelfCheckResult selfCheck)
     {
-        ArgumentNullException.ThrowIfNull(c);
+        ArgumentNullException.ThrowIfNull(selfCheck);
         return new JsonObject
         {
-            ["simulatedSurveys"] = c.Requested,
-            ["completed"] = c.Completed,
-            ["stopped"] = new JsonObject(c.Stopped.Select(kv => KeyValuePair.Create(kv.Key, (JsonNode?)kv.Value))),
-            ["respondents"] = c.Respondents,
-            ["items"] = c.Items,
-            ["plantedPerKind"] = c.PlantedEach,
-            ["fittedFactors"] = c.FittedFactors,
+            ["simulatedSurveys"] = selfCheck.Requested,
+            ["completed"] = selfCheck.Completed,
+            ["stopped"] = new JsonObject(selfCheck.Stopped.Select(kv => KeyValuePair.Create(kv.Key, (JsonNode?)kv.Value))),
+            ["respondents"] = selfCheck.Respondents,
+            ["items"] = selfCheck.Items,
+            ["plantedPerKind"] = selfCheck.PlantedEach,
+            ["fittedFactors"] = selfCheck.FittedFactors,
             ["intervals"] = new JsonObject
             {
                 ["rates"] = "95% Wilson score interval (Monte Carlo uncertainty)",
                 ["distributions"] = "5th to 95th percentile over the simulated surveys",
             },
-            ["quantities"] = new JsonArray(Rows(c).Select(r => (JsonNode?)new JsonObject
+            ["quantities"] = new JsonArray(Rows(selfCheck).Select(r => (JsonNode?)new JsonObject
             {
                 ["quantity"] = r.Quantity,
                 ["value"] = Num(r.Value),

@@ -11,7 +11,7 @@ public static class ShortFormTables
     private const int Decimals = 6;
 
     /// <summary>True when the rotation is oblique (structure and factor correlations differ from the pattern and identity).</summary>
-    public static bool IsOblique(FactorSolution s) => s.Rotation is FactorRotation.Oblimin or FactorRotation.Promax;
+    public static bool IsOblique(FactorSolution solution) => solution.Rotation is FactorRotation.Oblimin or FactorRotation.Promax;
 
     private static IEnumerable<string> FactorHeaders(int k) => Enumerable.Range(1, k).Select(f => $"F{f}");
 
@@ -47,25 +47,25 @@ public static class ShortFormTables
     }
 
     /// <summary><c>factor-correlations.csv</c>: factor, label, F1..Fk.</summary>
-    public static string FactorCorrelations(FactorSolution s)
+    public static string FactorCorrelations(FactorSolution solution)
     {
-        int k = s.FactorCorrelations.GetLength(0);
+        int k = solution.FactorCorrelations.GetLength(0);
         var w = new SafeCsvWriter(["factor", "label", .. FactorHeaders(k)]);
         for (int a = 0; a < k; a++)
         {
-            var cells = new List<string> { $"F{a + 1}", Text(s.FactorLabels[a]) };
-            for (int b = 0; b < k; b++) cells.Add(Number(s.FactorCorrelations[a, b], Decimals));
+            var cells = new List<string> { $"F{a + 1}", Text(solution.FactorLabels[a]) };
+            for (int b = 0; b < k; b++) cells.Add(Number(solution.FactorCorrelations[a, b], Decimals));
             w.AppendRow(cells);
         }
         return w.ToString();
     }
 
     /// <summary><c>item-decisions.csv</c>: one row per item with decision, reason codes and the numbers behind them.</summary>
-    public static string ItemDecisions(ShortFormResult r)
+    public static string ItemDecisions(ShortFormResult shortForm)
     {
         var w = new SafeCsvWriter(["item", "subscale", "decision", "reasons", "primary_factor", "primary_loading", "secondary_loading",
             "item_total_r", "alpha_if_deleted", "communality", "scale", "reverse"]);
-        foreach (var j in r.Judgements.OrderBy(j => j.Index))
+        foreach (var j in shortForm.Judgements.OrderBy(j => j.Index))
         {
             w.AppendRow([Text(j.Item), Text(j.Subscale), j.Decision == ItemDecision.Keep ? "keep" : "drop", Text(string.Join(';', j.Reasons)),
                 $"F{j.PrimaryFactor + 1}", Number(j.PrimaryLoading, Decimals), Number(j.SecondaryLoading, Decimals),
@@ -80,18 +80,18 @@ public static class ShortFormTables
     /// then <c>omega_h</c>: omega hierarchical of the whole item bank (<see cref="Core.Reliability.OmegaHierarchical"/>), a single
     /// bank-level value repeated on every full-form row of the sample the factor solution was fitted on; empty on other rows and
     /// when the solution has fewer than three oblique factors.</summary>
-    public static string Reliability(ShortFormResult r, Core.Confirmatory.ConfirmatoryCheckResult? confirmatory = null)
+    public static string Reliability(ShortFormResult shortForm, Core.Confirmatory.ConfirmatoryCheckResult? confirmatory = null)
     {
         var w = new SafeCsvWriter(["scale", "form", "items", "alpha", "alpha_ci_low", "alpha_ci_high", "omega",
             "standardized_alpha", "sample", "respondents", "short_full_r", "short_full_r_observed", "omega_cfa", "omega_h"]);
-        foreach (var row in r.Reliability)
+        foreach (var row in shortForm.Reliability)
         {
             w.AppendRow([Text(row.Scale), Text(row.FormLabel), Integer(row.Items), Number(row.Alpha, Decimals), Number(row.AlphaCiLow, Decimals),
                 Number(row.AlphaCiHigh, Decimals), Number(row.Omega, Decimals), Number(row.StandardizedAlpha, Decimals),
                 row.Sample.ToString().ToLowerInvariant(), Integer(row.Respondents), Number(row.ShortFullCorrelation, Decimals),
                 Number(row.ShortFullCorrelationObserved, Decimals),
                 Number(ConfirmatoryTables.CompositeReliability(confirmatory, row.Scale, row.Form, row.Sample), Decimals),
-                Number(BankOmegaHierarchical(r, row), Decimals)]);
+                Number(BankOmegaHierarchical(shortForm, row), Decimals)]);
         }
         return w.ToString();
     }
