@@ -30,14 +30,14 @@ public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Ite
     /// <summary>Summarises <paramref name="data"/>.</summary>
     public static DataSummary Of(ResponseMatrix data) => Of(data, ItemMoments.Compute(data));
 
-    /// <summary>Summarises <paramref name="data"/> reusing its already computed <paramref name="m"/>
+    /// <summary>Summarises <paramref name="data"/> reusing its already computed <paramref name="moments"/>
     /// (<see cref="ItemMoments.Compute"/> of the same matrix), so the moments are not computed twice.</summary>
-    public static DataSummary Of(ResponseMatrix data, ItemMoments m)
+    public static DataSummary Of(ResponseMatrix data, ItemMoments moments)
     {
         ArgumentNullException.ThrowIfNull(data);
-        ArgumentNullException.ThrowIfNull(m);
+        ArgumentNullException.ThrowIfNull(moments);
         int n = data.RespondentCount, p = data.ItemCount;
-        if (m.Counts.Length != p) throw new ArgumentException($"The moments cover {m.Counts.Length} items but the data have {p}.", nameof(m));
+        if (moments.Counts.Length != p) throw new ArgumentException($"The moments cover {moments.Counts.Length} items but the data have {p}.", nameof(moments));
         var items = new ItemSummary[p];
         var lo = new double[p];
         var hi = new double[p];
@@ -94,9 +94,10 @@ public sealed record DataSummary(int Respondents, IReadOnlyList<ItemSummary> Ite
         long missingCells = 0;
         for (int j = 0; j < p; j++)
         {
-            missingCells += n - m.Counts[j];
-            items[j] = new ItemSummary(data.Items[j].Name, m.Counts[j], n == 0 ? 0 : (n - m.Counts[j]) / (double)n,
-                m.Means[j], m.StandardDeviations[j], m.Counts[j] > 0 ? lo[j] : double.NaN, m.Counts[j] > 0 ? hi[j] : double.NaN, smallCount[j] + distinct[j].Count);
+            missingCells += n - moments.Counts[j];
+            items[j] = new ItemSummary(data.Items[j].Name, moments.Counts[j], n == 0 ? 0 : (n - moments.Counts[j]) / (double)n,
+                moments.Means[j], moments.StandardDeviations[j], moments.Counts[j] > 0 ? lo[j] : double.NaN,
+                moments.Counts[j] > 0 ? hi[j] : double.NaN, smallCount[j] + distinct[j].Count);
         }
         double share = n * p == 0 ? 0 : missingCells / ((double)n * p);
         return new DataSummary(n, items, share, none, complete);

@@ -21,23 +21,23 @@ internal static class ItemScreen
     /// <summary>Returns the indices of usable items and the list of excluded ones.</summary>
     public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data) => Find(data, ItemMoments.Compute(data));
 
-    /// <summary>As <see cref="Find(ResponseMatrix)"/>, reusing the already computed <paramref name="m"/>
+    /// <summary>As <see cref="Find(ResponseMatrix)"/>, reusing the already computed <paramref name="moments"/>
     /// (<see cref="ItemMoments.Compute"/> of the same matrix).</summary>
-    public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data, ItemMoments m)
+    public static (int[] Kept, IReadOnlyList<ExcludedItem> Excluded) Find(ResponseMatrix data, ItemMoments moments)
     {
         ArgumentNullException.ThrowIfNull(data);
-        ArgumentNullException.ThrowIfNull(m);
-        if (m.Counts.Length != data.ItemCount) throw new ArgumentException($"The moments cover {m.Counts.Length} items but the data have {data.ItemCount}.", nameof(m));
+        ArgumentNullException.ThrowIfNull(moments);
+        if (moments.Counts.Length != data.ItemCount) throw new ArgumentException($"The moments cover {moments.Counts.Length} items but the data have {data.ItemCount}.", nameof(moments));
         var kept = new List<int>();
         var excluded = new List<ExcludedItem>();
         for (int j = 0; j < data.ItemCount; j++)
         {
             string name = data.Items[j].Name;
-            if (m.Counts[j] == 0)
+            if (moments.Counts[j] == 0)
                 excluded.Add(new ExcludedItem(name, ItemExclusionReason.AllMissing, "no respondent answered it"));
-            else if (m.Counts[j] < 2 || !(m.StandardDeviations[j] > 0))
+            else if (moments.Counts[j] < 2 || !(moments.StandardDeviations[j] > 0))
                 excluded.Add(new ExcludedItem(name, ItemExclusionReason.ZeroVariance,
-                    $"every answer is {m.Means[j].ToString("R", System.Globalization.CultureInfo.InvariantCulture)}"));
+                    $"every answer is {moments.Means[j].ToString("R", System.Globalization.CultureInfo.InvariantCulture)}"));
             else
                 kept.Add(j);
         }

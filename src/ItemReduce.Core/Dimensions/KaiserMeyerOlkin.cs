@@ -16,13 +16,13 @@ internal sealed record KaiserMeyerOlkinResult(double Overall, double[] PerItem);
 /// </summary>
 internal static class KaiserMeyerOlkin
 {
-    /// <summary>KMO and per-item MSA of the correlation matrix <paramref name="r"/> (p ≥ 2).</summary>
-    public static KaiserMeyerOlkinResult Compute(double[,] r)
+    /// <summary>KMO and per-item MSA of the correlation matrix <paramref name="correlation"/> (p ≥ 2).</summary>
+    public static KaiserMeyerOlkinResult Compute(double[,] correlation)
     {
-        MatrixChecks.SymmetricFinite(r, nameof(r));
-        int p = r.GetLength(0);
-        if (p < 2) throw new DataConditionException($"KMO needs at least 2 items, got {p}.", nameof(r));
-        var inv = CholeskyDecomposition.Inverse(r);
+        MatrixChecks.SymmetricFinite(correlation, nameof(correlation));
+        int p = correlation.GetLength(0);
+        if (p < 2) throw new DataConditionException($"KMO needs at least 2 items, got {p}.", nameof(correlation));
+        var inv = CholeskyDecomposition.Inverse(correlation);
         var rowR = new double[p];
         var rowQ = new double[p];
         for (int i = 0; i < p; i++)
@@ -30,7 +30,7 @@ internal static class KaiserMeyerOlkin
             {
                 if (i == j) continue;
                 double q = -inv[i, j] / Math.Sqrt(inv[i, i] * inv[j, j]);
-                rowR[i] += r[i, j] * r[i, j];
+                rowR[i] += correlation[i, j] * correlation[i, j];
                 rowQ[i] += q * q;
             }
         var msa = new double[p];

@@ -13,11 +13,11 @@ internal static class SquaredMultipleCorrelation
 {
     /// <summary>SMC of every item (length p, each in [0, 1)).</summary>
     /// <exception cref="MatrixNotPositiveDefiniteException">R is not positive definite.</exception>
-    public static double[] Compute(double[,] r)
+    public static double[] Compute(double[,] correlation)
     {
-        MatrixChecks.SymmetricFinite(r, nameof(r));
-        int p = r.GetLength(0);
-        return FromRowMajor(MatrixChecks.ToRowMajor(r), p);
+        MatrixChecks.SymmetricFinite(correlation, nameof(correlation));
+        int p = correlation.GetLength(0);
+        return FromRowMajor(MatrixChecks.ToRowMajor(correlation), p);
     }
 
     /// <summary>Relative pivot tolerance of <see cref="StartingCommunalities"/>: R counts as singular when a Cholesky
@@ -48,10 +48,10 @@ internal static class SquaredMultipleCorrelation
     }
 
     /// <summary>The reduced matrix: R with SMC_j on the diagonal (copy).</summary>
-    public static double[,] ReducedMatrix(double[,] r)
+    public static double[,] ReducedMatrix(double[,] correlation)
     {
-        var smc = Compute(r);
-        var reduced = (double[,])r.Clone();
+        var smc = Compute(correlation);
+        var reduced = (double[,])correlation.Clone();
         for (int j = 0; j < smc.Length; j++) reduced[j, j] = smc[j];
         return reduced;
     }

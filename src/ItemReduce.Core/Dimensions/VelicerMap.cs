@@ -24,14 +24,14 @@ internal sealed record VelicerMapResult(double[] Curve, double[] RevisedCurve, i
 /// </summary>
 internal static class VelicerMap
 {
-    /// <summary>MAP curves and counts for the correlation matrix <paramref name="r"/> (p ≥ 2).</summary>
-    public static VelicerMapResult Compute(double[,] r)
+    /// <summary>MAP curves and counts for the correlation matrix <paramref name="correlation"/> (p ≥ 2).</summary>
+    public static VelicerMapResult Compute(double[,] correlation)
     {
-        MatrixChecks.SymmetricFinite(r, nameof(r));
-        int p = r.GetLength(0);
-        if (p < 2) throw new DataConditionException($"MAP needs at least 2 items, got {p}.", nameof(r));
-        var (values, vectors) = SymmetricEigensolver.Decompose(r);
-        var c = (double[,])r.Clone();
+        MatrixChecks.SymmetricFinite(correlation, nameof(correlation));
+        int p = correlation.GetLength(0);
+        if (p < 2) throw new DataConditionException($"MAP needs at least 2 items, got {p}.", nameof(correlation));
+        var (values, vectors) = SymmetricEigensolver.Decompose(correlation);
+        var c = (double[,])correlation.Clone();
         var curve = new List<double>();
         var revised = new List<double>();
         for (int m = 0; m < p; m++)

@@ -12,19 +12,19 @@ internal static class FactorAnalysis
 {
     /// <summary>
     /// Fits k common factors to the p × p correlation matrix <paramref name="correlation"/> of
-    /// <paramref name="n"/> respondents.
+    /// <paramref name="respondents"/> respondents.
     /// </summary>
     /// <param name="correlation">Symmetric p × p correlation matrix, unit diagonal, finite entries.</param>
-    /// <param name="n">Number of respondents (used for ML fit statistics only); ≥ 2.</param>
+    /// <param name="respondents">Number of respondents (used for ML fit statistics only); ≥ 2.</param>
     /// <param name="factors">Number of factors k, 1 ≤ k &lt; p.</param>
     /// <param name="options">Options; null = defaults (minres, oblimin).</param>
     /// <exception cref="ArgumentException">Invalid matrix, n, k or options; for ML also a correlation matrix
     /// that is not positive definite.</exception>
     /// <exception cref="FactorNonConvergenceException">A rotation became singular.</exception>
-    public static FactorSolution Fit(double[,] correlation, int n, int factors, FactoringOptions? options = null)
+    public static FactorSolution Fit(double[,] correlation, int respondents, int factors, FactoringOptions? options = null)
     {
         var o = options ?? new FactoringOptions();
-        Validate(correlation, n, factors, o);
+        Validate(correlation, respondents, factors, o);
         var r = MatrixHelpers.ToMatrix(correlation);
         if (o.Extraction == FactorExtraction.MaximumLikelihood && !MatrixHelpers.IsPositiveDefinite(r, out _))
             throw new DataConditionException("Maximum likelihood needs a positive definite correlation matrix; this one is not " +
@@ -60,7 +60,7 @@ internal static class FactorAnalysis
 
         var patternArray = pattern.ToArray();
         FactorModelFit? fit = o.Extraction == FactorExtraction.MaximumLikelihood
-            ? MaximumLikelihoodFactoring.FitStatistics(r, n, factors, extraction.Objective) : null;
+            ? MaximumLikelihoodFactoring.FitStatistics(r, respondents, factors, extraction.Objective) : null;
         if (fit is { Df: <= 0 })
             warnings.Add("fit-undefined", $"The {factors}-factor model has {fit.Df.ToString(CultureInfo.InvariantCulture)} degrees of freedom; the χ² test, RMSEA and TLI are undefined.");
         return new FactorSolution

@@ -44,10 +44,10 @@ public static class DimensionTables
     }
 
     /// <summary><c>item-factorability.csv</c>: item and its measure of sampling adequacy (MSA).</summary>
-    public static string Msa(IReadOnlyList<string> items, DimensionResult d)
+    public static string Msa(IReadOnlyList<string> items, DimensionResult dimensions)
     {
         var w = new SafeCsvWriter(["item", "msa"]);
-        for (int j = 0; j < items.Count; j++) w.AppendRow([Text(items[j]), Number(d.Msa[j], Decimals)]);
+        for (int j = 0; j < items.Count; j++) w.AppendRow([Text(items[j]), Number(dimensions.Msa[j], Decimals)]);
         return w.ToString();
     }
 

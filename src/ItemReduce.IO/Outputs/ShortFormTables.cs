@@ -33,14 +33,14 @@ public static class ShortFormTables
     }
 
     /// <summary><c>structure-loadings.csv</c>: item, subscale, F1..Fk (correlations of items with factors).</summary>
-    public static string StructureLoadings(IReadOnlyList<ItemDefinition> items, FactorSolution s)
+    public static string StructureLoadings(IReadOnlyList<ItemDefinition> items, FactorSolution solution)
     {
-        int k = s.Structure.GetLength(1);
+        int k = solution.Structure.GetLength(1);
         var w = new SafeCsvWriter(["item", "subscale", .. FactorHeaders(k)]);
         for (int j = 0; j < items.Count; j++)
         {
             var cells = new List<string> { Text(items[j].Name), Text(items[j].Subscale) };
-            for (int f = 0; f < k; f++) cells.Add(Number(s.Structure[j, f], Decimals));
+            for (int f = 0; f < k; f++) cells.Add(Number(solution.Structure[j, f], Decimals));
             w.AppendRow(cells);
         }
         return w.ToString();
@@ -101,10 +101,10 @@ public static class ShortFormTables
         r.OmegaHierarchical is { } h && row.Form == ScaleForm.Full && row.Sample != SampleRole.Holdout ? h.OmegaH : double.NaN;
 
     /// <summary><c>short-form-codebook.csv</c>: the codebook rows of the retained items — a valid codebook for the next collection.</summary>
-    public static string ShortFormCodebook(IReadOnlyList<ItemDefinition> items, ShortFormResult r)
+    public static string ShortFormCodebook(IReadOnlyList<ItemDefinition> items, ShortFormResult shortForm)
     {
         var w = new SafeCsvWriter(["item", "subscale", "reverse", "min", "max", "text"]);
-        foreach (int j in r.SelectedIndices.Order())
+        foreach (int j in shortForm.SelectedIndices.Order())
         {
             var it = items[j];
             w.AppendRow([Text(it.Name), Text(it.Subscale), Bool(it.Reverse), Number(it.Min), Number(it.Max), Text(it.Text)]);
