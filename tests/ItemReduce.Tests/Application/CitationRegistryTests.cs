@@ -2,7 +2,7 @@ using System.Reflection;
 using System.Text.RegularExpressions;
 using ItemReduce.Application.Appendix;
 
-namespace ItemReduce.Tests.IO;
+namespace ItemReduce.Tests.Application;
 
 /// <summary>
 /// One registry of cited works (<see cref="MethodReferences"/> for the methods the appendix can cite,

@@ -7,7 +7,7 @@ using ItemReduce.Core.Pipeline;
 using ItemReduce.Report.Model;
 using ItemReduce.Tests.Support;
 
-namespace ItemReduce.Tests.Cli;
+namespace ItemReduce.Tests.Application;
 
 /// <summary>
 /// The settings model: every declared setting reaches exactly the parts of a job it says it concerns (driven by the
