@@ -8,7 +8,10 @@ namespace ItemReduce.Core;
 /// <param name="Stage">Stage that raised it: <c>data</c>, <c>screening</c>, <c>dimensions</c>, <c>factoring</c>,
 /// <c>short-form</c> or <c>confirmatory</c>.</param>
 /// <param name="Message">One plain-language sentence or two, ending with a full stop.</param>
-public sealed record AnalysisWarning(string Code, string Stage, string Message)
+/// <param name="Setting">Optional: the Core option-record property a person can change to act on the warning, as
+/// <c>nameof(RecordType.Property)</c> gives it (e.g. <c>Surveys</c> of <see cref="SelfCheck.SelfCheckOptions"/>); never a
+/// command-line name — the edge translates it into the option's name.</param>
+public sealed record AnalysisWarning(string Code, string Stage, string Message, string? Setting = null)
 {
     /// <summary>The message (so that string joins and interpolation show the wording).</summary>
     public override string ToString() => Message;

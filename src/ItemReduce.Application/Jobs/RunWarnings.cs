@@ -30,7 +30,32 @@ public static class WarningLines
         sink.Flush();
     }
 
-    /// <summary>One line.</summary>
-    public static string Format(AnalysisWarning warning, int number, int count) =>
-        string.Create(CultureInfo.InvariantCulture, $"itemreduce: warning {number} of {count} ({warning.Stage}, {warning.Code}): {warning.Message.ReplaceLineEndings(" ")}");
+    /// <summary>One line; a warning that names a setting ends with the option that sets it.</summary>
+    public static string Format(AnalysisWarning warning, int number, int count)
+    {
+        string option = WarningSettings.OptionFor(warning) is { } name ? $" (option --{name})" : "";
+        return string.Create(CultureInfo.InvariantCulture,
+            $"itemreduce: warning {number} of {count} ({warning.Stage}, {warning.Code}): {warning.Message.ReplaceLineEndings(" ")}{option}");
+    }
+}
+
+/// <summary>Translates the Core option-record property a warning names (<see cref="AnalysisWarning.Setting"/>) into the
+/// setting's name, which is the command-line option without dashes and the plan-file key.</summary>
+public static class WarningSettings
+{
+    /// <summary>Record property → setting name, for every property a Core warning may name
+    /// (WarningSettingsTests checks each one against the settings catalogue).</summary>
+    public static readonly IReadOnlyDictionary<string, string> ByProperty = new Dictionary<string, string>(StringComparer.Ordinal)
+    {
+        [nameof(Core.SelfCheck.SelfCheckOptions.Surveys)] = "self-check",
+        [nameof(Core.ShortForm.ShortFormOptions.HoldoutFraction)] = "holdout",
+    };
+
+    /// <summary>The setting name for <paramref name="warning"/>'s property, or null when it names none (or an unknown
+    /// one).</summary>
+    public static string? OptionFor(AnalysisWarning warning)
+    {
+        ArgumentNullException.ThrowIfNull(warning);
+        return warning.Setting is { } property && ByProperty.TryGetValue(property, out var name) ? name : null;
+    }
 }

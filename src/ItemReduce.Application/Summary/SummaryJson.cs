@@ -92,6 +92,7 @@ internal static class SummaryJson
             ["code"] = w.Code,
             ["stage"] = w.Stage,
             ["message"] = w.Message,
+            ["option"] = WarningSettings.OptionFor(w),
         }).ToArray());
         return root;
     }

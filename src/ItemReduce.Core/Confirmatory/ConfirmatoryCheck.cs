@@ -104,7 +104,8 @@ public static class ConfirmatoryCheck
             }
         }
         if (holdout.Count == 0 && fits.Any(f => f.Result is not null))
-            warnings.Add(new AnalysisWarning("confirmatory-on-selection-sample", "confirmatory", OptimismCaution));
+            warnings.Add(new AnalysisWarning("confirmatory-on-selection-sample", "confirmatory", OptimismCaution,
+                nameof(ShortForm.ShortFormOptions.HoldoutFraction)));
         return new ConfirmatoryCheckResult(fits, warnings, listwise);
     }
 

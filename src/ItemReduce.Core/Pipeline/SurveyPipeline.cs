@@ -109,7 +109,8 @@ public static class SurveyPipeline
         if (settings.SelfCheck.IsDefault && cells > SelfCheck.SelfCheckOptions.MaxDefaultCells)
         {
             warnings.Add(new AnalysisWarning("self-check-skipped", "self-check", string.Create(ci,
-                $"The self-check was skipped: with {prepared.Scored.RespondentCount} respondents × {analysed.ItemCount} items (more than {SelfCheck.SelfCheckOptions.MaxDefaultCells:N0} answers) each simulated survey costs about as much as the whole analysis. Set the number of simulated surveys explicitly to run it.")));
+                $"The self-check was skipped: with {prepared.Scored.RespondentCount} respondents × {analysed.ItemCount} items (more than {SelfCheck.SelfCheckOptions.MaxDefaultCells:N0} answers) each simulated survey costs about as much as the whole analysis. Set the number of simulated surveys explicitly to run it."),
+                nameof(SelfCheck.SelfCheckOptions.Surveys)));
             return result;
         }
         progress?.Invoke(string.Create(ci, $"self-check: analysing {settings.SelfCheck.Surveys} simulated surveys that match this one"));

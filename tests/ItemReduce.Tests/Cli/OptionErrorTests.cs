@@ -139,7 +139,10 @@ public class OptionErrorTests
         for (int i = 0; i < lines.Count; i++)
         {
             Assert.StartsWith($"itemreduce: warning {i + 1} of {warnings.Count} ({warnings[i].GetProperty("stage").GetString()}, {warnings[i].GetProperty("code").GetString()}): ", lines[i]);
-            Assert.EndsWith(warnings[i].GetProperty("message").GetString()!, lines[i]);
+            // A warning that names a setting ends with the option that sets it (summary.json "option").
+            var optionElement = warnings[i].GetProperty("option");
+            string? option = optionElement.ValueKind == JsonValueKind.String ? optionElement.GetString() : null;
+            Assert.EndsWith(warnings[i].GetProperty("message").GetString()! + (option is null ? "" : $" (option --{option})"), lines[i]);
         }
         var quiet = s.Run("--replicates", "20", "--no-pdf", "--force", "--quiet");
         Assert.Equal(0, quiet.Code);
