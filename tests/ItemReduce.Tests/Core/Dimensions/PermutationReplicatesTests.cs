@@ -88,7 +88,8 @@ public class PermutationReplicatesTests
     {
         // An independent slow reference: System.Random shuffles of a dense copy, PearsonCorrelation, eigenvalues.
         // Two-sample Kolmogorov–Smirnov distance of the largest eigenvalue over 300 replicates each; the critical
-        // value at α = 0.001 is 1.95·√(2/300) ≈ 0.159 (Smirnov's asymptotic table, from memory).
+        // value at α = 0.001 is 1.95·√(2/300) ≈ 0.159: the asymptotic Kolmogorov quantile, scipy.special.kolmogi(0.001) =
+        // 1.9494746 (Debian python3-scipy; equal to √(−ln(α/2)/2) to 1e-10).
         var data = Survey(200, 5, 15);
         const int replicates = 300;
         var fast = FirstEigenvalues(data, replicates);
