@@ -143,10 +143,9 @@ internal static partial class AppendixBuilder
         return text[..(cut > WordingLength / 2 ? cut : WordingLength - 1)].TrimEnd(' ', ',', ';') + "…";
     }
 
-    private static void ItemDescriptivesSection(Builder b, PipelineResult r, SortedSet<string> refs)
+    private static void ItemDescriptivesSection(Builder b, PipelineResult r, IReadOnlyList<ItemDescriptive> d, SortedSet<string> refs)
     {
         refs.Add(MethodReferences.JoanesGill1998);
-        var d = ItemDescriptives.Compute(r.Analysed);
         b.Table(Inv($"Item descriptives (the {r.Analysed.RespondentCount} analysed respondents, answers as scored)"),
             [new("Item"), new("n", ColumnAlignment.Right), new("Mean", ColumnAlignment.Right), new("SD", ColumnAlignment.Right),
              new("Skew", ColumnAlignment.Right), new("Ex. kurt.", ColumnAlignment.Right), new("% lowest", ColumnAlignment.Right),

@@ -2,6 +2,7 @@ using System.Globalization;
 using ItemReduce.Application.Jobs;
 using ItemReduce.Application.Settings;
 using ItemReduce.Core.Correlation;
+using ItemReduce.Core.Data;
 using ItemReduce.Core.Dimensions;
 using ItemReduce.Core.Factoring;
 using ItemReduce.Core.Pipeline;
@@ -27,7 +28,11 @@ internal static partial class AppendixBuilder
     /// <summary>Title of the table of settings in section 1.</summary>
     public const string SettingsTableTitle = "Settings of this run";
 
-    public static AppendixDocument Build(JobSettings settings, LoadedSurvey survey, PipelineResult result)
+    /// <summary>The appendix of one run. <c>itemDescriptives</c>: the analysed items' descriptives when the caller has them
+    /// already (the job computes them once for item-descriptives.csv and the appendix — a full pass over the data);
+    /// computed here when null.</summary>
+    public static AppendixDocument Build(JobSettings settings, LoadedSurvey survey, PipelineResult result,
+        IReadOnlyList<ItemDescriptive>? itemDescriptives = null)
     {
         var b = new Builder();
         var refs = new SortedSet<string>(StringComparer.Ordinal);
@@ -44,7 +49,7 @@ internal static partial class AppendixBuilder
             ReliabilitySection(b, result, sf, refs);
         }
         if (result.Confirmatory is { } cfa) ConfirmatorySection(b, result, cfa, refs);
-        if (result.ShortForm is not null) ItemDescriptivesSection(b, result, refs);
+        if (result.ShortForm is not null) ItemDescriptivesSection(b, result, itemDescriptives ?? ItemDescriptives.Compute(result.Analysed), refs);
         if (result.SelfCheck is { } check) SelfCheckSection(b, result, check, refs);
         CautionsSection(b, result);
         b.Heading(1, "References");

@@ -86,13 +86,15 @@ public static class SurveyJob
             Write("confirmatory-loadings.csv", ConfirmatoryTables.Loadings(cfa));
         }
         if (result.SelfCheck is { } check) Write(SelfCheckTables.FileName, SelfCheckTables.Csv(check));
-        if (result.Dimensions is not null || result.ShortForm is not null)
-            Write("item-descriptives.csv", ConfirmatoryTables.ItemDescriptivesTable(Core.Data.ItemDescriptives.Compute(result.Analysed)));
+        // One pass over the data for the table and the appendix section alike.
+        var descriptives = result.Dimensions is not null || result.ShortForm is not null
+            ? Core.Data.ItemDescriptives.Compute(result.Analysed) : null;
+        if (descriptives is not null) Write("item-descriptives.csv", ConfirmatoryTables.ItemDescriptivesTable(descriptives));
         var summary = SummaryJson.Build(settings, survey, result);
         Write("summary.json", JsonOut.Serialize(summary));
         if (scope == PipelineScope.All)
         {
-            var doc = Appendix.AppendixBuilder.Build(settings, survey, result);
+            var doc = Appendix.AppendixBuilder.Build(settings, survey, result, descriptives);
             Write("tables.md", Report.Export.MarkdownTablesWriter.Write(doc));
             Write("tables.tex", Report.Export.LatexTablesWriter.Write(doc));
             staging.WriteStream("tables.docx", stream => Report.Export.DocxTablesWriter.Write(doc, stream));
