@@ -144,6 +144,12 @@ internal static class SummaryJson
         ["smallSampleFallback"] = s.SmallSampleFallback,
         ["repeatedRunLimit"] = s.RepeatedRunLimit,
         ["alternatingRunLimit"] = s.AlternatingRunLimit,
+        ["randomAnswering"] = new JsonObject
+        {
+            ["computed"] = !double.IsNaN(s.RandomAnsweringCutoff),
+            ["cutoff"] = Num(s.RandomAnsweringCutoff),
+            ["flags"] = s.RandomAnsweringFlags,
+        },
     };
 
     private static JsonObject Factors(PipelineResult r)

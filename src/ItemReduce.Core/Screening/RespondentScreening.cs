@@ -153,6 +153,7 @@ public static class RespondentScreening
         int flagged = rows.Flagged();
         string? randomRecall = RandomResponderRecall.Statement(p, options.CutoffP);
         if (randomRecall is not null && !useRobust) randomRecall += " These figures are for the default robust distance; this run used the classical one.";
+        else if (randomRecall is not null && !randomFlags) randomRecall += " " + RandomIndexAbsent(p, randomIndex is not null);
         if (randomRecall is not null) warnings.Add("random-answering-partly-detectable", randomRecall);
         if (randomIndex is null && robust.Available && DiscretenessCalibration.Applies(scores) && p > RandomAnsweringIndex.MaxItems)
             warnings.Add("random-index-not-computed", string.Create(CultureInfo.InvariantCulture,
@@ -162,6 +163,17 @@ public static class RespondentScreening
         var halfPeak = CentreShareByItems.Compute(Math.Max(p, 20), options.CutoffP);
         return new ScreeningResult(rows, counts, n, flagged, useRobust ? "robust" : "classical", rule, robust, halfPeak, warnings, options, smallSample,
             runLimit, alternatingLimit, randomCutoff, randomFlags);
+    }
+
+    /// <summary>Why the study's recall figures (which include the random-answering index) overstate this run's rules, when the
+    /// index raised no flags here.</summary>
+    private static string RandomIndexAbsent(int items, bool computed)
+    {
+        string why = computed ? $"it flags only from {SmallSampleRatio} respondents per item"
+            : items > RandomAnsweringIndex.MaxItems ? $"it is computed up to {RandomAnsweringIndex.MaxItems} items"
+            : "it needs the ordinal-answer calibration";
+        return $"The study's figures include the random-answering index, which raised no flags in this run ({why}); "
+            + "they describe the studied design with that index, not this run's rules.";
     }
 
     /// <summary>Careless-response indices, p-values and reasons of respondent <paramref name="i"/>, written into <paramref name="rows"/>.</summary>

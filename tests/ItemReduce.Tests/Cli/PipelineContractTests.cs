@@ -75,6 +75,17 @@ public class PipelineContractTests : IClassFixture<PipelineContractTests.RunOnce
         Assert.Equal("minres", s.GetProperty("extraction").GetString());
         Assert.Equal("oblimin", s.GetProperty("rotation").GetString());
         Assert.Equal(9, s.GetProperty("shortForm").GetProperty("items").GetArrayLength());
+        // The random-answering rule's cutoff is reported, and it is the one the flags used: every respondent flagged
+        // random-like-answers in respondent-flags.csv has random_answer_llr above it, and nobody else does.
+        var random = s.GetProperty("screening").GetProperty("randomAnswering");
+        Assert.True(random.GetProperty("computed").GetBoolean());
+        Assert.True(random.GetProperty("flags").GetBoolean());
+        double cutoff = random.GetProperty("cutoff").GetDouble();
+        var header = Lines("respondent-flags.csv")[0].Split(',');
+        int llr = Array.IndexOf(header, "random_answer_llr"), reasons = Array.IndexOf(header, "reasons");
+        foreach (var row in Lines("respondent-flags.csv").Skip(1).Select(l => l.Split(',')))
+            if (double.TryParse(row[llr], System.Globalization.CultureInfo.InvariantCulture, out double t))
+                Assert.Equal(t > cutoff, row[reasons].Contains("random-like-answers", StringComparison.Ordinal));
     }
 
     [Fact]

@@ -54,4 +54,19 @@ public class RandomResponderRecallTests
             if (RandomResponderRecall.Statement(band.Items, 0.001) is { } s)
                 Assert.DoesNotMatch(@"\b(\d+)–\1 %", s);
     }
+
+    [Fact]
+    public void Where_the_index_raised_no_flags_the_statement_says_its_figures_include_it()
+    {
+        // 24 skewed five-point items, 5 % missing, 120 respondents (5 per item): the index is computed but flags only
+        // from RespondentScreening.SmallSampleRatio (10) respondents per item, so the study's recall (which includes it)
+        // does not describe this run; the statement must say so, on screen (warning) and in the rule text.
+        var (scored, asAnswered, _) = ItemReduce.Simulation.ScreeningStudy.Draw(
+            new ItemReduce.Simulation.ScreeningStudy.Condition(24, 5, true, 0.05, 120, 0.0, 1), 4242);
+        var result = RespondentScreening.Run(scored, new ScreeningOptions(), asAnswered);
+        var warning = Assert.Single(result.Warnings, w => w.Code == "random-answering-partly-detectable");
+        Assert.Contains("raised no flags in this run (it flags only from 10 respondents per item)", warning.Message);
+        Assert.Contains("raised no flags in this run", result.RuleDescription);
+        Assert.DoesNotContain(ScreeningReasons.RandomLikeAnswers, result.ReasonCounts.Where(c => c.Count > 0).Select(c => c.Code));
+    }
 }
