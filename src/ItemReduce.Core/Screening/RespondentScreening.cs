@@ -455,7 +455,7 @@ public static class RespondentScreening
                 evenOdd.SplittableSubscales, o.EvenOddFlagSubscales));
         parts.Add(string.Format(c, "{1} More than {0:0.#%} of the items are unanswered.", o.MissingLimit, Next()));
         if (alternatingLimit <= p)
-            parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; a single skipped item does not end the row).", alternatingLimit, Next()));
+            parts.Add(string.Format(c, "{1} At least {0} answers in a row alternate between two values (such as 1-5-1-5 or 3-5-3-5; skipped items neither end the row nor count).", alternatingLimit, Next()));
         if (randomIndex is not null)
         {
             string index = string.Format(c, "the random-answering index (the log likelihood ratio of uniform random answering over each item's answer categories against this survey's fitted model: " +

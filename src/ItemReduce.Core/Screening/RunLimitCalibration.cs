@@ -11,8 +11,11 @@ namespace ItemReduce.Core.Screening;
 /// — turned back into answers as given (reverse-keyed items mirrored, in questionnaire order). Each limit is the
 /// smallest run length, not below the configured floor, that at most a share <see cref="ShareOfCutoff"/> × α of the
 /// simulated respondents reach; when even a run over every item is reached more often, the rule is switched off for
-/// the survey (<see cref="Never"/>). Simulated respondents answer every item, and a skipped item can only shorten a
-/// run, so the limits err towards fewer flags. Fixed internal seed (<see cref="Seed"/>): the limits do not depend on
+/// the survey (<see cref="Never"/>). Simulated respondents answer every item. A skipped item ends a repeated-answer
+/// run, so for that rule the limit errs towards fewer flags; an alternating stretch skips missing answers (see
+/// <see cref="AlternatingRun"/>), so a respondent with skipped items can reach a longer stretch than with every item
+/// answered, and the screening study measures the false-flag rate this leaves with 0–10 % of answers missing. Fixed
+/// internal seed (<see cref="Seed"/>): the limits do not depend on
 /// <c>--seed</c> or the thread count.
 /// </summary>
 internal static class RunLimitCalibration

@@ -7,12 +7,14 @@ public class NewCarelessIndexTests
     private const double N = double.NaN;
 
     [Theory]
-    // Counts by construction (answers in a period-two stretch; a single gap is skipped, two end the stretch).
+    // Counts by construction (answers in a period-two stretch; gaps of any length are skipped, positions keep their parity).
     [InlineData(new[] { 3.0, 5, 3, 5, 3, 5, 3, 5 }, 8)]
     [InlineData(new[] { 1.0, 5, 1, 5, 2, 4, 2, 4, 2 }, 5)]          // 1-5-1-5 (4 answers), then 2-4-2-4-2 (5)
     [InlineData(new[] { 3.0, 3, 3, 3 }, 1)]                         // a straight line is not alternation
     [InlineData(new[] { 3.0, 5, N, 5, 3, 5 }, 5)]                   // the gap neither ends nor counts
-    [InlineData(new[] { 3.0, 5, N, N, 3, 5 }, 2)]                   // two missing answers end the stretch
+    [InlineData(new[] { 3.0, 5, N, N, 3, 5 }, 4)]                   // two missing answers neither end nor count
+    [InlineData(new[] { 3.0, 5, N, N, N, 5, 3 }, 4)]                // an odd gap: item 5 is an odd position (5), item 6 even (3)
+    [InlineData(new[] { 3.0, 5, N, N, 5, 3 }, 2)]                   // across the gap the parity breaks: a new stretch
     [InlineData(new[] { 1.0, 2, 3, 4, 5 }, 2)]                      // a staircase: every pair differs, no repeat
     [InlineData(new[] { N, N }, 0)]
     public void Alternating_run_counts_answers_in_the_longest_seesaw_stretch(double[] answers, int expected) =>
