@@ -259,7 +259,7 @@ internal static partial class AppendixBuilder
                    : "") +
                "The empirical Kaiser criterion (Braeken & van Assen, 2017) compared each eigenvalue with a reference that accounts for the sample size and for the variance taken by the larger eigenvalues. " +
                (d.Hull is not null ? Inv($"The Hull method (Lorenzo-Seva, Timmerman & Kiers, 2011) compared the fit (common part accounted for) of solutions with 0 to {d.Hull.Fit.Length - 1} factors against their number of free parameters and chose the solution where the upper boundary of that plot bends most. ") : "") +
-               (d.Combined is not null ? "The combined rule started from the reduced-matrix parallel-analysis count and moved it by up to two factors up or down according to a multinomial logistic regression that reads the other rules' counts, the size of the survey and how far the eigenvalues around that count stand out from the random reference; the project fitted it to separate invented surveys of known structure, in the spirit of Goretzko and Bühner (2020). " : "") +
+               (d.Combined is not null ? "The combined rule started from the reduced-matrix parallel-analysis count and moved it by up to two factors up or down according to gradient-boosted decision trees (Friedman, 2001) that read the other rules' counts, the size of the survey and how far the eigenvalues around that count stand out from the random reference; the project fitted it to separate invented surveys of known structure, in the spirit of Goretzko and Bühner (2020). " : "") +
                Inv($"Velicer's minimum average partial (MAP) test was computed with squared and with fourth-power partial correlations. The Kaiser criterion (eigenvalue > 1) is shown for reference only; it tends to keep too many dimensions."));
         int p = d.Eigenvalues.Length;
         var comp = Enumerable.Range(1, p).Select(c => (double)c).ToList();
@@ -321,7 +321,11 @@ internal static partial class AppendixBuilder
         refs.Add(MethodReferences.HumphreysIlgen1969);
         refs.Add(MethodReferences.BraekenVanAssen2017);
         if (d.Hull is not null) refs.Add(MethodReferences.LorenzoSevaTimmermanKiers2011);
-        if (d.Combined is not null) refs.Add(MethodReferences.GoretzkoBuhner2020);
+        if (d.Combined is not null)
+        {
+            refs.Add(MethodReferences.GoretzkoBuhner2020);
+            refs.Add(MethodReferences.Friedman2001);
+        }
         if (d.ComparisonData is not null)
         {
             refs.Add(MethodReferences.RuscioRoche2012);
