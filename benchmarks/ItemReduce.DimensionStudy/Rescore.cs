@@ -13,7 +13,7 @@ internal static class Rescore
     private static readonly string[] SingleRules =
         ["pa-pca-95", "pa-pca-mean", "pa-reduced-95", "pa-reduced-mean", "map", "map-revised", "kaiser", "ekc", "cd", "hull"];
 
-    public static void Run(string table, string? outFile)
+    public static void Run(string table, string? outFile, int recheck = 0, int replicates = 1000, ulong seed = 2026)
     {
         var lines = File.ReadAllLines(table);
         var head = lines[0].Split(',');
@@ -30,7 +30,9 @@ internal static class Rescore
         var ci = CultureInfo.InvariantCulture;
         double Rate(IEnumerable<int> idx) => idx.Average(i => count[i] == truth[i] ? 1.0 : 0.0);
         var all = Enumerable.Range(0, rows.Length).ToArray();
-        Console.WriteLine(string.Create(ci, $"combined rule on {rows.Length} surveys: hit rate {Rate(all):F4}, changed from the stored count in {all.Count(i => count[i] != I(rows[i], "combined"))}"));
+        int changed = all.Count(i => count[i] != I(rows[i], "combined"));
+        Console.WriteLine(string.Create(ci,
+            $"combined rule on {rows.Length} surveys: hit rate {Rate(all):F4}, changed from the stored count in {changed}"));
         foreach (var g in all.GroupBy(i => I(rows[i], "respondents")).OrderBy(g => g.Key))
             Console.WriteLine(string.Create(ci, $"  n = {g.Key}: {Rate(g):F4} ({g.Count()} surveys)"));
         var one = all.Where(i => truth[i] == 1).ToArray();
@@ -47,11 +49,34 @@ internal static class Rescore
                 bad++;
                 var r = rows[cell.First()];
                 Console.WriteLine(string.Create(ci,
-                    $"  below .80 where a single rule reaches it: k={r[Col("factors")]} ipf={r[Col("items_per_factor")]} r={r[Col("factor_correlation")]} n={r[Col("respondents")]}: {hit:F2} (best single rule {best:F2})"));
+                    $"  below .80 where a single rule reaches it: k={r[Col("factors")]} ipf={r[Col("items_per_factor")]} " +
+                    $"r={r[Col("factor_correlation")]} n={r[Col("respondents")]}: {hit:F2} (best single rule {best:F2})"));
             }
         }
         Console.WriteLine(string.Create(ci, $"  cells below .80 where a single rule reaches .80: {bad}; worst cell {worst:F2}"));
+        if (recheck > 0) Recheck(rows, Col, count, recheck, replicates, seed);
         if (outFile is not null)
             File.WriteAllLines(outFile, new[] { "cell,set,combined" }.Concat(rows.Select((r, i) => $"{r[Col("cell")]},{r[Col("set")]},{count[i]}")));
+    }
+
+    /// <summary>Simulates again the first data set of every <paramref name="every"/>-th cell with the grid's seed and
+    /// replicates, runs the dimensions stage on it and compares its combined count with the rescored one.</summary>
+    private static void Recheck(string[][] rows, Func<string, int> col, int[] count, int every, int replicates, ulong seed)
+    {
+        var cells = Conditions.Cells();
+        int same = 0, checkedSets = 0;
+        for (int i = 0; i < rows.Length; i++)
+        {
+            int cell = int.Parse(rows[i][col("cell")], CultureInfo.InvariantCulture);
+            int set = int.Parse(rows[i][col("set")], CultureInfo.InvariantCulture);
+            if (set != 0 || cell % every != 0) continue;
+            var outcome = GridStudy.Analyse(cells[cell], set, replicates, seed);
+            int live = outcome.Counts[Array.FindIndex(GridStudy.Rules, r => r.Name == "combined")];
+            checkedSets++;
+            if (live == count[i]) same++;
+            Console.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"  recheck cell {cell} set 0: dimensions stage {live}, rescored {count[i]}"));
+        }
+        Console.WriteLine(string.Create(CultureInfo.InvariantCulture, $"  recheck: {same} of {checkedSets} data sets give the same count"));
     }
 }

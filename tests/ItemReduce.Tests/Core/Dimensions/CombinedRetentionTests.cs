@@ -24,7 +24,8 @@ public class CombinedRetentionTests
         double[] X(string[] r) => r[2..7].Select(Parse).ToArray();
         int Argmax(IReadOnlyList<double> s) => Enumerable.Range(0, 3).MaxBy(c => s[c]);
         var fit = rows.Where(r => r[0] == "fit").ToArray();
-        var model = GradientBoosting.Fit(fit.Select(X).ToArray(), fit.Select(r => int.Parse(r[1], CultureInfo.InvariantCulture)).ToArray(), 3, 25, 0.1, 3);
+        var labels = fit.Select(r => int.Parse(r[1], CultureInfo.InvariantCulture)).ToArray();
+        var model = GradientBoosting.Fit(fit.Select(X).ToArray(), labels, 3, 25, 0.1, 3);
         Assert.Equal(160, fit.Length);
         foreach (var r in fit)
         {
