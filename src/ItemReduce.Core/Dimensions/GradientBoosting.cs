@@ -2,7 +2,7 @@ namespace ItemReduce.Core.Dimensions;
 
 /// <summary>
 /// K-class gradient boosting of regression trees: Friedman, J. H. (2001). Greedy function approximation: A gradient
-/// boosting machine. The Annals of Statistics, 29(5), 1189–1232 (Algorithm 6, K-class logistic gradient boosting).
+/// boosting machine. The Annals of Statistics, 29(5), 1189–1232 (its K-class logistic version).
 /// Start: log of the class shares (kept in [ε, 1 − ε], ε of single precision). Each round fits, per class k, one
 /// regression tree to the residuals y_k − p_k (probabilities from the previous round), grown depth first with the split
 /// that maximises n_L·n_R/(n_L + n_R)·(mean_L − mean_R)² (Friedman's improvement criterion), features visited in
