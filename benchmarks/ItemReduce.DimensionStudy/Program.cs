@@ -13,11 +13,21 @@ using System.Globalization;
 // "fit": fits the combined rule on training tables and writes its coefficient file (see Fit).
 //   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- fit src/ItemReduce.Core/Dimensions/CombinedRetentionModel.cs
 // PROVENANCE_TXT TRAINING_CSV...
+// "rescore": the combined rule applied again to a committed data-set table from its stored features (see Rescore).
+//   dotnet run -c Release --project benchmarks/ItemReduce.DimensionStudy -- rescore \
+//     benchmarks/results/dimensions-study-2026-12-02/grid-datasets.csv [OUT_CSV|-] [RECHECK_EVERY_NTH_CELL]
+// (with RECHECK, the first data set of every n-th cell is simulated again and run through the dimensions stage).
 // "ordinal": checks of the ordinal references (see OrdinalCheck).
 // "timing": step times of comparison data and parallel analysis at 20,000 × 100 (see Timing), for tuning.
 // Results do not depend on the number of threads: every data set has its own seed.
 string mode = args.Length > 0 ? args[0] : "";
 if (mode == "timing") { ItemReduce.DimensionStudy.Timing.Run(); return 0; }
+if (mode == "rescore" && args.Length >= 2)
+{
+    int recheck = args.Length > 3 ? int.Parse(args[3], CultureInfo.InvariantCulture) : 0;
+    ItemReduce.DimensionStudy.Rescore.Run(args[1], args.Length > 2 && args[2] != "-" ? args[2] : null, recheck);
+    return 0;
+}
 if (mode == "fit" && args.Length >= 4)
 {
     ItemReduce.DimensionStudy.Fit.Run(args[3..], args[1], File.ReadAllText(args[2]));
@@ -27,6 +37,7 @@ if (mode is not ("grid" or "ordinal" or "train" or "train-hard") || args.Length 
 {
     Console.Error.WriteLine("usage: ItemReduce.DimensionStudy grid|ordinal|train|train-hard OUT_DIR [sets-per-cell|surveys] [replicates] [seed]");
     Console.Error.WriteLine("       ItemReduce.DimensionStudy fit OUT_CS PROVENANCE_TXT TRAINING_CSV...");
+    Console.Error.WriteLine("       ItemReduce.DimensionStudy rescore DATASETS_CSV [OUT_CSV|-] [RECHECK_EVERY_NTH_CELL]");
     return 2;
 }
 string outDir = args[1];

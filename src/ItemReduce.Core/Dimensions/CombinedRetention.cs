@@ -9,19 +9,20 @@ namespace ItemReduce.Core.Dimensions;
 public sealed record CombinedRetentionResult(int Count, int Start, double[] Probabilities, double[] Features);
 
 /// <summary>
-/// Combined retention rule: a multinomial logistic regression that reads what the single rules found on one survey
-/// and corrects the reduced-matrix parallel-analysis count by −2 … +2. The idea of learning the number of factors from
-/// observable features of simulated data with known structure follows Goretzko, D., &amp; Bühner, M. (2020). One model
-/// to rule them all? Using machine learning algorithms to determine the number of factors in exploratory factor
-/// analysis. Psychological Methods, 25(6), 776–786 (their "factor forest" is a tree ensemble on eigenvalue features;
-/// ours is a smaller, linear model whose inputs are the published rules' own outputs). Auerswald, M., &amp; Moshagen,
-/// M. (2019). How to determine the number of factors to retain in exploratory factor analysis: A comparison of
-/// extraction methods under realistic conditions. Psychological Methods, 24(4), 468–491, recommend combining rules.
+/// Combined retention rule: gradient-boosted trees that read what the single rules found on one survey and correct
+/// the reduced-matrix parallel-analysis count by −2 … +2. The idea of learning the number of factors from observable
+/// features of simulated data with known structure follows Goretzko, D., &amp; Bühner, M. (2020). One model to rule
+/// them all? Using machine learning algorithms to determine the number of factors in exploratory factor analysis.
+/// Psychological Methods, 25(6), 776–786 (their "factor forest" is a tree ensemble on eigenvalue features; ours is a
+/// smaller ensemble whose inputs are the published rules' own outputs). Auerswald, M., &amp; Moshagen, M. (2019). How
+/// to determine the number of factors to retain in exploratory factor analysis: A comparison of extraction methods
+/// under realistic conditions. Psychological Methods, 24(4), 468–491, recommend combining rules. The ensemble is
+/// K-class gradient boosting (Friedman 2001, <see cref="BoostedTrees"/>): 300 rounds × 5 trees of depth ≤ 3.
 /// <para>
 /// Steps: (1) <see cref="Features"/>: the differences between each rule's count and the reduced-matrix count m, the
 /// size of the survey (ln n, ln p, ln(p / m)) and how far the eigenvalues at m, m + 1 and m + 2 stand above or below
-/// the random reference, in units of the reference's spread; (2) standardise them with the training means and
-/// standard deviations; (3) a score per step s: b_s + w_s·x; (4) keep the step with the highest score among those that
+/// the random reference, in units of the reference's spread; (2) a score per step s: the start value plus the
+/// shrunk leaf values of the step's trees; (3) keep the step with the highest score among those that
 /// give a count in [max(1, m − 2) … m + 2], upwards no more than the largest count a factor model with positive
 /// degrees of freedom allows and never above one factor when m ≤ 1 (a guard against splitting one-factor data;
 /// from m = 0 the count stays 0 or becomes 1).
@@ -105,24 +106,22 @@ public static class CombinedRetention
     /// count is <paramref name="m"/>. Counts above m are allowed only up to the largest count a k-factor model can have
     /// with positive degrees of freedom (<see cref="ComparisonData.MaxFactors"/>).</summary>
     public static CombinedRetentionResult Decide(double[] features, int m, int items) =>
-        Decide(features, m, ComparisonData.MaxFactors(items), CombinedRetentionModel.Means, CombinedRetentionModel.StandardDeviations,
-            CombinedRetentionModel.Intercepts, CombinedRetentionModel.Weights);
+        Decide(features, m, ComparisonData.MaxFactors(items), CombinedRetentionModel.Trees);
 
-    /// <summary>As <see cref="Decide(double[], int, int)"/> with explicit coefficients (used by the study program while fitting).</summary>
-    public static CombinedRetentionResult Decide(double[] features, int m, int maxCount,
-        IReadOnlyList<double> means, IReadOnlyList<double> sds, IReadOnlyList<double> intercepts, double[,] weights)
+    /// <summary>As <see cref="Decide(double[], int, int)"/> with an explicit model (used by the study program while fitting).</summary>
+    public static CombinedRetentionResult Decide(double[] features, int m, int maxCount, BoostedTrees model)
     {
         ArgumentNullException.ThrowIfNull(features);
-        ArgumentNullException.ThrowIfNull(weights);
-        int f = features.Length, s = Steps.Length;
-        var score = new double[s];
+        ArgumentNullException.ThrowIfNull(model);
+        return Choose(model.Scores(features), m, maxCount, features);
+    }
+
+    /// <summary>The step with the highest class score among the allowed ones (<see cref="Allowed"/>), and the softmax
+    /// probabilities of the allowed steps (0 for the others).</summary>
+    internal static CombinedRetentionResult Choose(double[] score, int m, int maxCount, double[] features)
+    {
+        int s = Steps.Length;
         var allowed = Allowed(m, maxCount);
-        for (int c = 0; c < s; c++)
-        {
-            double z = intercepts[c];
-            for (int j = 0; j < f; j++) z += weights[c, j] * (features[j] - means[j]) / sds[j];
-            score[c] = z;
-        }
         double top = double.NegativeInfinity;
         for (int c = 0; c < s; c++) if (allowed[c]) top = Math.Max(top, score[c]);
         var prob = new double[s];

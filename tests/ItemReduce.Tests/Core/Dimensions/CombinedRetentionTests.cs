@@ -6,56 +6,77 @@ using static ItemReduce.Tests.Core.Dimensions.DimensionsReferenceData;
 namespace ItemReduce.Tests.Core.Dimensions;
 
 /// <summary>
-/// The combined retention rule: its committed coefficients against an independent scipy fit of the same penalised
-/// likelihood on the committed training table (ReferenceData/Dimensions/make_combined_fixture.py → combined_fit.csv),
-/// the step constraints, the feature scale and thread-count invariance.
+/// The combined retention rule: the boosting algorithm and the committed model against scikit-learn's
+/// GradientBoostingClassifier (ReferenceData/Dimensions/make_combined_fixture.py → boosting_small.csv,
+/// combined_grid_rows.csv), the step constraints, the feature scale and thread-count invariance.
 /// </summary>
 public class CombinedRetentionTests
 {
     [Fact]
-    public void Committed_coefficients_match_an_independent_scipy_fit_of_the_training_table()
+    public void Boosting_reproduces_scikit_learn_scores_on_invented_data()
     {
-        // scipy.optimize.minimize (L-BFGS-B) of the same objective on benchmarks/results/.../training-datasets.csv;
-        // the committed file came from the study program's Newton iterations.
-        int f = CombinedRetention.FeatureNames.Length;
-        var rows = Fields("combined_fit.csv").ToList();
-        double Value(string kind, int index) => Parse(rows.Single(r => r[0] == kind && r[1] == index.ToString(CultureInfo.InvariantCulture))[2]);
-        Assert.Equal(CombinedRetentionModel.Ridge, Value("ridge", 0));
-        for (int j = 0; j < f; j++)
+        // scikit-learn 1.2.1 GradientBoostingClassifier(n_estimators=25, learning_rate=0.1, max_depth=3) fitted on the
+        // 160 "fit" rows; decision_function of all 240. On the fitted rows the scores depend only on how the trees
+        // partition them, so they must agree to rounding. On the 80 held-out rows a cut point can differ where two
+        // features split the fitted rows identically (scikit-learn tries the features in random order and keeps the
+        // first of equal splits, we keep table order), so only the predicted class is compared there (≥ 76 of 80).
+        var rows = Fields("boosting_small.csv");
+        double[] X(string[] r) => r[2..7].Select(Parse).ToArray();
+        int Argmax(IReadOnlyList<double> s) => Enumerable.Range(0, 3).MaxBy(c => s[c]);
+        var fit = rows.Where(r => r[0] == "fit").ToArray();
+        var labels = fit.Select(r => int.Parse(r[1], CultureInfo.InvariantCulture)).ToArray();
+        var model = GradientBoosting.Fit(fit.Select(X).ToArray(), labels, 3, 25, 0.1, 3);
+        Assert.Equal(160, fit.Length);
+        foreach (var r in fit)
         {
-            Assert.Equal(Value("mean", j), CombinedRetentionModel.Means[j], 1e-9);
-            Assert.Equal(Value("sd", j), CombinedRetentionModel.StandardDeviations[j], 1e-9);
+            var s = model.Scores(X(r));
+            for (int c = 0; c < 3; c++) Assert.Equal(Parse(r[7 + c]), s[c], 1e-9);
         }
-        for (int c = 0; c < CombinedRetention.Steps.Length; c++)
+        var heldOut = rows.Where(r => r[0] == "score").ToArray();
+        Assert.Equal(80, heldOut.Length);
+        int same = heldOut.Count(r => Argmax(model.Scores(X(r))) == Argmax(r[7..10].Select(Parse).ToArray()));
+        Assert.True(same >= 76, $"{same} of 80");
+    }
+
+    [Fact]
+    public void Committed_model_agrees_with_scikit_learn_fitted_on_the_training_tables()
+    {
+        // scikit-learn's fit of the same settings on the committed training tables, applied with the same allowed steps
+        // to every 10th grid data set. scikit-learn visits the features in a random order and keeps the first of equal
+        // splits, ours in table order, so trees can differ where two features split the same surveys; on the whole grid
+        // the two disagreed on 11 of 2,808 surveys. Required here: at least 275 of the 281 rows.
+        var rows = Fields("combined_grid_rows.csv");
+        Assert.Equal(281, rows.Length);
+        int f = CombinedRetention.FeatureNames.Length, agree = 0;
+        foreach (var r in rows)
         {
-            Assert.Equal(Value("intercept", c), CombinedRetentionModel.Intercepts[c], 2e-4);
-            for (int j = 0; j < f; j++) Assert.Equal(Value("weight", c * f + j), CombinedRetentionModel.Weights[c, j], 2e-4);
+            var x = r[3..(3 + f)].Select(Parse).ToArray();
+            int m = int.Parse(r[1], CultureInfo.InvariantCulture), items = int.Parse(r[2], CultureInfo.InvariantCulture);
+            if (CombinedRetention.Decide(x, m, items).Count == int.Parse(r[^1], CultureInfo.InvariantCulture)) agree++;
         }
+        Assert.True(agree >= 275, $"{agree} of 281");
     }
 
     [Fact]
     public void Steps_stay_in_the_allowed_range()
     {
         // Construction of the rule (see CombinedRetention): the step with the highest score among the allowed ones.
-        int f = CombinedRetention.FeatureNames.Length, s = CombinedRetention.Steps.Length;
-        var zero = new double[f];
-        var ones = Enumerable.Repeat(1.0, f).ToArray();
+        var features = new double[CombinedRetention.FeatureNames.Length];
         foreach (int favoured in new[] { 0, 1, 3, 4 })
         {
-            var intercepts = new double[s];
-            intercepts[favoured] = 5;
-            var w = new double[s, f];
+            var score = new double[CombinedRetention.Steps.Length];
+            score[favoured] = 5;
             int step = CombinedRetention.Steps[favoured];
             // A favoured step outside the allowed range leaves the count unchanged (all other scores are equal).
             int Expected(int m, int lowest, int highest) => m + step >= lowest && m + step <= highest ? m + step : m;
             // m = 3, 30 items: every step allowed.
-            Assert.Equal(Expected(3, 1, 5), CombinedRetention.Decide(zero, 3, ComparisonData.MaxFactors(30), zero, ones, intercepts, w).Count);
+            Assert.Equal(Expected(3, 1, 5), CombinedRetention.Choose(score, 3, ComparisonData.MaxFactors(30), features).Count);
             // m = 1: neither down to 0 nor up; m = 0: 0 or 1.
-            Assert.Equal(1, CombinedRetention.Decide(zero, 1, ComparisonData.MaxFactors(30), zero, ones, intercepts, w).Count);
-            Assert.Equal(Expected(0, 0, 1), CombinedRetention.Decide(zero, 0, ComparisonData.MaxFactors(30), zero, ones, intercepts, w).Count);
+            Assert.Equal(1, CombinedRetention.Choose(score, 1, ComparisonData.MaxFactors(30), features).Count);
+            Assert.Equal(Expected(0, 0, 1), CombinedRetention.Choose(score, 0, ComparisonData.MaxFactors(30), features).Count);
             // 6 items: a factor model needs positive degrees of freedom, (6 − k)² > 6 + k, so at most 2 factors; at least 1.
-            Assert.Equal(Expected(2, 1, 2), CombinedRetention.Decide(zero, 2, ComparisonData.MaxFactors(6), zero, ones, intercepts, w).Count);
-            var probabilities = CombinedRetention.Decide(zero, 2, 10, zero, ones, intercepts, w).Probabilities;
+            Assert.Equal(Expected(2, 1, 2), CombinedRetention.Choose(score, 2, ComparisonData.MaxFactors(6), features).Count);
+            var probabilities = CombinedRetention.Choose(score, 2, 10, features).Probabilities;
             Assert.Equal(1.0, probabilities.Sum(), 1e-12);
             Assert.Equal(0.0, probabilities[0]);
         }

@@ -168,11 +168,19 @@ public class RetentionRulesReferenceTests
             Assert.Equal(936, at.Count);
             Assert.Equal(RetentionStudyAccuracy.Nearest(level).HitRate, at.Average(f => f[factors] == f[rule] ? 1.0 : 0.0), 5e-5);
         }
-        int combined = Array.IndexOf(header, "combined");
-        Assert.Equal(RetentionStudyAccuracy.CombinedOverall, rows.Average(f => f[factors] == f[combined] ? 1.0 : 0.0), 5e-5);
+        // The combined rule's counts: grid-combined-boosted.csv (cell, set, count), written by the study program's rescore
+        // mode from the features stored in grid-datasets.csv, same row order.
+        var boosted = File.ReadAllLines(Path.Combine(d, "benchmarks", "results", "dimensions-study-2026-12-02", "grid-combined-boosted.csv"))
+            .Skip(1).Where(l => l.Length > 0).Select(l => l.Split(',')).ToList();
+        Assert.Equal(rows.Count, boosted.Count);
+        int cell = Array.IndexOf(header, "cell"), set = Array.IndexOf(header, "set");
+        Assert.All(Enumerable.Range(0, rows.Count), i => Assert.Equal((rows[i][cell], rows[i][set]), (boosted[i][0], boosted[i][1])));
+        bool CombinedHit(int i) => rows[i][factors] == boosted[i][2];
+        Assert.Equal(RetentionStudyAccuracy.CombinedOverall, Enumerable.Range(0, rows.Count).Average(i => CombinedHit(i) ? 1.0 : 0.0), 5e-5);
         foreach (int level in new[] { 200, 500, 1000 })
             Assert.Equal(RetentionStudyAccuracy.NearestCombined(level).HitRate,
-                rows.Where(f => f[n] == level.ToString(CultureInfo.InvariantCulture)).Average(f => f[factors] == f[combined] ? 1.0 : 0.0), 5e-5);
+                Enumerable.Range(0, rows.Count).Where(i => rows[i][n] == level.ToString(CultureInfo.InvariantCulture))
+                    .Average(i => CombinedHit(i) ? 1.0 : 0.0), 5e-5);
         Assert.Equal(1000, RetentionStudyAccuracy.Nearest(912).Respondents);
         Assert.Equal(200, RetentionStudyAccuracy.Nearest(150).Respondents);
         Assert.Contains("99.5%", RetentionStudyAccuracy.Sentence(20_000));

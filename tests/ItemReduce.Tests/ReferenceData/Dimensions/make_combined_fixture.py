@@ -1,104 +1,84 @@
 #!/usr/bin/python3
-"""Independent reference for the fitting of the combined retention rule (src/ItemReduce.Core/Dimensions/
-CombinedRetentionModel.cs, fitted by the study program's Newton iterations). Run from the repository root with
-Debian's interpreter:
-    /usr/bin/python3 tests/ItemReduce.Tests/ReferenceData/Dimensions/make_combined_fixture.py RIDGE
-(python3-numpy 1.24, python3-scipy 1.10).
+"""Outside reference for the combined retention rule (src/ItemReduce.Core/Dimensions/CombinedRetention.cs): K-class
+gradient boosting as fitted by scikit-learn's GradientBoostingClassifier (Debian python3-sklearn 1.2.1, numpy 1.24).
+Run from the repository root with Debian's interpreter:
+    /usr/bin/python3 tests/ItemReduce.Tests/ReferenceData/Dimensions/make_combined_fixture.py
 
-Reads the committed training tables benchmarks/results/dimensions-study-2026-12-02/training-datasets.csv and
-training-hard-datasets.csv (in that order) and
-maximises the same penalised log-likelihood with scipy.optimize.minimize (L-BFGS-B, analytic gradient):
-  classes = steps -2..+2 from the reduced-matrix count m (label = planted - m clipped to -2..+2, moved to the
-  nearest allowed step); a step is allowed when m + step >= max(min(1, m), m - 2) and, for steps > 0,
-  m + step <= the largest k with (p - k)^2 - (p + k) > 0 (at least 1) (Ledermann bound), and <= 1 when m <= 1;
-  softmax over the allowed steps only; step 0 is the reference class (coefficients 0);
-  features standardised with the training means and standard deviations (ddof = 1);
-  penalty (RIDGE / 2) * sum of squared weights (intercepts not penalised).
-Writes combined_fit.csv: kind,index,value rows for mean, sd, intercept (index = class 0..4) and weight
-(index = class*F + feature).
+Writes two fixtures:
+1. boosting_small.csv — the algorithm: 240 invented rows (numpy seed 20261202; four continuous features and one with
+   five integer values; three classes from a noisy linear rule), the first 160 for fitting
+   GradientBoostingClassifier(n_estimators=25, learning_rate=0.1, max_depth=3, random_state=0), the last 80 held
+   out. Columns: role (fit/score), label, x0..x4, s0..s2 (decision_function, i.e. the raw class scores).
+2. combined_grid_rows.csv — the committed model: the same classifier settings as the study program's fit mode
+   (n_estimators=300, learning_rate=0.05, max_depth=3, random_state=0) fitted on the committed training tables
+   benchmarks/results/dimensions-study-2026-12-02/training-datasets.csv and training-hard-datasets.csv (classes =
+   steps -2..+2 from the reduced-matrix count m, moved to the nearest allowed step), applied with the same allowed
+   steps to every 10th row of grid-datasets.csv. Columns: row (data-set index in grid-datasets.csv), m, items, the 18 features, count.
+   Allowed steps: m + step >= max(min(1, m), m - 2); for steps > 0, m + step <= 1 when m <= 1, otherwise
+   <= max(m, K) with K the largest k (at least 1, below p) with (p - k)^2 - (p + k) > 0.
 """
-import sys
 import numpy as np
-from scipy.optimize import minimize
+from sklearn.ensemble import GradientBoostingClassifier
 
-ridge = float(sys.argv[1])
-paths = ["benchmarks/results/dimensions-study-2026-12-02/training-datasets.csv",
-         "benchmarks/results/dimensions-study-2026-12-02/training-hard-datasets.csv"]
+rng = np.random.default_rng(20261202)
+x = rng.normal(size=(240, 5))
+x[:, 4] = rng.integers(0, 5, size=240)
+score = x[:, 0] - 0.7 * x[:, 1] + 0.4 * x[:, 4] + 0.5 * rng.normal(size=240)
+label = np.digitize(score, [-0.8, 0.9])
+small = GradientBoostingClassifier(n_estimators=25, learning_rate=0.1, max_depth=3, random_state=0)
+small.fit(x[:160], label[:160])
+raw = small.decision_function(x)
+with open("tests/ItemReduce.Tests/ReferenceData/Dimensions/boosting_small.csv", "w") as f:
+    f.write("role,label," + ",".join(f"x{j}" for j in range(5)) + ",s0,s1,s2\n")
+    for i in range(240):
+        xs = ",".join(repr(float(v)) for v in x[i])
+        s = ",".join(repr(float(v)) for v in raw[i])
+        f.write(f"{'fit' if i < 160 else 'score'},{label[i]},{xs},{s}\n")
+
 names = ["d_pca95", "d_pca_mean", "d_reduced_mean", "d_cd", "d_ekc", "d_kaiser", "d_map", "ln_n", "ln_p",
          "ln_items_per_factor", "z_reduced_m", "z_reduced_m1", "z_reduced_m2", "z_pca_m", "z_pca_m1", "z_pca_m2",
          "ln_gap_m", "cd_p_m1"]
-raw = np.concatenate([np.genfromtxt(pth, delimiter=",", names=True, dtype=float) for pth in paths])
-k = raw["factors"].astype(int)
-p = (raw["factors"] * raw["items_per_factor"]).astype(int)
-m = raw["pareduced95"].astype(int)
-X = np.column_stack([raw[nm] for nm in names])
-mu = X.mean(axis=0)
-sd = X.std(axis=0, ddof=1)
-sd[~(sd > 1e-12)] = 1.0
-Z = (X - mu) / sd
 steps = np.array([-2, -1, 0, 1, 2])
 
 
-def ledermann(pp):
-    kk = 1
-    while kk + 1 < pp and (pp - (kk + 1)) ** 2 - (pp + kk + 1) > 0:
-        kk += 1
-    return kk
+def table(path):
+    t = np.genfromtxt(path, delimiter=",", names=True, dtype=float, deletechars="")
+    return (np.column_stack([t[n] for n in names]), t["pa-reduced-95"].astype(int), t["factors"].astype(int),
+            (t["factors"] * t["items_per_factor"]).astype(int))
 
 
-mx = np.array([ledermann(v) for v in p])
-lowest = np.maximum(np.minimum(1, m), m - 2)
-cand = m[:, None] + steps[None, :]
-highest = np.where(m <= 1, 1, np.maximum(m, mx))
-allowed = (cand >= lowest[:, None]) & ((cand <= highest[:, None]) | (steps[None, :] <= 0))
-target = np.clip(k - m, -2, 2)
-labels = np.empty(len(k), dtype=int)
-for i in range(len(k)):
-    dist = np.where(allowed[i], np.abs(steps - target[i]), 99)
-    labels[i] = int(np.argmin(dist))  # first minimum, as the C# loop (strictly smaller replaces)
-free = [0, 1, 3, 4]
-F = Z.shape[1]
-Zi = np.column_stack([np.ones(len(k)), Z])
+def max_factors(p):
+    k = 1
+    while k + 1 < p and (p - (k + 1)) ** 2 - (p + k + 1) > 0:
+        k += 1
+    return k
 
 
-def unpack(theta):
-    full = np.zeros((5, F + 1))
-    full[free] = theta.reshape(4, F + 1)
-    return full
+def allowed(m, p):
+    lowest = max(min(1, m), m - 2)
+    highest = 1 if m <= 1 else max(m, max_factors(p))
+    return np.array([m + s >= lowest and (s <= 0 or m + s <= highest) for s in steps])
 
 
-def objective(theta):
-    full = unpack(theta)
-    s = Zi @ full.T
-    s = np.where(allowed, s, -np.inf)
-    top = s.max(axis=1, keepdims=True)
-    e = np.where(allowed, np.exp(s - top), 0.0)
-    tot = e.sum(axis=1, keepdims=True)
-    logp = (s - top) - np.log(tot)
-    prob = e / tot
-    ll = logp[np.arange(len(k)), labels].sum()
-    w = full[:, 1:]
-    f = -ll + 0.5 * ridge * (w ** 2).sum()
-    y = np.zeros_like(prob)
-    y[np.arange(len(k)), labels] = 1
-    g = -(y - prob).T @ Zi
-    g[:, 1:] += ridge * w
-    return f, g[free].ravel()
-
-
-res = minimize(objective, np.zeros(4 * (F + 1)), jac=True, method="L-BFGS-B",
-               options={"maxiter": 20000, "ftol": 1e-15, "gtol": 1e-10})
-full = unpack(res.x)
-with open("tests/ItemReduce.Tests/ReferenceData/Dimensions/combined_fit.csv", "w") as out:
-    out.write("kind,index,value\n")
-    out.write(f"ridge,0,{ridge!r}\n")
-    for j in range(F):
-        out.write(f"mean,{j},{mu[j]!r}\n")
-    for j in range(F):
-        out.write(f"sd,{j},{sd[j]!r}\n")
-    for c in range(5):
-        out.write(f"intercept,{c},{full[c, 0]!r}\n")
-    for c in range(5):
-        for j in range(F):
-            out.write(f"weight,{c * F + j},{full[c, j + 1]!r}\n")
-print(res.message, res.nit, "max |grad|", np.abs(objective(res.x)[1]).max())
+base = "benchmarks/results/dimensions-study-2026-12-02/"
+parts = [table(base + "training-datasets.csv"), table(base + "training-hard-datasets.csv")]
+X = np.vstack([q[0] for q in parts])
+M = np.concatenate([q[1] for q in parts])
+K = np.concatenate([q[2] for q in parts])
+P = np.concatenate([q[3] for q in parts])
+y = []
+for m, k, p in zip(M, K, P):
+    a = allowed(m, p)
+    y.append(min((c for c in range(5) if a[c]), key=lambda c: abs(steps[c] - (k - m))))
+model = GradientBoostingClassifier(n_estimators=300, learning_rate=0.05, max_depth=3, random_state=0)
+model.fit(X, np.array(y))
+Xg, Mg, Kg, Pg = table(base + "grid-datasets.csv")
+rows = np.arange(0, len(Xg), 10)
+raw = model.decision_function(Xg[rows])
+with open("tests/ItemReduce.Tests/ReferenceData/Dimensions/combined_grid_rows.csv", "w") as f:
+    f.write("row,m,items," + ",".join(names) + ",count\n")
+    for r, s in zip(rows, raw):
+        a = allowed(Mg[r], Pg[r])
+        best = max((c for c in range(5) if a[c]), key=lambda c: s[c])
+        xs = ",".join(repr(float(v)) for v in Xg[r])
+        f.write(f"{r},{Mg[r]},{Pg[r]},{xs},{Mg[r] + steps[best]}\n")
