@@ -377,7 +377,7 @@ public static class ParallelAnalysis
         public double[] Smc { get; } = new double[p];
         public double[] D { get; } = new double[p];
         public double[] E { get; } = new double[p];
-        public double[] Tri { get; } = new double[2 * p];
+        public double[] Tri { get; } = new double[SymmetricEigensolver.EigenvaluesWorkLength(p)];
     }
 
     /// <summary>Per-component mean and percentile over replicates.</summary>
