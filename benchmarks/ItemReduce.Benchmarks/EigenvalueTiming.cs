@@ -55,6 +55,21 @@ internal static class EigenvalueTiming
                 Array.Copy(r, scratch, r.Length);
                 BlockedHouseholderTridiagonalization.Reduce(scratch, p, d, e, tri);
             });
+            var uvec = new double[p];
+            var yvec = new double[p];
+            for (int k = 0; k < p; k++) uvec[k] = 1.0 / (k + 1);
+            Report("matrix-vector-sweep", p, repeats, () =>
+            {
+                for (int m = p - 1; m >= 1; m--) BlockedHouseholderTridiagonalization.SymmetricLowerTimesVector(r, p, m, uvec, yvec);
+            });
+            var wpanel = new double[BlockedHouseholderTridiagonalization.PanelWidth * p];
+            Report("rank-2k-sweep", p, repeats, () =>
+            {
+                Array.Copy(r, scratch, r.Length);
+                int nb = BlockedHouseholderTridiagonalization.PanelWidth;
+                for (int m = p - nb; m >= nb; m -= nb)
+                    BlockedHouseholderTridiagonalization.SymmetricRank2kLower(scratch, p, m, wpanel, wpanel, nb);
+            });
             Report("tridiagonal-eigenvalues-root-free", p, repeats, () =>
             {
                 Array.Copy(d0, d, p);

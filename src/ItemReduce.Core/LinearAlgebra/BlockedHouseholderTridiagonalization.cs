@@ -82,12 +82,7 @@ internal static class BlockedHouseholderTridiagonalization
                 ReadOnlySpan<double> u = uRow[..m];
                 // y = A u on the leading m × m block as stored (lower triangle), then the panel's pending updates.
                 var y = wRow[..m];
-                y.Clear();
-                for (int j = 0; j < m; j++)
-                {
-                    var rowJ = a.AsSpan(j * n, j);
-                    y[j] += VectorKernels.DotAndAxpy(rowJ, u, u[j], y) + a[j * n + j] * u[j];
-                }
+                SymmetricLowerTimesVector(a, n, m, u, y);
                 for (int k = 0; k < count; k++)
                 {
                     ReadOnlySpan<double> uk = work.AsSpan(uOffset + k * n, m);
@@ -102,6 +97,72 @@ internal static class BlockedHouseholderTridiagonalization
             if (last == 0) break;
             SymmetricRank2kLower(a, n, last, work.AsSpan(uOffset, count * n), wPanel[..(count * n)], count);
             i = last - 1;
+        }
+    }
+
+    /// <summary>y = A u for the leading m × m block of the row-major n × n symmetric matrix <paramref name="a"/> from its
+    /// lower triangle, four rows at a time: each loaded vector of the four rows serves both their dot products with u
+    /// (the lower-triangle part of y's four entries) and their contribution to y's earlier entries (the mirrored upper
+    /// part).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
+    internal static void SymmetricLowerTimesVector(double[] a, int n, int m, ReadOnlySpan<double> u, Span<double> y)
+    {
+        y[..m].Clear();
+        int j0 = 0;
+        if (Vector256.IsHardwareAccelerated)
+        {
+            for (; j0 + 4 <= m; j0 += 4)
+            {
+                int cEnd = j0 & ~3;
+                var r0 = a.AsSpan(j0 * n, cEnd);
+                var r1 = a.AsSpan((j0 + 1) * n, cEnd);
+                var r2 = a.AsSpan((j0 + 2) * n, cEnd);
+                var r3 = a.AsSpan((j0 + 3) * n, cEnd);
+                var b0 = Vector256.Create(u[j0]);
+                var b1 = Vector256.Create(u[j0 + 1]);
+                var b2 = Vector256.Create(u[j0 + 2]);
+                var b3 = Vector256.Create(u[j0 + 3]);
+                Vector256<double> t0 = default, t1 = default, t2 = default, t3 = default;
+                for (int c = 0; c < cEnd; c += 4)
+                {
+                    var x0 = Vector256.Create(r0.Slice(c, 4));
+                    var x1 = Vector256.Create(r1.Slice(c, 4));
+                    var x2 = Vector256.Create(r2.Slice(c, 4));
+                    var x3 = Vector256.Create(r3.Slice(c, 4));
+                    var uc = Vector256.Create(u.Slice(c, 4));
+                    t0 = Vector256.FusedMultiplyAdd(x0, uc, t0);
+                    t1 = Vector256.FusedMultiplyAdd(x1, uc, t1);
+                    t2 = Vector256.FusedMultiplyAdd(x2, uc, t2);
+                    t3 = Vector256.FusedMultiplyAdd(x3, uc, t3);
+                    var yc = y.Slice(c, 4);
+                    var acc = Vector256.Create((ReadOnlySpan<double>)yc);
+                    acc = Vector256.FusedMultiplyAdd(x0, b0, acc);
+                    acc = Vector256.FusedMultiplyAdd(x1, b1, acc);
+                    acc = Vector256.FusedMultiplyAdd(x2, b2, acc);
+                    acc = Vector256.FusedMultiplyAdd(x3, b3, acc);
+                    acc.CopyTo(yc);
+                }
+                y[j0] += Vector256.Sum(t0);
+                y[j0 + 1] += Vector256.Sum(t1);
+                y[j0 + 2] += Vector256.Sum(t2);
+                y[j0 + 3] += Vector256.Sum(t3);
+                for (int j = j0; j < j0 + 4; j++)
+                {
+                    double uj = u[j], s = 0;
+                    int o = j * n;
+                    for (int c = cEnd; c < j; c++)
+                    {
+                        s += a[o + c] * u[c];
+                        y[c] += a[o + c] * uj;
+                    }
+                    y[j] += s + a[o + j] * uj;
+                }
+            }
+        }
+        for (int j = j0; j < m; j++)
+        {
+            var rowJ = a.AsSpan(j * n, j);
+            y[j] += VectorKernels.DotAndAxpy(rowJ, u, u[j], y) + a[j * n + j] * u[j];
         }
     }
 

@@ -102,13 +102,13 @@ internal static class PalWalkerKahanQl
                 double bb = e[i];
                 r = p + bb;
                 if (i != m - 1) e[i + 1] = s * r;
-                double oldc = c;
-                c = p / r;
-                s = bb / r;
+                double oldc = c, invR = 1 / r, rOverP = r / p; // both divisions start as soon as p is known
+                c = p * invR;
+                s = bb * invR;
                 double oldgam = gamma, alpha = d[i];
                 gamma = c * (alpha - sigma) - s * oldgam;
                 d[i + 1] = oldgam + (alpha - gamma);
-                p = c != 0 ? gamma * gamma / c : oldc * bb;
+                p = c != 0 ? gamma * gamma * rOverP : oldc * bb;
             }
             e[l] = s * p;
             d[l] = sigma + gamma;
@@ -151,13 +151,13 @@ internal static class PalWalkerKahanQl
                 double bb = e[i];
                 r = p + bb;
                 if (i != m) e[i - 1] = s * r;
-                double oldc = c;
-                c = p / r;
-                s = bb / r;
+                double oldc = c, invR = 1 / r, rOverP = r / p;
+                c = p * invR;
+                s = bb * invR;
                 double oldgam = gamma, alpha = d[i + 1];
                 gamma = c * (alpha - sigma) - s * oldgam;
                 d[i] = oldgam + (alpha - gamma);
-                p = c != 0 ? gamma * gamma / c : oldc * bb;
+                p = c != 0 ? gamma * gamma * rOverP : oldc * bb;
             }
             e[l - 1] = s * p;
             d[l] = sigma + gamma;
