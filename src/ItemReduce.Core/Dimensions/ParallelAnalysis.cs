@@ -359,10 +359,13 @@ public static class ParallelAnalysis
     /// L is already the Cholesky factor of W, so (R⁻¹)_jj = W_jj (W⁻¹)_jj with W_jj = Σ_k L_jk² and (W⁻¹)_jj the squared
     /// norm of column j of L⁻¹ — the factorisation of R is skipped. Equal to <see cref="ReferenceSmc"/> up to rounding
     /// (a rescaling of a positive definite matrix rescales its inverse).</summary>
-    private static double[] SmcFromBartlettFactor(ReplicateBuffers b, int p)
+    private static double[] SmcFromBartlettFactor(ReplicateBuffers b, int p) => SmcFromBartlettFactor(b.Scratch, p, b.Work, b.Smc);
+
+    /// <summary>Kernel of <see cref="SmcFromBartlettFactor(ReplicateBuffers, int)"/>: <paramref name="l"/> is the Bartlett
+    /// factor (row-major, lower), <paramref name="work"/> (p × p) scratch, the SMCs are written to <paramref name="result"/>.</summary>
+    internal static double[] SmcFromBartlettFactor(double[] l, int p, double[] work, double[] result)
     {
-        var l = b.Scratch;
-        var inverseDiagonal = CholeskyDecomposition.InverseDiagonalFromFactor(l, p, b.Work, b.Smc);
+        var inverseDiagonal = CholeskyDecomposition.InverseDiagonalFromFactor(l, p, work, result);
         for (int j = 0; j < p; j++)
         {
             double wjj = VectorKernels.Dot(l.AsSpan(j * p, j + 1), l.AsSpan(j * p, j + 1));
