@@ -48,7 +48,8 @@ public class FullSpectrumTests
                 var actual = SymmetricEigensolver.Eigenvalues(m);
                 double scale = expected.Max(Math.Abs);
                 for (int c = 0; c < p; c++)
-                    Assert.True(Math.Abs(actual[c] - expected[c]) <= 1e-12 * scale, $"p = {p}, seed {seed}, λ{c + 1}: {actual[c]:R} vs {expected[c]:R}");
+                    Assert.True(Math.Abs(actual[c] - expected[c]) <= 1e-12 * scale,
+                        $"p = {p}, seed {seed}, λ{c + 1}: {actual[c]:R} vs {expected[c]:R}");
             }
         }
     }
