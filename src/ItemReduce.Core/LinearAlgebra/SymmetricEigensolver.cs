@@ -13,8 +13,10 @@ namespace ItemReduce.Core.LinearAlgebra;
 /// <para>
 /// Conventions: eigenvalues are returned in descending order. Eigenvectors are the columns of the returned
 /// matrix, have unit length, and each is signed so that its largest-magnitude element is positive
-/// (ties: the first such element). The eigenvalues-only path skips the accumulation of the Householder
-/// transformations and the rotation updates (tred1 + tql1 cost), about 4/3 p³ + O(p²) flops.
+/// (ties: the first such element). The eigenvalues-only path (<see cref="Eigenvalues"/>, <see cref="EigenvaluesInPlace"/>)
+/// skips the accumulation of the Householder transformations and uses the blocked reduction
+/// (<see cref="BlockedHouseholderTridiagonalization"/>) and the root-free QL iteration (<see cref="PalWalkerKahanQl"/>),
+/// about 4/3 p³ + O(p²) flops; the path with vectors keeps the two steps named above.
 /// </para>
 /// <para>
 /// When only the k leading eigenpairs are needed, <see cref="LeadingDecompose"/> / <see cref="Leading"/> compute them by
