@@ -76,12 +76,14 @@ internal static class MethodReferences
 internal static class ComputingReferences
 {
     public const string Anderson2003 = "Anderson, T. W. (2003). An introduction to multivariate statistical analysis (3rd ed.). Wiley.";
+    public const string AndersonEtAl1999 = "Anderson, E., Bai, Z., Bischof, C., Blackford, S., Demmel, J., Dongarra, J., Du Croz, J., Greenbaum, A., Hammarling, S., McKenney, A., & Sorensen, D. (1999). LAPACK users' guide (3rd ed.). SIAM.";
     public const string Benoit1924 = "Benoît, Commandant (1924). Note sur une méthode de résolution des équations normales provenant de l'application de la méthode des moindres carrés à un système d'équations linéaires en nombre inférieur à celui des inconnues (Procédé du Commandant Cholesky). Bulletin Géodésique, 2, 67–77.";
     public const string BirginMartinezRaydan2000 = "Birgin, E. G., Martínez, J. M., & Raydan, M. (2000). Nonmonotone spectral projected gradient methods on convex sets. SIAM Journal on Optimization, 10(4), 1196–1211.";
     public const string BowdlerMartinReinschWilkinson1968 = "Bowdler, H., Martin, R. S., Reinsch, C., & Wilkinson, J. H. (1968). The QR and QL algorithms for symmetric matrices. Numerische Mathematik, 11(3), 293–306.";
     public const string Brent1973 = "Brent, R. P. (1973). Algorithms for minimization without derivatives. Prentice-Hall.";
     public const string Browne1974 = "Browne, M. W. (1974). Generalized least squares estimators in the analysis of covariance structures. South African Statistical Journal, 8(1), 1–24.";
     public const string CrouxHaesbroeck1999 = "Croux, C., & Haesbroeck, G. (1999). Influence function and efficiency of the minimum covariance determinant scatter matrix estimator. Journal of Multivariate Analysis, 71(2), 161–190.";
+    public const string DongarraHammarlingSorensen1989 = "Dongarra, J. J., Hammarling, S. J., & Sorensen, D. C. (1989). Block reduction of matrices to condensed forms for eigenvalue computations. Journal of Computational and Applied Mathematics, 27(1–2), 215–227.";
     public const string DreznerWesolowsky1990 = "Drezner, Z., & Wesolowsky, G. O. (1990). On the computation of the bivariate normal integral. Journal of Statistical Computation and Simulation, 35(1–2), 101–107.";
     public const string DowellJarratt1971 = "Dowell, M., & Jarratt, P. (1971). A modified regula falsi method for computing the root of an equation. BIT Numerical Mathematics, 11(2), 168–174.";
     public const string Dwyer1939 = "Dwyer, P. S. (1939). The contribution of an orthogonal multiple factor solution to multiple correlation. Psychometrika, 4(2), 163–171.";

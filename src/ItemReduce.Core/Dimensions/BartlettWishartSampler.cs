@@ -1,4 +1,5 @@
 using System.Runtime.CompilerServices;
+using ItemReduce.Core.Confirmatory;
 using ItemReduce.Core.LinearAlgebra;
 using ItemReduce.Core.Randomness;
 
@@ -73,24 +74,41 @@ public static class BartlettWishartSampler
     {
         SampleFactor(p, df, rng, l);
         LowerProduct(c, l, p, a);
-        Product(a, p, w);
+        Product(l, p, w);
         ScaleToCorrelation(w, p);
     }
 
-    /// <summary>A = C L for lower-triangular C and L (row-major): A_ij = Σ_{j ≤ k ≤ i} C_ik L_kj, lower triangular.</summary>
+    /// <summary>L ← C L for lower-triangular C and L (row-major): (C L)_ij = Σ_{j ≤ k ≤ i} C_ik L_kj, lower triangular. L
+    /// is first transposed into the scratch <paramref name="lt"/> so that every entry is a dot product of two contiguous
+    /// rows, taken sixteen at a time (<see cref="BlockedDots.Dot4x4"/>).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
-    private static void LowerProduct(double[] c, double[] l, int p, double[] a)
+    private static void LowerProduct(double[] c, double[] l, int p, double[] lt)
     {
-        Array.Clear(a, 0, p * p);
         for (int i = 0; i < p; i++)
-        {
-            var ai = a.AsSpan(i * p, i + 1);
-            for (int k = 0; k <= i; k++)
+            for (int k = 0; k < p; k++) lt[k * p + i] = l[i * p + k];
+        var a = l;
+        Span<double> sums = stackalloc double[16];
+        Array.Clear(a, 0, p * p);
+        for (int i0 = 0; i0 < p; i0 += 4)
+            for (int j0 = 0; j0 <= i0; j0 += 4)
             {
-                double cik = c[i * p + k];
-                if (cik != 0) VectorKernels.Axpy(cik, l.AsSpan(k * p, k + 1), ai[..(k + 1)]);
+                // Rows i0.. of C and rows j0.. of Lᵀ are zero outside columns j0 .. i0 + 3.
+                int end = Math.Min(p, i0 + 4), length = end - j0;
+                Dot4x4Clamped(c, lt, p, i0, j0, j0, length, sums);
+                for (int r = 0; r < 4 && i0 + r < p; r++)
+                    for (int q = 0; q < 4 && j0 + q <= i0 + r; q++) a[(i0 + r) * p + j0 + q] = sums[4 * r + q];
             }
-        }
+    }
+
+    /// <summary>The 16 dot products of rows <paramref name="i0"/>.. of <paramref name="x"/> with rows <paramref name="j0"/>..
+    /// of <paramref name="y"/> (row length p) over columns start .. start + length − 1; rows past p repeat the last.</summary>
+    private static void Dot4x4Clamped(double[] x, double[] y, int p, int i0, int j0, int start, int length, Span<double> sums)
+    {
+        int last = p - 1;
+        BlockedDots.Dot4x4(x.AsSpan(i0 * p + start, length), x.AsSpan(Math.Min(i0 + 1, last) * p + start, length),
+            x.AsSpan(Math.Min(i0 + 2, last) * p + start, length), x.AsSpan(Math.Min(i0 + 3, last) * p + start, length),
+            y.AsSpan(j0 * p + start, length), y.AsSpan(Math.Min(j0 + 1, last) * p + start, length),
+            y.AsSpan(Math.Min(j0 + 2, last) * p + start, length), y.AsSpan(Math.Min(j0 + 3, last) * p + start, length), sums);
     }
 
     /// <summary>Bartlett factor: row i (0-based) holds L_i0..L_ii; L_ii = sqrt(χ²(m − i)), i.e. χ²(m − i + 1) in
@@ -107,20 +125,25 @@ public static class BartlettWishartSampler
         }
     }
 
-    /// <summary>W = L Lᵀ: W_ij = Σ_{k ≤ j} L_ik L_jk for j ≤ i (contiguous row dot products), mirrored.</summary>
+    /// <summary>W = L Lᵀ: W_ij = Σ_{k ≤ j} L_ik L_jk for j ≤ i (dot products of contiguous rows, sixteen at a time by
+    /// <see cref="BlockedDots.Dot4x4"/>), mirrored.</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void Product(double[] l, int p, double[] w)
     {
-        for (int i = 0; i < p; i++)
-        {
-            var li = l.AsSpan(i * p, i + 1);
-            for (int j = 0; j <= i; j++)
+        Span<double> sums = stackalloc double[16];
+        for (int i0 = 0; i0 < p; i0 += 4)
+            for (int j0 = 0; j0 <= i0; j0 += 4)
             {
-                double s = VectorKernels.Dot(li[..(j + 1)], l.AsSpan(j * p, j + 1));
-                w[i * p + j] = s;
-                w[j * p + i] = s;
+                // Rows j0 .. j0 + 3 of L are zero beyond column j0 + 3.
+                Dot4x4Clamped(l, l, p, i0, j0, 0, Math.Min(p, j0 + 4), sums);
+                for (int r = 0; r < 4 && i0 + r < p; r++)
+                    for (int q = 0; q < 4 && j0 + q <= i0 + r; q++)
+                    {
+                        int i = i0 + r, j = j0 + q;
+                        w[i * p + j] = sums[4 * r + q];
+                        w[j * p + i] = sums[4 * r + q];
+                    }
             }
-        }
     }
 
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]

@@ -188,7 +188,7 @@ public static class ComparisonData
         public double[] W { get; } = new double[p * p];
         public double[] D { get; } = new double[p];
         public double[] E { get; } = new double[p];
-        public double[] Tri { get; } = new double[2 * p];
+        public double[] Tri { get; } = new double[SymmetricEigensolver.EigenvaluesWorkLength(p)];
     }
 }
 

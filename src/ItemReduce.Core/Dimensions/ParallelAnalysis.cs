@@ -132,7 +132,7 @@ public static class ParallelAnalysis
             throw new DataConditionException($"The normal reference needs more respondents than items; got n = {respondents}, p = {items}.", nameof(respondents));
         int p = items, df = respondents - 1;
         return Run(p, options with { Reference = ReferenceKind.Normal }, NormalPurpose, () => new double[p * p],
-            (rng, scratch, r) => BartlettWishartSampler.SampleCorrelationInto(p, df, rng, scratch, r));
+            (rng, scratch, r) => BartlettWishartSampler.SampleCorrelationInto(p, df, rng, scratch, r), SmcFromBartlettFactor);
     }
 
     /// <summary>Ordinal-reference eigenvalues (<see cref="ReferenceKind.Ordinal"/>) for <paramref name="respondents"/>
@@ -319,10 +319,12 @@ public static class ParallelAnalysis
     }
 
     /// <summary>Shared replicate loop: draw a reference correlation matrix (row-major, full) per replicate,
-    /// take its eigenvalues (and those of its reduced version), then summarise per component.</summary>
+    /// take its eigenvalues (and those of its reduced version), then summarise per component. The optional
+    /// <c>smcFromDraw</c> computes the SMCs of the drawn matrix from what the draw left in the scratch array (instead of
+    /// a Cholesky factorisation of the drawn matrix).</summary>
     private static ParallelAnalysisReference Run(
         int p, ParallelAnalysisOptions options, ulong purpose, Func<double[]> newScratch,
-        Action<RandomStream, double[], double[]> draw)
+        Action<RandomStream, double[], double[]> draw, Func<ReplicateBuffers, int, double[]>? smcFromDraw = null)
     {
         int reps = options.Replicates;
         bool reduced = options.IncludeReducedMatrix;
@@ -336,7 +338,7 @@ public static class ParallelAnalysis
             draw(rng, b.Scratch, b.R);
             if (eigReduced is not null)
             {
-                var smc = ReferenceSmc(b, p);
+                var smc = smcFromDraw is null ? ReferenceSmc(b, p) : smcFromDraw(b, p);
                 Array.Copy(b.R, b.Reduced, b.R.Length);
                 for (int j = 0; j < p; j++) b.Reduced[j * p + j] = smc[j];
                 eigReduced[rep] = (double[])SymmetricEigensolver.EigenvaluesInPlace(b.Reduced, p, b.D, b.E, b.Tri).Clone();
@@ -350,6 +352,26 @@ public static class ParallelAnalysis
         double[]? rMean = null, rPct = null;
         if (eigReduced is not null) (rMean, rPct) = Summarise(eigReduced, p, options.Percentile);
         return new ParallelAnalysisReference(mean, pct, rMean, rPct, reps, options.Percentile, options.Reference);
+    }
+
+    /// <summary>SMCs of a normal-reference draw R = D^{−1/2} W D^{−1/2} from its Bartlett factor L (W = L Lᵀ, left in the
+    /// scratch array by <see cref="BartlettWishartSampler.SampleCorrelationInto(int, int, RandomStream, double[], double[])"/>):
+    /// L is already the Cholesky factor of W, so (R⁻¹)_jj = W_jj (W⁻¹)_jj with W_jj = Σ_k L_jk² and (W⁻¹)_jj the squared
+    /// norm of column j of L⁻¹ — the factorisation of R is skipped. Equal to <see cref="ReferenceSmc"/> up to rounding
+    /// (a rescaling of a positive definite matrix rescales its inverse).</summary>
+    private static double[] SmcFromBartlettFactor(ReplicateBuffers b, int p) => SmcFromBartlettFactor(b.Scratch, p, b.Work, b.Smc);
+
+    /// <summary>Kernel of <see cref="SmcFromBartlettFactor(ReplicateBuffers, int)"/>: <paramref name="l"/> is the Bartlett
+    /// factor (row-major, lower), <paramref name="work"/> (p × p) scratch, the SMCs are written to <paramref name="result"/>.</summary>
+    internal static double[] SmcFromBartlettFactor(double[] l, int p, double[] work, double[] result)
+    {
+        var inverseDiagonal = CholeskyDecomposition.InverseDiagonalFromFactor(l, p, work, result);
+        for (int j = 0; j < p; j++)
+        {
+            double wjj = VectorKernels.Dot(l.AsSpan(j * p, j + 1), l.AsSpan(j * p, j + 1));
+            inverseDiagonal[j] = 1 - 1 / (wjj * inverseDiagonal[j]);
+        }
+        return inverseDiagonal;
     }
 
     /// <summary>SMCs of a reference matrix; a matrix that is not positive definite (possible with pairwise
@@ -377,7 +399,7 @@ public static class ParallelAnalysis
         public double[] Smc { get; } = new double[p];
         public double[] D { get; } = new double[p];
         public double[] E { get; } = new double[p];
-        public double[] Tri { get; } = new double[2 * p];
+        public double[] Tri { get; } = new double[SymmetricEigensolver.EigenvaluesWorkLength(p)];
     }
 
     /// <summary>Per-component mean and percentile over replicates.</summary>

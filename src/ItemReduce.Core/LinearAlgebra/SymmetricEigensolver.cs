@@ -13,8 +13,10 @@ namespace ItemReduce.Core.LinearAlgebra;
 /// <para>
 /// Conventions: eigenvalues are returned in descending order. Eigenvectors are the columns of the returned
 /// matrix, have unit length, and each is signed so that its largest-magnitude element is positive
-/// (ties: the first such element). The eigenvalues-only path skips the accumulation of the Householder
-/// transformations and the rotation updates (tred1 + tql1 cost), about 4/3 p³ + O(p²) flops.
+/// (ties: the first such element). The eigenvalues-only path (<see cref="Eigenvalues"/>, <see cref="EigenvaluesInPlace"/>)
+/// skips the accumulation of the Householder transformations and uses the blocked reduction
+/// (<see cref="BlockedHouseholderTridiagonalization"/>) and the root-free QL iteration (<see cref="PalWalkerKahanQl"/>),
+/// about 4/3 p³ + O(p²) flops; the path with vectors keeps the two steps named above.
 /// </para>
 /// <para>
 /// When only the k leading eigenpairs are needed, <see cref="LeadingDecompose"/> / <see cref="Leading"/> compute them by
@@ -42,7 +44,7 @@ public static class SymmetricEigensolver
     {
         MatrixChecks.SymmetricFinite(matrix, nameof(matrix));
         int n = matrix.GetLength(0);
-        return EigenvaluesInPlace(MatrixChecks.ToRowMajor(matrix), n, new double[n], new double[n], new double[2 * n]);
+        return EigenvaluesInPlace(MatrixChecks.ToRowMajor(matrix), n, new double[n], new double[n], new double[EigenvaluesWorkLength(n)]);
     }
 
     /// <summary>Eigenvalues and eigenvectors of <paramref name="matrix"/>: values descending, vectors as the
@@ -86,16 +88,22 @@ public static class SymmetricEigensolver
         return (result.Values, result.Vectors);
     }
 
+    /// <summary>Length of the scratch array <see cref="EigenvaluesInPlace"/> needs for an n × n matrix.</summary>
+    internal static int EigenvaluesWorkLength(int n) => BlockedHouseholderTridiagonalization.WorkLength(n);
+
     /// <summary>
     /// Unchecked eigenvalues-only kernel for hot loops: <paramref name="a"/> is a symmetric row-major (lower triangle read)
     /// n × n matrix and is destroyed; <paramref name="d"/>, <paramref name="e"/> (length n) and
-    /// <paramref name="work"/> (length 2n) are scratch. Returns <paramref name="d"/> sorted descending.
+    /// <paramref name="work"/> (length <see cref="EigenvaluesWorkLength"/>(n)) are scratch. Returns <paramref name="d"/>
+    /// sorted descending. The reduction is the blocked one (<see cref="BlockedHouseholderTridiagonalization"/>) and the
+    /// tridiagonal step the root-free QL iteration (<see cref="PalWalkerKahanQl"/>): the same eigenvalues as the
+    /// unblocked reduction and <see cref="ImplicitQl"/> up to rounding (within 1e-12 of the largest in the tests).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double[] EigenvaluesInPlace(double[] a, int n, double[] d, double[] e, double[] work)
     {
-        HouseholderTridiagonalize(a, n, d, e, null, work);
-        ImplicitQl(d, e, null, n);
+        BlockedHouseholderTridiagonalization.Reduce(a, n, d, e, work);
+        PalWalkerKahanQl.Eigenvalues(d, e, n);
         Array.Sort(d);
         Array.Reverse(d);
         return d;

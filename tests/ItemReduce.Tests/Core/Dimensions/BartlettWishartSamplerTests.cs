@@ -67,4 +67,63 @@ public class BartlettWishartSamplerTests
         Assert.True(SymmetricEigensolver.Eigenvalues(r)[^1] > 0);
         Assert.Throws<DataConditionException>(() => BartlettWishartSampler.SampleCorrelation(6, 5, new RandomStream(1)));
     }
+
+    [Theory]
+    [InlineData(1, 5)]
+    [InlineData(13, 40)] // not a multiple of the 4 × 4 blocks
+    [InlineData(50, 200)]
+    public void Blocked_products_equal_the_textbook_triple_loops(int p, int df)
+    {
+        // The draw's matrix products (4 × 4 register-blocked dot products) against plain triple loops in this test on the
+        // same Bartlett factor L: R = scale(L Lᵀ) for the identity scale and R = scale(C L Lᵀ Cᵀ) for a general one
+        // (Anderson 2003, ch. 7: C W Cᵀ ~ Wishart(Σ, m) when Σ = C Cᵀ), to rounding.
+        var c = new double[p * p];
+        for (int i = 0; i < p; i++)
+            for (int j = 0; j <= i; j++) c[i * p + j] = i == j ? 1 : 0.3 / (1 + i - j);
+        foreach (bool general in new[] { false, true })
+        {
+            var l = new double[p * p];
+            BartlettWishartSampler.SampleFactor(p, df, new RandomStream(11), l);
+            var a = general ? Multiply(c, l, p, transposeRight: false) : l;
+            var expected = Multiply(a, a, p, transposeRight: true);
+            var w = new double[p * p];
+            if (general) BartlettWishartSampler.SampleCorrelationInto(p, df, c, new RandomStream(11), new double[p * p], new double[p * p], w);
+            else BartlettWishartSampler.SampleCorrelationInto(p, df, new RandomStream(11), new double[p * p], w);
+            for (int i = 0; i < p; i++)
+                for (int j = 0; j < p; j++)
+                {
+                    double r = expected[i * p + j] / Math.Sqrt(expected[i * p + i] * expected[j * p + j]);
+                    Assert.True(Math.Abs(w[i * p + j] - r) <= 1e-13, $"general {general}, p = {p}, ({i}, {j}): {w[i * p + j]:R} vs {r:R}");
+                }
+        }
+    }
+
+    [Theory]
+    [InlineData(3, 10)]
+    [InlineData(40, 60)]
+    [InlineData(120, 4_999)]
+    public void Smcs_from_the_bartlett_factor_equal_those_from_the_inverse_of_the_drawn_correlation_matrix(int p, int df)
+    {
+        // SMC_j = 1 − 1 / (R⁻¹)_jj (Guttman 1956; Dwyer 1939) computed from the drawn R by Cholesky against the shortcut
+        // (R⁻¹)_jj = W_jj (W⁻¹)_jj from W's own Bartlett factor: equal to rounding.
+        var l = new double[p * p];
+        var r = new double[p * p];
+        BartlettWishartSampler.SampleCorrelationInto(p, df, new RandomStream(5), l, r);
+        var expected = SquaredMultipleCorrelation.Compute(MatrixChecks.FromRowMajor(r, p));
+        var actual = ParallelAnalysis.SmcFromBartlettFactor(l, p, new double[p * p], new double[p]);
+        for (int j = 0; j < p; j++) Assert.True(Math.Abs(actual[j] - expected[j]) <= 1e-12, $"p = {p}, item {j}: {actual[j]:R} vs {expected[j]:R}");
+    }
+
+    private static double[] Multiply(double[] x, double[] y, int p, bool transposeRight)
+    {
+        var z = new double[p * p];
+        for (int i = 0; i < p; i++)
+            for (int j = 0; j < p; j++)
+            {
+                double s = 0;
+                for (int k = 0; k < p; k++) s += x[i * p + k] * (transposeRight ? y[j * p + k] : y[k * p + j]);
+                z[i * p + j] = s;
+            }
+        return z;
+    }
 }
