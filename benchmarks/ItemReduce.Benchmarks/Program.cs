@@ -6,6 +6,8 @@ using BenchmarkDotNet.Running;
 //   dotnet run -c Release --project benchmarks/ItemReduce.Benchmarks -- short-form-dump OUT.txt [respondents] [holdout]
 // Correlation kernel, best of R runs per shape (benchmarks/kernel/correlation-roof.sh compares it with dgemm):
 //   dotnet run -c Release --project benchmarks/ItemReduce.Benchmarks -- correlation-kernel N1,N2 P1,P2,P3 [repeats] [threads]
+// Screening with the accelerated robust fit against plain fixed-point steps on simulated surveys (not a benchmark):
+//   dotnet run -c Release --project benchmarks/ItemReduce.Benchmarks -- er-acceleration OUT.md
 if (args is ["short-form-dump", var path, ..])
 {
     int n = args.Length > 2 ? int.Parse(args[2], CultureInfo.InvariantCulture) : 1_000_000;
@@ -19,6 +21,11 @@ if (args is ["correlation-kernel", var nList, var pList, ..])
     ItemReduce.Benchmarks.CorrelationKernelTiming.Run(Ints(nList), Ints(pList),
         args.Length > 3 ? int.Parse(args[3], CultureInfo.InvariantCulture) : 20,
         args.Length > 4 ? int.Parse(args[4], CultureInfo.InvariantCulture) : -1);
+    return;
+}
+if (args is ["er-acceleration", var comparisonPath, ..])
+{
+    ItemReduce.Benchmarks.ErAccelerationComparison.Run(comparisonPath);
     return;
 }
 BenchmarkSwitcher.FromAssembly(typeof(ItemReduce.Benchmarks.DimensionBenchmarks).Assembly).Run(args);

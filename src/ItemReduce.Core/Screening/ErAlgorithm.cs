@@ -8,9 +8,9 @@ namespace ItemReduce.Core.Screening;
 /// <param name="Rows">Rows the estimate was fitted to.</param>
 /// <param name="Kept">Rows with weight 1 in the final step (distance within the rejection cutoff).</param>
 /// <param name="KeptRows">Weight of each row (true = kept) in the final step.</param>
-/// <param name="StartIterations">EM iterations of the (non-robust) starting estimate.</param>
-/// <param name="Iterations">Robust (ER) iterations.</param>
-/// <param name="Converged">False when an iteration cap was reached.</param>
+/// <param name="StartIterations">Steps (passes over the rows, extrapolated ones included) of the (non-robust) EM start.</param>
+/// <param name="Iterations">Steps of the robust (ER) stages, staged and direct fits together.</param>
+/// <param name="Converged">False when an iteration cap was reached or the chosen fit's last stage ended in a two-cycle of kept sets.</param>
 /// <param name="TruncationFactor">Factor applied to the covariance of the kept rows.</param>
 /// <param name="StagedCollapsed">True when the staged fit collapsed onto a cluster and the direct fit was used.</param>
 internal sealed record ErEstimate(double[] Location, double[,] Scatter, int Rows, int Kept, bool[] KeptRows,
@@ -37,7 +37,14 @@ internal sealed record ErEstimate(double[] Location, double[,] Scatter, int Rows
 /// distribution truncated at that quantile (Croux, C., &amp; Haesbroeck, G., 1999, Journal of Multivariate Analysis
 /// 71(2), 161–190).</item>
 /// <item>Stop when the kept set repeats and the estimate changes by less than <see cref="Tolerance"/>
-/// (<see cref="StageTolerance"/> for the wider stages, which only provide a start).</item>
+/// (<see cref="StageTolerance"/> for the wider stages, which only provide a start), or after 200 steps per stage.</item>
+/// <item>Acceleration (changes the estimate only within the stopping rule's tolerance): the EM start and every ER stage
+/// are iterated with the squared extrapolation of SQUAREM (Varadhan &amp; Roland 2008, see <see cref="Squarem"/>),
+/// safeguarded by a positive definite extrapolated Σ, a log-likelihood not below the cycle's start (EM), and an
+/// unchanged kept set (ER); otherwise the plain step is kept. When a stage's kept set alternates between two sets
+/// (a two-cycle of the hard-weight map, found with missing answers; the plain iteration runs to its cap there), the
+/// double step is iterated instead, and the stage ends, not converged, once the cycle repeats within its tolerance,
+/// on the state the plain iteration would hold at its cap (see <c>Iterate</c>).</item>
 /// </list>
 /// Rows are processed in fixed blocks whose sums are added in block order, so the result does not depend on the
 /// thread count.

@@ -1,7 +1,7 @@
 namespace ItemReduce.Core.Screening;
 
 /// <summary>
-/// The squared extrapolation step of SQUAREM (Varadhan, R., &amp; Roland, C., 2008, "Simple and globally convergent
+/// The squared extrapolation step of SQUAREM (Varadhan, R., &amp; Roland, C. (2008), "Simple and globally convergent
 /// methods for accelerating the convergence of any EM algorithm", Scandinavian Journal of Statistics 35(2), 335–353),
 /// scheme SqS3, for a fixed-point map F on a parameter vector θ. One cycle from θ₀ takes two plain steps
 /// θ₁ = F(θ₀), θ₂ = F(θ₁), forms <c>r = θ₁ − θ₀</c> and <c>v = θ₂ − 2θ₁ + θ₀</c>, and jumps to
