@@ -131,7 +131,8 @@ internal static class ErAlgorithm
         {
             double alpha = list[a], tolerance = a == list.Count - 1 ? Tolerance : StageTolerance;
             truncation = TruncationFactor(alpha, p);
-            var stage = Iterate(new StepMap(x, n, p, null, truncation, (alpha, cuts)), mean, cov, kept, keptCount, tolerance, maxIterations, accelerate);
+            var map = new StepMap(x, n, p, null, truncation, (alpha, cuts));
+            var stage = Iterate(map, mean, cov, kept, keptCount, tolerance, maxIterations, accelerate);
             (mean, cov, kept, keptCount) = (stage.Mean, stage.Cov, stage.Kept!, stage.KeptCount);
             iterations += stage.Evaluations;
             converged = stage.Converged;
@@ -145,7 +146,8 @@ internal static class ErAlgorithm
 
     /// <summary>One E- and M-step as a map of (μ, Σ, kept set): plain EM (every row weight 1, fixed cutoffs) or ER at one
     /// rejection share (cutoffs for the input's kept count, cached per count).</summary>
-    private sealed class StepMap(double[] x, int n, int p, double[]? fixedCut, double factor, (double Alpha, Dictionary<(double, int), double[]> Cache)? rejection)
+    private sealed class StepMap(double[] x, int n, int p, double[]? fixedCut, double factor,
+        (double Alpha, Dictionary<(double, int), double[]> Cache)? rejection)
     {
         public int Items => p;
 
@@ -214,7 +216,8 @@ internal static class ErAlgorithm
             if (history.Count > 4) history.RemoveAt(0);
             return r;
         }
-        bool TwoCycle() => map.Rejects && history.Count == 4 && Same(history[3], history[1]) && Same(history[2], history[0]) && !Same(history[3], history[2]);
+        bool TwoCycle() => map.Rejects && history.Count == 4
+            && Same(history[3], history[1]) && Same(history[2], history[0]) && !Same(history[3], history[2]);
 
         while (evaluations < cap)
         {

@@ -174,7 +174,8 @@ public class ErAlgorithmTests(ITestOutputHelper output)
         var plain = RespondentScreening.Run(scored, new ScreeningOptions { AccelerateRobustFit = false }, raw);
         var fast = RespondentScreening.Run(scored, new ScreeningOptions(), raw);
         output.WriteLine($"steps {plain.Robust.Iterations} → {fast.Robust.Iterations}; flagged {plain.FlaggedRespondents}");
-        Assert.Equal(plain.Respondents.Select(r => (r.Flagged, string.Join(",", r.Reasons))), fast.Respondents.Select(r => (r.Flagged, string.Join(",", r.Reasons))));
+        static (bool, string) Flag(RespondentScreeningRow r) => (r.Flagged, string.Join(",", r.Reasons));
+        Assert.Equal(plain.Respondents.Select(Flag), fast.Respondents.Select(Flag));
         int p = plain.Robust.Location!.Length;
         double scale = Enumerable.Range(0, p).Max(j => plain.Robust.Scatter![j, j]);
         for (int j = 0; j < p; j++)
@@ -208,7 +209,8 @@ public class ErAlgorithmTests(ITestOutputHelper output)
         var (x, rows, items) = Survey(24, 960, true, 0.05, 20261202);
         var many = ErAlgorithm.Fit(x, rows, items, 0.001);
         var exclusive = new ConcurrentExclusiveSchedulerPair().ExclusiveScheduler;
-        var one = await Task.Factory.StartNew(() => ErAlgorithm.Fit(x, rows, items, 0.001), CancellationToken.None, TaskCreationOptions.None, exclusive);
+        var one = await Task.Factory.StartNew(() => ErAlgorithm.Fit(x, rows, items, 0.001), CancellationToken.None,
+            TaskCreationOptions.None, exclusive);
         Assert.Equal(many.KeptRows, one.KeptRows);
         Assert.Equal(many.Location, one.Location);
         Assert.Equal(many.Scatter, one.Scatter);
