@@ -8,6 +8,8 @@ using BenchmarkDotNet.Running;
 //   dotnet run -c Release --project benchmarks/ItemReduce.Benchmarks -- correlation-kernel N1,N2 P1,P2,P3 [repeats] [threads]
 // Parts of one replicate's CPU (draw, SMC, tridiagonal reduction, tridiagonal eigenvalues), best of R per part:
 //   dotnet run -c Release --project benchmarks/ItemReduce.Benchmarks -- eigenvalue-parts P1,P2 [respondents] [repeats]
+// Screening with the accelerated robust fit against plain fixed-point steps on simulated surveys (not a benchmark):
+//   dotnet run -c Release --project benchmarks/ItemReduce.Benchmarks -- er-acceleration OUT.md
 if (args is ["short-form-dump", var path, ..])
 {
     int n = args.Length > 2 ? int.Parse(args[2], CultureInfo.InvariantCulture) : 1_000_000;
@@ -28,6 +30,11 @@ if (args is ["eigenvalue-parts", var pList2, ..])
     ItemReduce.Benchmarks.EigenvalueTiming.Run(pList2.Split(',').Select(x => int.Parse(x, CultureInfo.InvariantCulture)).ToArray(),
         args.Length > 2 ? int.Parse(args[2], CultureInfo.InvariantCulture) : 5_000,
         args.Length > 3 ? int.Parse(args[3], CultureInfo.InvariantCulture) : 5);
+    return;
+}
+if (args is ["er-acceleration", var comparisonPath, ..])
+{
+    ItemReduce.Benchmarks.ErAccelerationComparison.Run(comparisonPath);
     return;
 }
 BenchmarkSwitcher.FromAssembly(typeof(ItemReduce.Benchmarks.DimensionBenchmarks).Assembly).Run(args);

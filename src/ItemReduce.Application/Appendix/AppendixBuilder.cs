@@ -200,6 +200,7 @@ internal static partial class AppendixBuilder
         {
             refs.Add(MethodReferences.LittleSmith1987);
             refs.Add(MethodReferences.DempsterLairdRubin1977);
+            if (s.Robust.Available) refs.Add(MethodReferences.VaradhanRoland2008);   // the iterations are accelerated (RuleDescription says so)
             refs.Add(MethodReferences.Beasley2009);
             refs.Add(MethodReferences.Wilks1963);
             if (s.Robust.Available && s.Robust.ConsistencyFactor != 1) refs.Add(MethodReferences.Olsson1979);

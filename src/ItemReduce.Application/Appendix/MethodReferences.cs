@@ -56,6 +56,7 @@ internal static class MethodReferences
     public const string Pearson1896 = "Pearson, K. (1896). Mathematical contributions to the theory of evolution. III. Regression, heredity, and panmixia. Philosophical Transactions of the Royal Society of London A, 187, 253–318.";
     public const string Olsson1979 = "Olsson, U. (1979). Maximum likelihood estimation of the polychoric correlation coefficient. Psychometrika, 44(4), 443–460.";
     public const string LittleSmith1987 = "Little, R. J. A., & Smith, P. J. (1987). Editing and imputation for quantitative survey data. Journal of the American Statistical Association, 82(397), 58–68.";
+    public const string VaradhanRoland2008 = "Varadhan, R., & Roland, C. (2008). Simple and globally convergent methods for accelerating the convergence of any EM algorithm. Scandinavian Journal of Statistics, 35(2), 335–353.";
     public const string DempsterLairdRubin1977 = "Dempster, A. P., Laird, N. M., & Rubin, D. B. (1977). Maximum likelihood from incomplete data via the EM algorithm. Journal of the Royal Statistical Society B, 39(1), 1–38.";
     public const string Beasley2009 = "Beasley, T. M., Erickson, S., & Allison, D. B. (2009). Rank-based inverse normal transformations are increasingly used, but are they merited? Behavior Genetics, 39(5), 580–595.";
     public const string MendellElston1974 = "Mendell, N. R., & Elston, R. C. (1974). Multifactorial qualitative traits: Genetic analysis and prediction of recurrence risks. Biometrics, 30(1), 41–57.";

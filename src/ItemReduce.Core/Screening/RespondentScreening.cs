@@ -321,13 +321,14 @@ public static class RespondentScreening
         ErEstimate fit;
         try
         {
-            fit = ErAlgorithm.Fit(x, m, p, o.CutoffP, reject: m >= SmallSampleRatio * p);
+            fit = ErAlgorithm.Fit(x, m, p, o.CutoffP, reject: m >= SmallSampleRatio * p, accelerate: o.AccelerateRobustFit);
         }
         catch (InvalidOperationException e)
         {
             return (Unavailable("Robust fit failed: " + e.Message, m, subsampled), null, scores, null, null, null);
         }
-        if (!fit.Converged) warnings.Add("er-not-converged", "The robust EM (ER) estimate reached its iteration cap before settling; robust distances may be slightly off.");
+        if (!fit.Converged) warnings.Add("er-not-converged", "The robust EM (ER) estimate did not settle (its iteration cap was reached, " +
+            "or its kept set alternated between two sets); robust distances may be slightly off.");
         var dist = new MahalanobisDistance(fit.Location, fit.Scatter);
         var inEstimate = new bool[n];
         for (int r = 0; r < m; r++) inEstimate[rowsUsed[r]] = fit.KeptRows[r];
@@ -434,11 +435,14 @@ public static class RespondentScreening
             robust
                 ? string.Format(c, "A respondent is marked for review when any of these holds. {3} The robust squared Mahalanobis distance, computed on the items the respondent answered, " +
                     "exceeds the cutoff that an attentive respondent would exceed with probability {0}. Location and scatter come from a robust EM estimate for incomplete data " +
-                    "(ER: EM with rows weighted 0 or 1 by their distance on the items they answered, fitted to every respondent, with no random subsets) on each item's rank-based normal scores; " +
+                    "(ER: EM with rows weighted 0 or 1 by their distance on the items they answered, fitted to every respondent, with no random subsets{4}) on each item's rank-based normal scores; " +
                     "the cutoff is the finite-sample (Beta) law of in-sample distances with as many degrees of freedom as items answered, multiplied by a factor calibrated by simulation for ordinal answers with this survey's answer distributions and correlations ({1}), and respondents outside the final estimate are judged by the distance they would have inside it.{2}",
                     o.CutoffP, double.IsFinite(calibration) ? calibration.ToString("0.###", c) : "not applied",
                     n < SmallSampleRatio * p ? string.Format(c, " With fewer than {0} respondents per item no respondent is set aside (plain EM estimate).", SmallSampleRatio) : "",
-                    Next())
+                    Next(), o.AccelerateRobustFit
+                        ? "; its iterations accelerated by squared extrapolation (SQUAREM), " +
+                          "which changes the estimate only within the convergence tolerance"
+                        : "")
                 : string.Format(c, "A respondent is marked for review when any of these holds. {1} The classical squared Mahalanobis distance, computed on the items the respondent answered, " +
                     "exceeds the chi-square value with as many degrees of freedom as items answered that an attentive respondent from a multivariate normal population would exceed with probability {0}; " +
                     "the cutoff therefore grows with the number of items answered instead of using one fixed radius.", o.CutoffP, Next()),

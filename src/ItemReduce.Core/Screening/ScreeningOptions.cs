@@ -33,6 +33,13 @@ public sealed record ScreeningOptions
     public int RobustMaxRows { get; init; } = 20_000;
 
     /// <summary>
+    /// False: the robust fit takes plain fixed-point steps, without the SQUAREM extrapolation of <see cref="ErAlgorithm"/>
+    /// (same fixed point to within the convergence tolerance, more passes over the rows). Not a user option: a switch
+    /// for the comparisons in the tests and benchmarks. Default true.
+    /// </summary>
+    internal bool AccelerateRobustFit { get; init; } = true;
+
+    /// <summary>
     /// Long-string limit as a share of the number of items: a run of identical consecutive answers at least
     /// max(<see cref="LongStringMinimum"/>, ⌈share × items⌉) long is flagged. Default 0.5 (our choice: half the
     /// questionnaire answered with one response option; common practice, no source). Range (0, 1].

@@ -69,7 +69,7 @@ public sealed record ScreeningReasonCount(string Code, string Meaning, int Count
 /// <param name="Note">Plain-English remark.</param>
 /// <param name="Method">"er" (robust EM estimate on normal scores).</param>
 /// <param name="StagedCollapsed">True when the staged fit collapsed onto tied answers and the direct fit was used.</param>
-/// <param name="Iterations">EM and ER iterations in all.</param>
+/// <param name="Iterations">Steps (passes over the rows, extrapolated ones included) of the EM start and the ER stages in all.</param>
 public sealed record RobustEstimatorDetails(
     bool Available,
     int CompleteRows,
